@@ -1,0 +1,84 @@
+"""Validity ranges of published correlations, kept once, as data.
+
+Every correlation function in :mod:`hydraulics` and :mod:`coldplate` carries a
+:class:`Validity` record attached with :func:`with_validity`.  The decorator
+appends the range to the function's docstring, so the docstring, the solver's
+range checks, the findings and the reports all read the same numbers.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Bound:
+    """One variable's range: ``low <= value <= high`` (either end may be infinite)."""
+
+    variable: str
+    low: float
+    high: float
+    note: str = ""
+
+    def contains(self, value: float) -> bool:
+        return self.low <= value <= self.high
+
+    def describe(self) -> str:
+        if math.isinf(self.low) and math.isinf(self.high):
+            text = f"{self.variable} any"
+        elif math.isinf(self.high):
+            text = f"{self.variable} >= {self.low:g}"
+        elif math.isinf(self.low):
+            text = f"{self.variable} <= {self.high:g}"
+        else:
+            text = f"{self.low:g} <= {self.variable} <= {self.high:g}"
+        return f"{text} ({self.note})" if self.note else text
+
+
+@dataclass(frozen=True)
+class Validity:
+    """The published validity range of one correlation.
+
+    ``method`` is the name the trade uses (e.g. "Gnielinski"), ``reference`` the
+    citation, ``bounds`` one :class:`Bound` per variable the source restricts.
+    """
+
+    method: str
+    reference: str
+    bounds: tuple[Bound, ...] = ()
+
+    def describe(self) -> str:
+        return "; ".join(b.describe() for b in self.bounds) or "no stated limits"
+
+    def violations(self, **values: float) -> tuple[str, ...]:
+        """Messages for each given variable that lies outside its bound.
+
+        Variables the record does not restrict are ignored; a bound whose
+        variable is not given is not checked.
+        """
+        out = []
+        for b in self.bounds:
+            if b.variable in values:
+                v = float(values[b.variable])
+                if not b.contains(v):
+                    out.append(f"{b.variable} = {v:.4g} outside {b.describe()}")
+        return tuple(out)
+
+
+def with_validity(validity: Validity):
+    """Attach ``validity`` to a correlation function and append it to its docstring."""
+
+    def decorate(fn):
+        fn.validity = validity
+        doc = fn.__doc__ or ""
+        fn.__doc__ = (
+            doc.rstrip()
+            + "\n\n    Validity (from the attached record): "
+            + validity.describe()
+            + "\n    Reference: "
+            + validity.reference
+            + "\n"
+        )
+        return fn
+
+    return decorate
