@@ -1,0 +1,23 @@
+"""coldplate: size a water-cooled cold plate and check its once-through water supply.
+
+Python API::
+
+    from coldplate import check_file
+    result = check_file("examples/reagent-block-channels.toml")
+    result.R_th, result.T_face_max, result.findings
+"""
+__version__ = "0.1.0"
+
+
+def check_file(path):
+    """Read a design file and solve it; returns a frozen :class:`coldplate.result.Result`."""
+    from .solve import check_file as _check_file
+
+    return _check_file(path)
+
+
+def solve(design):
+    """Solve an already-read :class:`coldplate.design.Design`."""
+    from .solve import solve as _solve
+
+    return _solve(design)

@@ -1,0 +1,415 @@
+"""Read a design file (TOML with unit strings) into frozen dataclasses of SI floats.
+
+Everything a user can get wrong is caught here, with a :class:`DesignError` that
+names the field as ``[table] key`` and says what is wrong.  Nothing downstream
+parses units.  The field names are part of the project's interface (scripts and
+tests rely on them); README.md documents them.
+"""
+from __future__ import annotations
+
+import math
+import tomllib
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
+
+from . import materials
+from .errors import DesignError, StateError
+from .units import parse_value
+
+# ---------------------------------------------------------------- dataclasses
+
+
+@dataclass(frozen=True)
+class Heat:
+    load: float  #: [W]
+    footprint_length: float  #: along the flow [m]
+    footprint_width: float  #: across the flow [m]
+
+
+@dataclass(frozen=True)
+class Interface:
+    resistance_area: float  #: R'' [m^2 K/W]
+    described_as: str  #: how the user gave it
+
+
+@dataclass(frozen=True)
+class Plate:
+    material: str | None  #: key in coldplate.materials, or None when conductivity was given
+    conductivity: float  #: [W/(m K)]
+    length: float  #: along the flow [m]
+    width: float  #: [m]
+    base: float  #: metal between the heated face and the passage roof [m]
+    pressure_rating: float | None  #: gauge [Pa]; None = usual rating for the passage kind
+
+
+@dataclass(frozen=True)
+class Channels:
+    count: int
+    width: float  #: [m]
+    depth: float  #: [m]
+    plenum_length: float  #: each end [m]
+    port_diameter: float | None  #: [m]
+    roughness: float  #: absolute [m]
+    kind: str = "channels"
+
+
+@dataclass(frozen=True)
+class Tube:
+    inner_diameter: float  #: [m]
+    outer_diameter: float  #: [m]
+    passes: int
+    bend_radius: float  #: centre-line [m]
+    material: str
+    bond: str
+    roughness: float  #: [m]
+    kind: str = "tube"
+
+
+@dataclass(frozen=True)
+class Cavity:
+    height: float  #: [m]
+    port_diameter: float  #: [m]
+    roughness: float  #: [m]
+    kind: str = "cavity"
+
+
+@dataclass(frozen=True)
+class Supply:
+    source: str  #: "potable", "recirculating" or "process"
+    hours_per_day: float
+    days_per_year: float
+    static_pressure: float | None  #: gauge [Pa]
+    discharge_limit: float  #: [K]
+
+    @property
+    def line_pressure(self) -> float:
+        """Absolute pressure in the plate [Pa]: static gauge plus one atmosphere (atmospheric if unknown)."""
+        return P_ATM + (self.static_pressure or 0.0)
+
+
+@dataclass(frozen=True)
+class Room:
+    temperature: float  #: [K]
+    relative_humidity: float  #: [-] 0..1
+
+
+@dataclass(frozen=True)
+class Model:
+    laminar: str = "muzychka-yovanovich"
+    turbulent: str = "gnielinski"
+    segments: int = 40
+
+
+@dataclass(frozen=True)
+class Design:
+    title: str
+    heat: Heat
+    interface: Interface
+    plate: Plate
+    passage: Channels | Tube | Cavity
+    coolant: Coolant
+    inlet_temperature: float  #: [K]
+    flow: float  #: [m^3/s]
+    supply: Supply
+    room: Room
+    model: Model
+
+
+PASSAGE_KINDS = ("channels", "tube", "cavity")
+SOURCES = ("potable", "recirculating", "process")
+LAMINAR_CHOICES = ("muzychka-yovanovich", "hausen", "sieder-tate", "fully-developed")
+TURBULENT_CHOICES = ("gnielinski", "dittus-boelter")
+
+#: Default drain temperature limit: 60 degC (140 degF), a common plumbing-code limit.
+DEFAULT_DISCHARGE_LIMIT = 333.15
+#: Default plenum length at each end of a channel field, when not given [m].
+DEFAULT_PLENUM_LENGTH = 0.005
+
+# ---------------------------------------------------------------- field reader
+
+
+class _Table:
+    """One TOML table with every read recorded, so unknown keys can be refused."""
+
+    def __init__(self, data: Any, name: str):
+        if not isinstance(data, dict):
+            raise DesignError(f"[{name}]", "must be a table")
+        self.data, self.name, self.used = data, name, set()
+
+    def field(self, key: str) -> str:
+        return f"[{self.name}] {key}"
+
+    def has(self, key: str) -> bool:
+        return key in self.data
+
+    def raw(self, key: str, required: bool = True):
+        self.used.add(key)
+        if key not in self.data:
+            if required:
+                raise DesignError(self.field(key), "is missing")
+            return None
+        return self.data[key]
+
+    def value(self, key: str, kind: str, *, required=True, low=None, high=None, low_inclusive=False,
+              default=None) -> float | None:
+        raw = self.raw(key, required and default is None)
+        if raw is None:
+            return default
+        v = parse_value(raw, kind, self.field(key))
+        self._range(key, v, low, high, low_inclusive, raw)
+        return v
+
+    def _range(self, key, v, low, high, low_inclusive, raw):
+        if low is not None:
+            if (v < low) if low_inclusive else (v <= low):
+                what = "zero or negative" if low == 0 else f"below {low:g} (SI)"
+                if low == 0 and low_inclusive:
+                    what = "negative"
+                raise DesignError(self.field(key), f"{raw!r} is {what}; it must be {'at least' if low_inclusive else 'above'} {low:g}")
+        if high is not None and v > high:
+            raise DesignError(self.field(key), f"{raw!r} is implausibly large (limit {high:g} in SI units)")
+
+    def integer(self, key: str, low: int, high: int) -> int:
+        raw = self.raw(key)
+        if isinstance(raw, bool) or not isinstance(raw, int):
+            raise DesignError(self.field(key), f"must be a whole number, got {raw!r}")
+        if not (low <= raw <= high):
+            raise DesignError(self.field(key), f"{raw} is outside {low}..{high}")
+        return raw
+
+    def choice(self, key: str, choices, default=None) -> str:
+        raw = self.raw(key, default is None)
+        if raw is None:
+            return default
+        if raw not in choices:
+            raise DesignError(self.field(key), f"{raw!r} is not one of: {', '.join(choices)}")
+        return raw
+
+    def exactly_one(self, *keys: str) -> str:
+        given = [k for k in keys if k in self.data]
+        if len(given) != 1:
+            which = "both" if len(given) > 1 else "neither"
+            raise DesignError(f"[{self.name}]", f"give exactly one of {' or '.join(keys)} ({which} given)")
+        return given[0]
+
+    def finish(self) -> None:
+        unknown = sorted(set(self.data) - self.used)
+        if unknown:
+            raise DesignError(self.field(unknown[0]), f"unknown key (known here: {', '.join(sorted(self.used))})")
+
+
+# ---------------------------------------------------------------- reading
+
+
+def load_design(path: str | Path) -> Design:
+    """Read and check a design file; raise :class:`DesignError` on any problem."""
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+    except FileNotFoundError:
+        raise DesignError("", f"design file {str(path)!r} does not exist") from None
+    except (OSError, UnicodeDecodeError) as exc:
+        raise DesignError("", f"cannot read design file {str(path)!r}: {exc}") from None
+    return parse_design(text)
+
+
+def parse_design(text: str) -> Design:
+    """Parse design-file text (TOML)."""
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise DesignError("", f"not a valid TOML file: {exc}") from None
+    return design_from_dict(data)
+
+
+_TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
+
+
+def design_from_dict(data: dict) -> Design:
+    unknown = sorted(set(data) - set(_TOP))
+    if unknown:
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP)})")
+    title = data.get("title")
+    if not isinstance(title, str) or not title.strip():
+        raise DesignError("title", "is missing or empty")
+    for name in _TOP[1:-1]:
+        if name not in data:
+            raise DesignError(f"[{name}]", "table is missing")
+
+    plate = _plate(_Table(data["plate"], "plate"))
+    heat = _heat(_Table(data["heat"], "heat"), plate)
+    interface = _interface(_Table(data["interface"], "interface"))
+    passage = _passage(_Table(data["passage"], "passage"), plate)
+    supply = _supply(_Table(data["supply"], "supply"))
+    coolant, T_in, flow = _coolant(_Table(data["coolant"], "coolant"), supply)
+    room = _room(_Table(data["room"], "room"))
+    model = _model(_Table(data.get("correlations", {}), "correlations"))
+    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model)
+
+
+def _plate(t: _Table) -> Plate:
+    which = t.exactly_one("material", "conductivity")
+    if which == "material":
+        key = t.raw("material")
+        try:
+            mat = materials.material(key)
+        except (KeyError, TypeError) as exc:
+            raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
+        k, key = mat.conductivity, mat.key
+    else:
+        k, key = t.value("conductivity", "conductivity", low=0, high=5000), None
+    length = t.value("length", "length", low=0, high=2.0)
+    width = t.value("width", "length", low=0, high=2.0)
+    base = t.value("base", "length", low=0, high=0.2)
+    rating = t.value("pressure_rating", "pressure", required=False, low=0, high=1e8)
+    t.finish()
+    return Plate(key, k, length, width, base, rating)
+
+
+def _heat(t: _Table, plate: Plate) -> Heat:
+    load = t.value("load", "power", low=0, high=1e5)
+    fp = t.raw("footprint")
+    if not isinstance(fp, list) or len(fp) != 2:
+        raise DesignError(t.field("footprint"), "must be an array of two lengths, along the flow and across, e.g. [\"40 mm\", \"40 mm\"]")
+    fl = parse_value(fp[0], "length", t.field("footprint") + " (along the flow)")
+    fw = parse_value(fp[1], "length", t.field("footprint") + " (across)")
+    for v, what, limit, pname in ((fl, "along the flow", plate.length, "length"), (fw, "across", plate.width, "width")):
+        if v <= 0:
+            raise DesignError(t.field("footprint"), f"the length {what} must be above zero")
+        if v > limit * (1 + 1e-9):
+            raise DesignError(t.field("footprint"), f"{v * 1e3:.4g} mm {what} is larger than the plate {pname} {limit * 1e3:.4g} mm")
+    t.finish()
+    return Heat(load, fl, fw)
+
+
+def _interface(t: _Table) -> Interface:
+    if t.has("resistance"):
+        if t.has("conductivity") or t.has("thickness"):
+            raise DesignError("[interface]", "give either resistance, or conductivity and thickness (both given)")
+        r = t.value("resistance", "area_resistance", low=0, low_inclusive=True, high=1e-2)
+        t.finish()
+        return Interface(r, f"R'' = {r:.3g} m²K/W")
+    if not (t.has("conductivity") and t.has("thickness")):
+        raise DesignError("[interface]", "give either resistance, or conductivity and thickness (neither complete)")
+    k = t.value("conductivity", "conductivity", low=0, high=2000)
+    th = t.value("thickness", "length", low=0, high=0.005)
+    t.finish()
+    return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
+
+
+def _passage(t: _Table, plate: Plate):
+    kind = t.choice("kind", PASSAGE_KINDS)
+    if kind == "channels":
+        count = t.integer("count", 1, 2000)
+        w = t.value("width", "length", low=0, high=plate.width)
+        d = t.value("depth", "length", low=0, high=0.1)
+        plen = t.value("plenum_length", "length", required=False, low=0, low_inclusive=True,
+                       default=DEFAULT_PLENUM_LENGTH)
+        port = t.value("port_diameter", "length", required=False, low=0, high=0.1)
+        rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
+                        default=materials.roughness("machined-metal"))
+        wall = (plate.width - count * w) / (count + 1)
+        if wall <= 0:
+            raise DesignError(t.field("count"), f"{count} channels of {w * 1e3:.4g} mm do not fit the plate width "
+                                                f"{plate.width * 1e3:.4g} mm with a wall between them")
+        if plate.length - 2 * plen <= 0:
+            raise DesignError(t.field("plenum_length"), "two plenums leave no length for the channels")
+        t.finish()
+        return Channels(count, w, d, plen, port, rough)
+    if kind == "tube":
+        di = t.value("inner_diameter", "length", low=0, high=0.1)
+        do = t.value("outer_diameter", "length", low=0, high=0.1)
+        if do <= di:
+            raise DesignError(t.field("outer_diameter"), "must be larger than inner_diameter")
+        passes = t.integer("passes", 1, 200)
+        rb = t.value("bend_radius", "length", low=0, high=0.5)
+        mkey = t.raw("material")
+        try:
+            mat = materials.material(mkey)
+        except (KeyError, TypeError) as exc:
+            raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
+        bond = t.choice("bond", tuple(materials.BONDS))
+        rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
+                        default=materials.roughness("drawn-tubing"))
+        if passes > 1 and 2 * rb < do:
+            raise DesignError(t.field("bend_radius"), "a return bend of this radius puts adjacent passes closer than the tube diameter")
+        span = (passes - 1) * 2 * rb + do
+        if span > plate.width:
+            raise DesignError(t.field("passes"), f"{passes} passes at {2 * rb * 1e3:.4g} mm pitch need {span * 1e3:.4g} mm, "
+                                                 f"wider than the plate ({plate.width * 1e3:.4g} mm)")
+        t.finish()
+        return Tube(di, do, passes, rb, mat.key, bond, rough)
+    h = t.value("height", "length", low=0, high=0.1)
+    port = t.value("port_diameter", "length", low=0, high=0.1)
+    rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
+                    default=materials.roughness("machined-metal"))
+    if port > plate.width:
+        raise DesignError(t.field("port_diameter"), "is wider than the plate")
+    t.finish()
+    return Cavity(h, port, rough)
+
+
+def _supply(t: _Table) -> Supply:
+    source = t.choice("source", SOURCES)
+    hraw = t.raw("hours_per_day")
+    if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
+        hours = float(hraw)
+        if not math.isfinite(hours):
+            raise DesignError(t.field("hours_per_day"), "must be a finite number")
+    else:
+        hours = parse_value(hraw, "time", t.field("hours_per_day")) / 3600.0
+    if not (0 < hours <= 24):
+        raise DesignError(t.field("hours_per_day"), f"{hraw!r} must be above 0 and at most 24")
+    days = t.raw("days_per_year", required=False)
+    if days is None:
+        days = 365.0
+    elif isinstance(days, bool) or not isinstance(days, (int, float)) or not (0 < days <= 366):
+        raise DesignError(t.field("days_per_year"), f"{days!r} must be a number above 0 and at most 366")
+    p = t.value("static_pressure", "pressure", required=False, low=0, low_inclusive=True, high=5e6)
+    limit = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15,
+                    default=DEFAULT_DISCHARGE_LIMIT)
+    t.finish()
+    return Supply(source, hours, float(days), p, limit)
+
+
+def _coolant(t: _Table, supply: Supply):
+    fluid = t.choice("fluid", FLUIDS)
+    if fluid == "water":
+        fraction, basis = 0.0, "mass"
+    else:
+        fraction = t.value("fraction", "fraction", low=0, high=1)
+        basis = t.choice("basis", ("mass", "volume"))
+    try:
+        coolant = Coolant(fluid, fraction, basis)
+    except ValueError as exc:
+        raise DesignError(t.field("fraction"), str(exc)) from None
+    T_in = t.value("inlet_temperature", "temperature", low=0, high=500)
+    try:
+        coolant.check_liquid(T_in, supply.line_pressure)
+    except _CoolantStateError as exc:
+        raise StateError(t.field("inlet_temperature"), str(exc)) from None
+    flow = t.value("flow", "flow", low=0, high=0.01)
+    t.finish()
+    return coolant, T_in, flow
+
+
+def _room(t: _Table) -> Room:
+    T = t.value("temperature", "temperature", low=223.15, high=333.15)
+    rh = t.value("relative_humidity", "fraction", low=0, high=1.0)
+    t.finish()
+    return Room(T, rh)
+
+
+def _model(t: _Table) -> Model:
+    lam = t.choice("laminar", LAMINAR_CHOICES, default=Model.laminar)
+    turb = t.choice("turbulent", TURBULENT_CHOICES, default=Model.turbulent)
+    seg = t.raw("segments", required=False)
+    if seg is None:
+        seg = Model.segments
+    elif isinstance(seg, bool) or not isinstance(seg, int) or not (4 <= seg <= 2000):
+        raise DesignError(t.field("segments"), f"{seg!r} must be a whole number from 4 to 2000")
+    t.finish()
+    return Model(lam, turb, seg)

@@ -1,0 +1,43 @@
+"""What every passage kind tells the solver: its flow geometry, its back-side
+resistances for a given heat transfer coefficient, and its minor losses.
+
+The passage modules are the only places that know a passage's shape.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Geometry:
+    """Flow geometry of one passage kind (SI)."""
+
+    kind: str
+    shape: str  #: "rectangle" or "circle" (for the friction and Nu correlations)
+    n_parallel: int  #: identical flow paths in parallel
+    flow_area: float  #: one path's cross-section [m^2]
+    wetted_perimeter: float  #: one path [m]
+    D_h: float  #: hydraulic diameter [m]
+    alpha: float  #: aspect ratio short/long side [-] (1 for a circle)
+    path_length: float  #: one path's length [m]
+    heated_length: float  #: length of one path in contact with the plate [m]
+    heated_walls: int  #: walls that take heat, for the laminar Nu table (4 = all)
+    roughness: float  #: absolute [m]
+    description: str  #: one line for reports
+
+    @property
+    def rel_roughness(self) -> float:
+        return self.roughness / self.D_h
+
+
+@dataclass(frozen=True)
+class BackSide:
+    """Resistances between the passage roof and the coolant [K/W], named for the breakdown."""
+
+    parts: tuple[tuple[str, float], ...]
+    wetted_area: float  #: heated wetted area [m^2] (for the report)
+    eta_fin: float | None = None  #: fin efficiency of channel walls, where there are fins
+
+    @property
+    def total(self) -> float:
+        return sum(r for _, r in self.parts)

@@ -1,0 +1,73 @@
+"""Parallel rectangular channels machined in the plate, with inlet and outlet plenums.
+
+``count`` channels of ``width`` × ``depth`` share the plate width with ``count + 1``
+walls of equal thickness (the two outer walls included).  The channel floors and
+the two side walls take heat; the walls act as straight fins of height ``depth``
+with an adiabatic tip at the lid (the lid is taken as unheated: a cautious,
+common-practice assumption).  Flow enters a plenum across the plate, contracts
+into the channels and expands into the outlet plenum; optional round ports feed
+the plenums.
+"""
+from __future__ import annotations
+
+import math
+
+from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
+
+from ..conduction import fin_efficiency_straight, fin_m
+from .base import BackSide, Geometry
+
+
+def wall_thickness(passage, plate) -> float:
+    """Thickness of each wall between channels [m]."""
+    return (plate.width - passage.count * passage.width) / (passage.count + 1)
+
+
+def channel_length(passage, plate) -> float:
+    return plate.length - 2 * passage.plenum_length
+
+
+def geometry(passage, plate) -> Geometry:
+    w, d = passage.width, passage.depth
+    L = channel_length(passage, plate)
+    return Geometry(
+        kind="channels",
+        shape="rectangle",
+        n_parallel=passage.count,
+        flow_area=w * d,
+        wetted_perimeter=2 * (w + d),
+        D_h=hydraulic_diameter_rectangle(w, d),
+        alpha=aspect_ratio(w, d),
+        path_length=L,
+        heated_length=L,
+        heated_walls=3,
+        roughness=passage.roughness,
+        description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
+                     f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),
+    )
+
+
+def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
+    t_w = wall_thickness(passage, plate)
+    eta = float(fin_efficiency_straight(fin_m(h, plate.conductivity, t_w), passage.depth))
+    L = geom.path_length
+    area = passage.count * L * (passage.width + 2 * passage.depth)
+    effective = passage.count * L * (passage.width + 2 * passage.depth * eta)
+    return BackSide(parts=(("convection", 1.0 / (h * effective)),), wetted_area=area, eta_fin=eta)
+
+
+def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:
+    """Plenum-to-channel contraction and channel-to-plenum expansion; port losses if ports are given."""
+    plenum_face = plate.width * passage.depth
+    channels = passage.count * geom.flow_area
+    losses = [
+        MinorLoss("contraction into channels", K_sudden_contraction(plenum_face, channels), V),
+        MinorLoss("expansion out of channels", K_sudden_expansion(channels, plenum_face), V),
+    ]
+    if passage.port_diameter:
+        port_area = math.pi * passage.port_diameter**2 / 4
+        V_port = V * channels / port_area
+        losses.insert(0, MinorLoss("inlet port into plenum", K_sudden_expansion(port_area, plenum_face), V_port))
+        losses.append(MinorLoss("plenum into outlet port", K_sudden_contraction(plenum_face, port_area), V_port))
+    return tuple(losses)

@@ -1,0 +1,90 @@
+"""The frozen result of one design check, in SI units (temperatures in kelvin)."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from hydraulics.coolant import Props
+from hydraulics.losses import MinorLoss
+
+from .design import Design
+from .passages.base import Geometry
+
+SEVERITIES = ("danger", "warning", "caution", "note")  #: most severe first
+
+
+@dataclass(frozen=True)
+class Finding:
+    """One finding: an id, a severity from :data:`SEVERITIES`, the message with its numbers, what to do."""
+
+    id: str
+    severity: str
+    message: str
+    action: str
+
+    def __post_init__(self):
+        if self.severity not in SEVERITIES:
+            raise ValueError(f"unknown severity {self.severity!r}")
+
+
+@dataclass(frozen=True)
+class MethodUse:
+    """A published correlation the check used, with where the design sits in its range."""
+
+    role: str  #: e.g. "laminar Nu", "turbulent friction", "spreading"
+    method: str
+    reference: str
+    validity: str  #: the range, as text (from the Validity record)
+    values: tuple[tuple[str, float], ...]  #: the design's values of the range variables
+    outside: tuple[str, ...]  #: messages for values outside the range (empty = inside)
+
+
+@dataclass(frozen=True)
+class Profile:
+    """Temperatures along the flow (x from the plate's inlet edge) [m], [K]."""
+
+    x: tuple[float, ...]
+    T_bulk: tuple[float, ...]
+    T_top: tuple[float, ...]  #: plate top face on the centre line (add the interface rise within the footprint)
+
+
+@dataclass(frozen=True)
+class Result:
+    design: Design
+    geometry: Geometry
+    props: Props  #: at the bulk mean temperature
+    R_th: float  #: (hottest mounting-face T - inlet T) / load [K/W]
+    resistances: tuple[tuple[str, float], ...]  #: parts of R_th, in path order [K/W]
+    T_in: float
+    T_out: float
+    T_face_max: float  #: hottest mounting face (device side of the interface) [K]
+    T_plate_max: float  #: hottest point of the plate's top face [K]
+    x_hot: float  #: where along the flow the hottest point is [m]
+    dp: float  #: plate pressure drop [Pa]
+    dp_friction: float
+    minor_losses: tuple[MinorLoss, ...]
+    velocity: float  #: mean velocity in the passage [m/s]
+    Re: float
+    Pr: float
+    Nu: float
+    f_darcy: float
+    regime: str
+    h: float  #: heat transfer coefficient on the wetted wall [W/(m^2 K)]
+    eta_fin: float | None
+    wetted_area: float
+    V_dot: float  #: [m^3/s]
+    m_dot: float  #: [kg/s]
+    line_pressure: float  #: absolute [Pa]
+    T_boil: float  #: saturation temperature at line pressure [K]
+    T_dew: float  #: room dew point (frost point below 0 degC) [K]
+    dew_kind: str  #: "dew point" or "frost point"
+    water_use_L_per_day: float
+    water_use_m3_per_year: float
+    methods: tuple[MethodUse, ...]
+    profile: Profile
+    iterations: int
+    assumptions: tuple[str, ...]
+    findings: tuple[Finding, ...] = field(default=())
+
+    @property
+    def load(self) -> float:
+        return self.design.heat.load

@@ -1,0 +1,212 @@
+"""The one solve: design in, frozen :class:`Result` out.
+
+Chain (each step a published method, see DEVELOPERS.md):
+
+1. coolant properties at the bulk mean temperature (CoolProp), iterated with the
+   outlet temperature from an enthalpy balance, and with the wall temperature
+   where the laminar model carries a viscosity correction (Sieder-Tate);
+2. passage geometry → velocity, Reynolds and Prandtl numbers, regime;
+3. Darcy friction (apparent friction in developing laminar flow, Gnielinski's
+   transition interpolation, Petukhov or Colebrook when turbulent) and the minor
+   losses of plenums, ports and bends;
+4. Nusselt number → heat transfer coefficient → the passage's back-side
+   resistances (fins, bond, tube wall, convection);
+5. the plate: Muzychka-Culham-Yovanovich spreading series with the back side
+   smeared into an effective coefficient over the plate, then a march along the
+   flow adding the coolant's local bulk temperature rise, so the hottest point of
+   the mounting face is found, not assumed;
+6. findings (condensation, cross-connection, discharge, velocity, pressure,
+   metals, electrical safety, correlation ranges).
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+import numpy as np
+
+from hydraulics.coolant import StateError as _CoolantStateError
+from hydraulics.coolant import enthalpy
+from hydraulics.friction import darcy_friction
+from hydraulics.losses import total_pressure_drop
+
+from . import conduction, psychro
+from .convection import nusselt
+from .design import Design, load_design
+from .errors import DesignError, SolveError
+from .findings import collect_findings
+from .passages import PASSAGES
+from .result import MethodUse, Profile, Result
+
+MAX_ITERATIONS = 60
+TOLERANCE_K = 1e-5
+
+
+def check_file(path) -> Result:
+    """Read a design file and solve it (the Python API of ``coldplate check``)."""
+    return solve(load_design(path))
+
+
+def solve(design: Design) -> Result:
+    """Solve the design check for one design."""
+    d = design
+    Q = d.heat.load
+    p = d.supply.line_pressure
+    coolant = d.coolant
+    module = PASSAGES[d.passage.kind]
+    geom = module.geometry(d.passage, d.plate)
+    T_in = d.inlet_temperature
+    T_boil = coolant.boiling_point(p)
+
+    rho_in = coolant.props(T_in, p).rho
+    m_dot = rho_in * d.flow  # the volumetric flow is taken at inlet conditions
+    H_in = enthalpy(coolant, T_in, p)
+    total_area = geom.n_parallel * geom.flow_area
+    A_plate = d.plate.length * d.plate.width
+    A_fp = d.heat.footprint_length * d.heat.footprint_width
+
+    cp0 = coolant.props(T_in, p).cp
+    T_out = T_in + Q / (m_dot * cp0)
+    T_wall = T_out
+    for iteration in range(1, MAX_ITERATIONS + 1):
+        _check_outlet(T_out, T_boil, coolant, p)
+        T_mean = 0.5 * (T_in + T_out)
+        pr = coolant.props(T_mean, p)
+        V = m_dot / (pr.rho * total_area)
+        Re = pr.rho * V * geom.D_h / pr.mu
+        fr = darcy_friction(Re, geom.path_length, geom.D_h, geom.alpha, geom.shape, geom.rel_roughness)
+        mu_ratio = 1.0
+        if d.model.laminar == "sieder-tate":
+            mu_ratio = pr.mu / coolant.props(min(T_wall, T_boil - 0.5), p).mu
+        cv = nusselt(Re, pr.Pr, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
+                     laminar=d.model.laminar, turbulent=d.model.turbulent,
+                     heated_walls=geom.heated_walls, mu_ratio=mu_ratio)
+        h = float(cv.Nu) * pr.k / geom.D_h
+        back = module.back_side(d.passage, d.plate, geom, h)
+        conv = dict(back.parts)["convection"]
+        # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
+        H_target = H_in + Q / m_dot
+        _check_outlet(T_out, T_boil, coolant, p)
+        cp_bar = (enthalpy(coolant, T_out, p) - H_in) / (T_out - T_in) if T_out - T_in > 1e-9 else pr.cp
+        T_out_new = T_in + (H_target - H_in) / cp_bar
+        T_wall_new = T_mean + Q * conv
+        change = max(abs(T_out_new - T_out), abs(T_wall_new - T_wall) if mu_ratio != 1.0 else 0.0)
+        T_out, T_wall = T_out_new, T_wall_new
+        if change < TOLERANCE_K:
+            break
+    else:
+        raise SolveError(f"the outlet temperature did not settle in {MAX_ITERATIONS} iterations "
+                         f"(last change {change:.3g} K)")
+    _check_outlet(T_out, T_boil, coolant, p)
+
+    # --- the plate: spreading with the back side smeared over the plate, then the march
+    R_below = back.total
+    h_eff = 1.0 / (A_plate * R_below)
+    spread = conduction.spreading_MCY(d.plate.length, d.plate.width, d.heat.footprint_length,
+                                      d.heat.footprint_width, d.plate.base, d.plate.conductivity, h_eff)
+    n = d.model.segments
+    x = np.linspace(0.0, d.plate.length, n + 1)
+    rise = np.asarray(spread.top_rise_centreline(x))
+    frac = np.asarray(spread.absorbed_fraction(x))
+    T_bulk = T_in + (T_out - T_in) * frac
+    T_top = T_bulk + Q * rise
+    x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
+    xf = np.linspace(x0, x0 + d.heat.footprint_length, 4 * n + 1)  # the march over the footprint
+    T_top_f = T_in + (T_out - T_in) * np.asarray(spread.absorbed_fraction(xf)) + Q * np.asarray(
+        spread.top_rise_centreline(xf))
+    i_hot = int(np.argmax(T_top_f))
+    x_hot = float(xf[i_hot])
+    T_plate_max = float(T_top_f[i_hot])
+    R_int = d.interface.resistance_area / A_fp
+    T_face_max = T_plate_max + Q * R_int
+    R_th = (T_face_max - T_in) / Q
+
+    R_base = d.plate.base / (d.plate.conductivity * A_plate)
+    theta_hot = float(spread.top_rise_centreline(np.array([x_hot]))[0])
+    R_coolant = (T_plate_max - T_in) / Q - theta_hot
+    parts = [("interface", R_int), ("spreading", theta_hot - R_base - R_below), ("base conduction", R_base)]
+    parts += list(back.parts)
+    parts.append(("coolant temperature rise", R_coolant))
+
+    # --- pressure drop
+    losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
+    dp_f = float(fr.f) * geom.path_length / geom.D_h * 0.5 * pr.rho * V**2
+    dp = dp_f + total_pressure_drop(losses, pr.rho)
+
+    # --- room air
+    T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
+    dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
+
+    litres_per_day = d.flow * 1000.0 * 3600.0 * d.supply.hours_per_day
+    methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
+                       alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
+    methods += (_use("spreading", conduction.spreading_MCY, {}),)
+    if back.eta_fin is not None:
+        methods += (_use("fin efficiency", conduction.fin_efficiency_straight, {}),)
+    methods += (_use("dew point", psychro.dew_point, {"T": d.room.temperature}),)
+
+    result = Result(
+        design=d, geometry=geom, props=pr, R_th=R_th, resistances=tuple(parts), T_in=T_in, T_out=T_out,
+        T_face_max=T_face_max, T_plate_max=T_plate_max, x_hot=x_hot, dp=dp, dp_friction=dp_f,
+        minor_losses=losses, velocity=V, Re=Re, Pr=pr.Pr, Nu=float(cv.Nu), f_darcy=float(fr.f),
+        regime=cv.regime, h=h, eta_fin=back.eta_fin, wetted_area=back.wetted_area, V_dot=d.flow,
+        m_dot=m_dot, line_pressure=p, T_boil=T_boil, T_dew=T_dew, dew_kind=dew_kind,
+        water_use_L_per_day=litres_per_day,
+        water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0,
+        methods=methods,
+        profile=Profile(tuple(map(float, x)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
+        iterations=iteration, assumptions=_assumptions(d),
+    )
+    return replace(result, findings=collect_findings(result))
+
+
+def _check_outlet(T_out, T_boil, coolant, p):
+    if not math.isfinite(T_out) or T_out >= T_boil:
+        raise DesignError("[coolant] flow", f"is too small for the load: the coolant would reach boiling "
+                                            f"({T_boil - 273.15:.1f} degC at {p / 1e3:.0f} kPa absolute) before the outlet")
+    try:
+        coolant.check_liquid(T_out, p)
+    except _CoolantStateError as exc:
+        raise DesignError("[coolant] flow", str(exc)) from None
+
+
+def _use(role, fn, values):
+    v = fn.validity
+    return MethodUse(role=role, method=v.method, reference=v.reference, validity=v.describe(),
+                     values=tuple((k, float(x)) for k, x in values.items()), outside=v.violations(**values))
+
+
+def _methods(friction_methods, convection_methods, **values) -> tuple[MethodUse, ...]:
+    out, seen = [], set()
+    for role, records in (("friction", friction_methods), ("convection", convection_methods)):
+        for v in records:
+            if (role, v.method) in seen:
+                continue
+            seen.add((role, v.method))
+            used = {k: x for k, x in values.items() if any(b.variable == k for b in v.bounds)}
+            out.append(MethodUse(role=role, method=v.method, reference=v.reference, validity=v.describe(),
+                                 values=tuple((k, float(x)) for k, x in used.items()),
+                                 outside=v.violations(**used)))
+    return tuple(out)
+
+
+def _assumptions(d: Design) -> tuple[str, ...]:
+    out = [
+        "steady state; the heated footprint is centred on the plate with a uniform heat flux",
+        "the passage's back-side resistances are smeared over the plate area as one effective coefficient "
+        "for the spreading series; the coolant's bulk temperature rise is added along the flow",
+        "coolant properties at the bulk mean temperature and the line pressure; flow given at inlet conditions",
+        "the sides and the lid of the plate are adiabatic (no heat to room air)",
+    ]
+    if d.passage.kind == "channels":
+        out.append("flow is shared evenly between channels; the walls are fins with an adiabatic tip at the lid")
+        if d.passage.port_diameter is None:
+            out.append("no port diameter given: port losses are not included in the pressure drop")
+    elif d.passage.kind == "tube":
+        out.append("the groove holds half the tube's circumference; the plate between passes conducts "
+                   "sideways through the base thickness only")
+    else:
+        out.append("flow spreads evenly across the cavity width")
+    if d.supply.static_pressure is None:
+        out.append("no static pressure given: properties and boiling point at atmospheric pressure")
+    return tuple(out)

@@ -1,0 +1,60 @@
+"""The result as one JSON object: SI units, with the unit in each key's name.
+
+Only formatting: every number comes from the result object.
+"""
+from __future__ import annotations
+
+import json
+
+
+def _c(T: float) -> float:
+    return T - 273.15
+
+
+def result_to_dict(r, version: str = "") -> dict:
+    d = r.design
+    return {
+        "title": d.title,
+        "software_version": version,
+        "thermal_resistance_K_per_W": r.R_th,
+        "resistances_K_per_W": {name: value for name, value in r.resistances},
+        "surface_temperature_max_C": _c(r.T_face_max),
+        "plate_surface_temperature_max_C": _c(r.T_plate_max),
+        "hot_spot_from_inlet_edge_m": r.x_hot,
+        "inlet_temperature_C": _c(r.T_in),
+        "outlet_temperature_C": _c(r.T_out),
+        "heat_load_W": d.heat.load,
+        "pressure_drop_Pa": r.dp,
+        "pressure_drop_parts_Pa": {"friction": r.dp_friction,
+                                   **{m.name: m.pressure_drop(r.props.rho) for m in r.minor_losses}},
+        "velocity_m_per_s": r.velocity,
+        "reynolds": r.Re,
+        "prandtl": r.Pr,
+        "nusselt": r.Nu,
+        "darcy_friction_factor": r.f_darcy,
+        "regime": r.regime,
+        "heat_transfer_coefficient_W_per_m2K": r.h,
+        "fin_efficiency": r.eta_fin,
+        "wetted_area_m2": r.wetted_area,
+        "flow_m3_per_s": r.V_dot,
+        "mass_flow_kg_per_s": r.m_dot,
+        "line_pressure_Pa_abs": r.line_pressure,
+        "boiling_point_C": _c(r.T_boil),
+        "water_use_L_per_day": r.water_use_L_per_day,
+        "water_use_m3_per_year": r.water_use_m3_per_year,
+        "dew_point_C": _c(r.T_dew),
+        "dew_point_kind": r.dew_kind,
+        "passage": r.geometry.description,
+        "coolant": d.coolant.label(),
+        "profile": {"x_m": list(r.profile.x), "bulk_temperature_C": [_c(t) for t in r.profile.T_bulk],
+                    "plate_top_temperature_C": [_c(t) for t in r.profile.T_top]},
+        "methods": [{"role": m.role, "method": m.method, "reference": m.reference, "validity": m.validity,
+                     "values": dict(m.values), "outside_range": list(m.outside)} for m in r.methods],
+        "assumptions": list(r.assumptions),
+        "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
+                     for f in r.findings],
+    }
+
+
+def render_json(r, version: str = "") -> str:
+    return json.dumps(result_to_dict(r, version), indent=2, ensure_ascii=False)

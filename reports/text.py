@@ -1,0 +1,69 @@
+"""The text summary printed by ``coldplate check``: an aligned table with units, then findings.
+
+Only formatting: every number comes from the result object.
+"""
+from __future__ import annotations
+
+import textwrap
+
+WIDTH = 92
+
+
+def _c(T: float) -> str:
+    return f"{T - 273.15:.2f}"
+
+
+def _table(rows, title):
+    lines = [title, "-" * len(title)]
+    wq = max(len(q) for q, _, _ in rows)
+    wv = max(len(v) for _, v, _ in rows)
+    for q, v, u in rows:
+        lines.append(f"  {q:<{wq}}  {v:>{wv}}  {u}")
+    return lines
+
+
+def render_text(r, version: str = "") -> str:
+    d = r.design
+    rows = [
+        ("heat load", f"{d.heat.load:.4g}", "W"),
+        ("passage", r.geometry.description, ""),
+        ("coolant", f"{d.coolant.label()}, {d.flow * 6e4:.4g}", "L/min"),
+        ("thermal resistance", f"{r.R_th:.4f}", "K/W  (hottest mounting face - inlet) / load"),
+        ("mounting face, hottest", _c(r.T_face_max), f"degC  at {r.x_hot * 1e3:.1f} mm from the inlet edge"),
+        ("plate top, hottest", _c(r.T_plate_max), "degC"),
+        ("inlet / outlet water", f"{_c(r.T_in)} / {_c(r.T_out)}", "degC"),
+        ("pressure drop (plate)", f"{r.dp / 1e3:.3f}", f"kPa  (friction {r.dp_friction / 1e3:.3f} kPa)"),
+        ("velocity in passage", f"{r.velocity:.3f}", "m/s"),
+        ("Reynolds / Prandtl", f"{r.Re:.0f} / {r.Pr:.2f}", r.regime),
+        ("Nusselt / heat transfer coeff.", f"{r.Nu:.2f} / {r.h:.0f}", "- / W/(m² K)"),
+    ]
+    if r.eta_fin is not None:
+        rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", "-"))
+    rows += [
+        ("water use", f"{r.water_use_L_per_day:,.0f}",
+         f"L/day at {d.supply.hours_per_day:g} h/day  ({r.water_use_m3_per_year:,.1f} m³/year)"),
+        (f"room {r.dew_kind}", _c(r.T_dew),
+         f"degC  (room {_c(d.room.temperature)} degC, {d.room.relative_humidity * 100:.0f} % RH)"),
+    ]
+    out = [f"{d.title}", "=" * min(len(d.title), WIDTH), ""]
+    out += _table(rows, "Result")
+    out.append("")
+    parts = [(name, f"{value:.4f}", f"K/W  {100 * value / r.R_th:5.1f} %") for name, value in r.resistances]
+    parts.append(("total", f"{r.R_th:.4f}", "K/W"))
+    out += _table(parts, "Thermal resistance, hottest point to inlet water")
+    out.append("")
+    out.append("Correlations used")
+    out.append("-----------------")
+    for m in r.methods:
+        where = "inside range" if not m.outside else "OUTSIDE: " + "; ".join(m.outside)
+        out.append(f"  {m.role:<15} {m.method:<38} {where}")
+    out.append("")
+    out.append(f"Findings ({len(r.findings)})")
+    out.append("-" * len(out[-1]))
+    for f in r.findings:
+        head = f"[{f.severity.upper()}] {f.id}: "
+        out += textwrap.wrap(head + f.message, WIDTH, subsequent_indent="    ")
+        out += textwrap.wrap("What to do: " + f.action, WIDTH, initial_indent="    ", subsequent_indent="    ")
+    if version:
+        out += ["", f"coldplate {version}"]
+    return "\n".join(out) + "\n"
