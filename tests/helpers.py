@@ -1,0 +1,56 @@
+"""Test helpers: a base design as a dict, a tiny TOML writer, and a runner for the CLI."""
+from __future__ import annotations
+
+import copy
+import json
+import tomllib
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parent.parent
+EXAMPLES = sorted((ROOT / "examples").glob("*.toml"))
+
+
+def example_dict(name: str = "reagent-block-channels") -> dict:
+    return tomllib.loads((ROOT / "examples" / f"{name}.toml").read_text())
+
+
+def _value(v) -> str:
+    if isinstance(v, bool):
+        return "true" if v else "false"
+    if isinstance(v, (int, float)):
+        return repr(v)
+    if isinstance(v, str):
+        return json.dumps(v)
+    if isinstance(v, list):
+        return "[" + ", ".join(_value(x) for x in v) + "]"
+    raise TypeError(v)
+
+
+def to_toml(data: dict) -> str:
+    lines = [f"{k} = {_value(v)}" for k, v in data.items() if not isinstance(v, dict)]
+    for k, v in data.items():
+        if isinstance(v, dict):
+            lines.append(f"\n[{k}]")
+            lines += [f"{kk} = {_value(vv)}" for kk, vv in v.items()]
+    return "\n".join(lines) + "\n"
+
+
+def modified(base: dict, **changes) -> dict:
+    """Copy ``base`` and apply changes given as ``table__key=value``; value None deletes the key."""
+    data = copy.deepcopy(base)
+    for path, value in changes.items():
+        parts = path.split("__")
+        target = data
+        for p in parts[:-1]:
+            target = target.setdefault(p, {})
+        if value is None:
+            target.pop(parts[-1], None)
+        else:
+            target[parts[-1]] = value
+    return data
+
+
+def write(tmp_path, data: dict, name="design.toml") -> Path:
+    path = tmp_path / name
+    path.write_text(to_toml(data))
+    return path
