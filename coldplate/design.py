@@ -348,6 +348,8 @@ def _passage(t: _Table, plate: Plate):
                     default=materials.roughness("machined-metal"))
     if port > plate.width:
         raise DesignError(t.field("port_diameter"), "is wider than the plate")
+    if h > plate.width:
+        raise DesignError(t.field("height"), "a cavity taller than it is wide is a channel; use kind = \"channels\"")
     t.finish()
     return Cavity(h, port, rough)
 

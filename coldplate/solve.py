@@ -80,7 +80,7 @@ def solve(design: Design) -> Result:
             mu_ratio = pr.mu / coolant.props(min(T_wall, T_boil - 0.5), p).mu
         cv = nusselt(Re, pr.Pr, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
                      laminar=d.model.laminar, turbulent=d.model.turbulent,
-                     heated_walls=geom.heated_walls, mu_ratio=mu_ratio)
+                     heated=geom.heated, mu_ratio=mu_ratio)
         h = float(cv.Nu) * pr.k / geom.D_h
         back = module.back_side(d.passage, d.plate, geom, h)
         conv = dict(back.parts)["convection"]

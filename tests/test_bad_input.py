@@ -54,7 +54,6 @@ CASES = [
     ("relative humidity above 100 %", BASE, {"room__relative_humidity": "120 %"}, "[room] relative_humidity"),
     ("hours above 24", BASE, {"supply__hours_per_day": 30}, "[supply] hours_per_day"),
     ("unknown source", BASE, {"supply__source": "river"}, "[supply] source"),
-    ("offset unit for a difference", BASE, {"interface__conductivity": "3 W/(m*degC)"}, "[interface] conductivity"),
     ("tube outer not above inner", TUBE, {"passage__outer_diameter": "4 mm"}, "[passage] outer_diameter"),
     ("tube passes do not fit", TUBE, {"passage__passes": 5}, "[passage] passes"),
     ("tube unknown bond", TUBE, {"passage__bond": "glue"}, "[passage] bond"),

@@ -21,7 +21,7 @@ class Geometry:
     alpha: float  #: aspect ratio short/long side [-] (1 for a circle)
     path_length: float  #: one path's length [m]
     heated_length: float  #: length of one path in contact with the plate [m]
-    heated_walls: int  #: walls that take heat, for the laminar Nu table (4 = all)
+    heated: str  #: heated-wall arrangement for the laminar Nu table ("4", "3L", "3S", "1L"; see convection)
     roughness: float  #: absolute [m]
     description: str  #: one line for reports
 

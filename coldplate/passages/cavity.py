@@ -28,7 +28,7 @@ def geometry(passage, plate) -> Geometry:
         alpha=aspect_ratio(w, hgt),
         path_length=plate.length,
         heated_length=plate.length,
-        heated_walls=1,
+        heated="1L",  # the floor, a long side, alone
         roughness=passage.roughness,
         description=f"open cavity {plate.length * 1e3:.4g} × {w * 1e3:.4g} × {hgt * 1e3:.3g} mm, "
                     f"ports {passage.port_diameter * 1e3:.3g} mm",

@@ -41,7 +41,7 @@ def geometry(passage, plate) -> Geometry:
         alpha=aspect_ratio(w, d),
         path_length=L,
         heated_length=L,
-        heated_walls=3,
+        heated="3L" if d >= w else "3S",  # floor and side walls heated, lid not
         roughness=passage.roughness,
         description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
                      f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),

@@ -38,7 +38,7 @@ def geometry(passage, plate) -> Geometry:
         alpha=1.0,
         path_length=tube_length(passage, plate),
         heated_length=passage.passes * plate.length,
-        heated_walls=4,
+        heated="4",
         roughness=passage.roughness,
         description=(f"{passage.material} tube {di * 1e3:.3g}/{passage.outer_diameter * 1e3:.3g} mm, "
                      f"{passage.passes} passes, {passage.bond} bond"),

@@ -1,0 +1,141 @@
+"""Turbulent and regime-blended Darcy friction factors.
+
+:func:`darcy_friction` picks the laminar apparent friction (developing flow),
+the turbulent friction, or - between Re = 2300 and 1e4 - the linear
+interpolation of VDI Heat Atlas G1 between the laminar value AT 2300 and the
+turbulent value AT 1e4, so the result is continuous in Re.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from fluids.friction import Colebrook as _fluids_Colebrook
+
+from hydraulics.ducts import (
+    RE_LAMINAR_END,
+    RE_TURBULENT_START,
+    _out,
+    f_apparent_Muzychka_Yovanovich,
+    f_apparent_Shah,
+    transition_weight,
+)
+from hydraulics.validity import Bound, Validity, with_validity
+
+PETUKHOV = Validity(
+    method="Petukhov",
+    reference=(
+        "Petukhov, B.S. (1970) Heat transfer and friction in turbulent pipe flow with "
+        "variable physical properties, Adv. Heat Transfer 6:503-564; smooth tubes"
+    ),
+    bounds=(Bound("Re", 3000.0, 5.0e6, "smooth tube, turbulent"),),
+)
+
+
+@with_validity(PETUKHOV)
+def f_Petukhov(Re):
+    """Darcy friction factor of a smooth tube in turbulent flow [-].
+
+    f = (0.790 ln Re - 1.64)^-2, natural logarithm, Re [-] on the (hydraulic)
+    diameter.
+    """
+    Re = np.asarray(Re, dtype=float)
+    return _out((0.790 * np.log(Re) - 1.64) ** -2)
+
+
+COLEBROOK = Validity(
+    method="Colebrook",
+    reference=(
+        "Colebrook, C.F. (1939) Turbulent flow in pipes, with particular reference to the "
+        "transition region between the smooth and rough pipe laws, J. Inst. Civ. Eng. "
+        "11:133-156; evaluated with fluids.friction.Colebrook"
+    ),
+    bounds=(
+        Bound("Re", 4000.0, 1.0e8, "turbulent; common practice (Moody chart range)"),
+        Bound("rel_roughness", 0.0, 0.05, "roughness/D_h; common practice (Moody chart range)"),
+    ),
+)
+
+@with_validity(COLEBROOK)
+def f_Colebrook(Re, rel_roughness):
+    """Darcy friction factor from the Colebrook equation [-].
+
+    1/sqrt(f) = -2 log10( (e/D)/3.7 + 2.51 / (Re sqrt(f)) ), with Re [-] and
+    relative roughness e/D [-].  Solved by ``fluids.friction.Colebrook``
+    element by element (as Python floats, so that its own overflow handling
+    works), so arrays are accepted.
+    """
+    b = np.broadcast(np.asarray(Re, dtype=float), np.asarray(rel_roughness, dtype=float))
+    out = np.array([_fluids_Colebrook(float(r), float(e)) for r, e in b], dtype=float)
+    return _out(out.reshape(b.shape))
+
+
+@dataclass(frozen=True)
+class FrictionResult:
+    """Darcy friction factor and how it was obtained.
+
+    ``regime`` is "laminar", "transitional" or "turbulent" (an array of these
+    strings when Re is an array); ``methods`` the Validity records of the
+    correlations that contributed.
+    """
+
+    f: float | np.ndarray
+    regime: str | np.ndarray
+    methods: tuple[Validity, ...]
+
+
+def _regime(Re):
+    Re = np.asarray(Re, dtype=float)
+    reg = np.where(
+        Re <= RE_LAMINAR_END,
+        "laminar",
+        np.where(Re >= RE_TURBULENT_START, "turbulent", "transitional"),
+    )
+    return str(reg) if reg.ndim == 0 else reg
+
+
+def _laminar_f(Re, L, D_h, alpha, shape):
+    if shape == "circle":
+        return f_apparent_Shah(Re, L, D_h), f_apparent_Shah.validity
+    return f_apparent_Muzychka_Yovanovich(Re, L, D_h, alpha), f_apparent_Muzychka_Yovanovich.validity
+
+
+def _turbulent_f(Re, rel_roughness):
+    if np.all(np.asarray(rel_roughness) == 0.0):
+        return f_Petukhov(Re), f_Petukhov.validity
+    return f_Colebrook(Re, rel_roughness), f_Colebrook.validity
+
+
+def darcy_friction(Re, L, D_h, alpha, shape, rel_roughness=0.0) -> FrictionResult:
+    """Darcy friction factor over all regimes for a straight channel [-].
+
+    Re [-] on D_h, channel length L [m], hydraulic diameter D_h [m], aspect
+    ratio alpha [-] (ignored for shape "circle"), shape "rectangle" or
+    "circle", relative roughness e/D_h [-].
+
+    * Re <= 2300: laminar apparent friction over the length L (developing
+      flow): Shah (circle) or Muzychka & Yovanovich (rectangle).
+    * Re >= 1e4: Petukhov (smooth, rel_roughness == 0) or Colebrook.
+    * in between: (1 - w) f_lam(2300) + w f_turb(1e4), w = transition_weight(Re)
+      (VDI Heat Atlas G1 interpolation), continuous at both ends.
+
+    Turbulent flow in the rectangle uses the hydraulic diameter (common practice).
+    """
+    if shape not in ("rectangle", "circle"):
+        raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
+    Re = np.asarray(Re, dtype=float)
+    if np.any(Re <= 0):
+        raise ValueError("Re must be positive")
+    w = np.asarray(transition_weight(Re), dtype=float)
+    lam_here, v_lam = _laminar_f(np.minimum(Re, RE_LAMINAR_END), L, D_h, alpha, shape)
+    lam_end, _ = _laminar_f(RE_LAMINAR_END, L, D_h, alpha, shape)
+    turb_here, v_turb = _turbulent_f(np.maximum(Re, RE_TURBULENT_START), rel_roughness)
+    turb_start, _ = _turbulent_f(RE_TURBULENT_START, rel_roughness)
+    blend = (1.0 - w) * lam_end + w * turb_start
+    f = np.where(Re <= RE_LAMINAR_END, lam_here, np.where(Re >= RE_TURBULENT_START, turb_here, blend))
+    used = []
+    if np.any(Re < RE_TURBULENT_START):
+        used.append(v_lam)
+    if np.any(Re > RE_LAMINAR_END):
+        used.append(v_turb)
+    return FrictionResult(f=_out(f), regime=_regime(Re), methods=tuple(used))

@@ -1,0 +1,60 @@
+"""Passage kinds: the dispatcher's names agree with the design reader and the modules; geometry and
+minor losses against textbook formulas."""
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from coldplate import design as design_mod
+from coldplate.design import design_from_dict
+from coldplate.passages import PASSAGES
+from hydraulics.losses import K_exit, K_sudden_contraction, K_sudden_expansion
+
+from .helpers import example_dict
+
+
+def test_passage_names_agree_everywhere():
+    # Dispatcher names must agree with the design reader's choices and each module's own kind.
+    assert tuple(PASSAGES) == design_mod.PASSAGE_KINDS
+    examples = {"channels": "reagent-block-channels", "tube": "laser-mount-tube", "cavity": "detector-cavity-glycol"}
+    for kind, module in PASSAGES.items():
+        d = design_from_dict(example_dict(examples[kind]))
+        assert d.passage.kind == kind
+        assert module.geometry(d.passage, d.plate).kind == kind
+        for name in ("geometry", "back_side", "minor_losses"):
+            assert callable(getattr(module, name))
+
+
+def test_channel_geometry_by_hand():
+    # Source: definitions; D_h = 4A/P = 2wd/(w+d); walls = (W - N w)/(N + 1).
+    d = design_from_dict(example_dict("reagent-block-channels"))
+    g = PASSAGES["channels"].geometry(d.passage, d.plate)
+    w, dep = 0.002, 0.006
+    assert g.D_h == pytest.approx(2 * w * dep / (w + dep))
+    assert g.alpha == pytest.approx(1 / 3)
+    assert PASSAGES["channels"].wall_thickness(d.passage, d.plate) == pytest.approx((0.060 - 12 * 0.002) / 13)
+    assert g.heated == "3L"  # floor (short side) and both tall side walls
+
+
+def test_tube_length_by_hand():
+    # Source: geometry; passes·L straight plus (passes − 1) half-circles of radius r.
+    d = design_from_dict(example_dict("laser-mount-tube"))
+    g = PASSAGES["tube"].geometry(d.passage, d.plate)
+    assert g.path_length == pytest.approx(3 * 0.100 + 2 * math.pi * 0.008)
+    assert g.heated_length == pytest.approx(0.300)
+
+
+@pytest.mark.parametrize("ratio", [0.1, 0.3, 0.6])
+def test_sudden_expansion_is_borda_carnot(ratio):
+    # Source: Borda-Carnot, K = (1 - A1/A2)^2 on the upstream velocity (any fluid-mechanics textbook);
+    # the Rennels form used by fluids agrees within a few per cent.
+    assert K_sudden_expansion(ratio, 1.0) == pytest.approx((1 - ratio) ** 2, rel=0.06)
+
+
+def test_contraction_and_exit_are_in_published_bands():
+    # Source: sharp-edged contraction K from 0.5 (large area ratio) to 0 (no contraction) on the downstream
+    # velocity (Crane TP-410 style tables, common practice); exit loss K = 1 (textbook).
+    assert 0.4 < K_sudden_contraction(1.0, 0.01) < 0.55
+    assert K_sudden_contraction(1.0, 0.95) < 0.1
+    assert K_exit() == 1.0
