@@ -13,12 +13,19 @@ import numpy as np
 from hydraulics.validity import Bound, Validity, with_validity
 
 
+def _out(value):
+    """A Python float for a 0-d result, the array otherwise."""
+    value = np.asarray(value)
+    return float(value) if value.ndim == 0 else value
+
+
 def R_layer(thickness, conductivity, area):
     """Plane-wall conduction resistance R = t / (k A) [K/W].
 
     thickness t [m], conductivity k [W/(m K)], area A [m²].
     """
-    return np.asarray(thickness) / (np.asarray(conductivity) * np.asarray(area)) * 1.0
+    return _out(np.asarray(thickness, dtype=float)
+                / (np.asarray(conductivity) * np.asarray(area)))
 
 
 def R_interface(resistance_area, area):
@@ -26,7 +33,7 @@ def R_interface(resistance_area, area):
 
     resistance_area R'' [m² K/W], area A [m²].
     """
-    return np.asarray(resistance_area) / np.asarray(area) * 1.0
+    return _out(np.asarray(resistance_area, dtype=float) / np.asarray(area))
 
 
 def fin_m(h, k, thickness):
@@ -35,7 +42,8 @@ def fin_m(h, k, thickness):
     h [W/(m² K)] on both faces, k [W/(m K)], fin thickness t [m]; the fin
     is taken as long in the third direction (perimeter ≈ 2 × length).
     """
-    return np.sqrt(2.0 * np.asarray(h) / (np.asarray(k) * np.asarray(thickness)))
+    return _out(np.sqrt(2.0 * np.asarray(h, dtype=float)
+                        / (np.asarray(k) * np.asarray(thickness))))
 
 
 FIN_STRAIGHT_ADIABATIC_TIP = Validity(
@@ -59,8 +67,7 @@ def fin_efficiency_straight(m, height):
     mL = np.asarray(m, dtype=float) * np.asarray(height, dtype=float)
     small = np.abs(mL) < 1e-4
     safe = np.where(small, 1.0, mL)
-    eta = np.where(small, 1.0 - mL**2 / 3.0, np.tanh(safe) / safe)
-    return eta[()] if eta.ndim == 0 else eta
+    return _out(np.where(small, 1.0 - mL**2 / 3.0, np.tanh(safe) / safe))
 
 
 def R_cylinder_wall(D_i, D_o, k, length, arc_fraction=1.0):
@@ -70,8 +77,8 @@ def R_cylinder_wall(D_i, D_o, k, length, arc_fraction=1.0):
     fraction of the circumference through which the heat passes [-] (1 = all).
     """
     D_i, D_o = np.asarray(D_i, dtype=float), np.asarray(D_o, dtype=float)
-    return np.log(D_o / D_i) / (2.0 * math.pi * np.asarray(k) * np.asarray(length)
-                                * np.asarray(arc_fraction))
+    return _out(np.log(D_o / D_i) / (2.0 * math.pi * np.asarray(k) * np.asarray(length)
+                                     * np.asarray(arc_fraction)))
 
 
 STRIP_LATERAL = Validity(
@@ -98,7 +105,7 @@ def R_strip_lateral(half_width, k, thickness, area):
         R = l² / (3 k t A)
     """
     l = np.asarray(half_width, dtype=float)
-    return l**2 / (3.0 * np.asarray(k) * np.asarray(thickness) * np.asarray(area))
+    return _out(l**2 / (3.0 * np.asarray(k) * np.asarray(thickness) * np.asarray(area)))
 
 
 SPREADING_MCY = Validity(
@@ -153,7 +160,7 @@ class Spreading:
         """Top-face temperature rise per watt [K/W] along y = b/2 at x [m] (0..a)."""
         x = np.asarray(x, dtype=float)
         out = self._C0 + np.cos(np.multiply.outer(x, self._lam)) @ self._Cm
-        return out[()] if out.ndim == 0 else out
+        return _out(out)
 
     def absorbed_fraction(self, x):
         """Fraction [-] of the heat that left through the cooled face between 0 and x [m]."""
@@ -161,7 +168,7 @@ class Spreading:
         g = _bottom(self._lam, self.t, self.h / self.k)
         w = self.h * self.b * self._Am * g / self._lam
         out = x / self.a + np.sin(np.multiply.outer(x, self._lam)) @ w
-        return out[()] if out.ndim == 0 else out
+        return _out(out)
 
 
 @with_validity(SPREADING_MCY)

@@ -143,16 +143,119 @@ def Nu_circular_fully_developed(condition="H1"):
 
 # ---------------------------------------------------------------- laminar, rectangular duct
 
+#: Heated-wall arrangements of a rectangular duct (the rest of the perimeter adiabatic):
+#: "4" all walls; "3L" both long walls + one short wall; "3S" both short walls + one
+#: long wall; "2L" both long walls; "1L" one long wall.
+HEATED_ARRANGEMENTS = ("4", "3L", "3S", "2L", "1L")
+
 # Fifth-order fits in alpha (0 <= alpha <= 1) to the Shah & London (1978) tables.
 _SL_POLY = {
-    (4, "T"): (7.541, (1.0, -2.610, 4.970, -5.119, 2.702, -0.548)),
-    (4, "H1"): (8.235, (1.0, -2.0421, 3.0853, -2.4765, 1.0578, -0.1861)),
+    ("4", "T"): (7.541, (1.0, -2.610, 4.970, -5.119, 2.702, -0.548)),
+    ("4", "H1"): (8.235, (1.0, -2.0421, 3.0853, -2.4765, 1.0578, -0.1861)),
     # Two long walls and one short wall heated, the other short wall adiabatic:
     # Qu & Mudawar (2003) Int. J. Heat Mass Transfer 46:2755, eq. (11), citing Shah & London.
-    (3, "H1"): (8.235, (1.0, -1.883, 3.767, -5.814, 5.361, -2.0)),
+    ("3L", "H1"): (8.235, (1.0, -1.883, 3.767, -5.814, 5.361, -2.0)),
 }
 # Parallel plates (alpha = 0): both plates heated / one heated, the other insulated.
-_PARALLEL_PLATES = {(2, "T"): 7.541, (2, "H1"): 8.235, (1, "T"): 4.861, (1, "H1"): 70.0 / 13.0}
+# "3S" and "1L" both become one heated plate when the short walls vanish.
+_PARALLEL_PLATES = {
+    ("2L", "T"): 7.541, ("2L", "H1"): 8.235,
+    ("1L", "T"): 4.861, ("1L", "H1"): 70.0 / 13.0,
+    ("3S", "T"): 4.861, ("3S", "H1"): 70.0 / 13.0,
+}
+
+# computed: finite-difference H1 solution, reproduced in tests/test_convection.py.
+# Cell-centred second-order scheme, grids 32/64/128 cells across the short side,
+# Richardson-extrapolated (observed order 1.9-2.0; the two extrapolations agree within
+# 0.01 %); the same solver gives the four-wall Shah & London values 3.608 / 4.123 at
+# alpha = 1 / 0.5.  Shah & London (1978) tabulate these configurations as well, but the
+# published table could not be consulted.  alpha = 0 is the parallel-plate limit,
+# 70/13 for one heated plate ("3S", "1L"), 140/17 = 8.235 for two ("2L").
+_FD_ALPHA = np.array((0.0, 0.0625, 0.125, 0.25, 0.375, 0.5, 0.75, 1.0))
+_FD_H1 = {
+    "3S": np.array((70.0 / 13.0, 4.6309, 4.0860, 3.4395, 3.1844, 3.1398, 3.3057, 3.5682)),
+    "1L": np.array((70.0 / 13.0, 5.0172, 4.7003, 4.1945, 3.8156, 3.5139, 3.0434, 2.6855)),
+    "2L": np.array((140.0 / 17.0, 7.6466, 7.1348, 6.3063, 5.6940, 5.2373, 4.5789, 4.0950)),
+}
+
+
+def _pchip_slopes(x, y):
+    """Node slopes of the monotone piecewise-cubic Hermite interpolant (Fritsch-Carlson)."""
+    h, d = np.diff(x), np.diff(y) / np.diff(x)
+    m = np.zeros_like(y)
+    w1, w2 = 2 * h[1:] + h[:-1], h[1:] + 2 * h[:-1]
+    same = d[:-1] * d[1:] > 0
+    m[1:-1][same] = (w1 + w2)[same] / (w1[same] / d[:-1][same] + w2[same] / d[1:][same])
+    for end, (h0, h1, d0, d1) in ((0, (h[0], h[1], d[0], d[1])), (-1, (h[-1], h[-2], d[-1], d[-2]))):
+        s = ((2 * h0 + h1) * d0 - h0 * d1) / (h0 + h1)
+        if np.sign(s) != np.sign(d0):
+            s = 0.0
+        elif np.sign(d0) != np.sign(d1) and abs(s) > abs(3 * d0):
+            s = 3 * d0
+        m[end] = s
+    return m
+
+
+_FD_SLOPES = {k: _pchip_slopes(_FD_ALPHA, v) for k, v in _FD_H1.items()}
+
+
+def _pchip(xq, x, y, m):
+    i = np.clip(np.searchsorted(x, xq, side="right") - 1, 0, len(x) - 2)
+    h = x[i + 1] - x[i]
+    t = (xq - x[i]) / h
+    return ((2 * t**3 - 3 * t**2 + 1) * y[i] + (t**3 - 2 * t**2 + t) * h * m[i]
+            + (-2 * t**3 + 3 * t**2) * y[i + 1] + (t**3 - t**2) * h * m[i + 1])
+
+
+def _check_alpha(alpha):
+    alpha = np.asarray(alpha, dtype=float)
+    if np.any(alpha < 0) or np.any(alpha > 1):
+        raise ValueError("alpha must lie in [0, 1] (short side / long side)")
+    return alpha
+
+
+def _check_heated(heated):
+    if heated not in HEATED_ARRANGEMENTS:
+        raise ValueError(f"heated must be one of {HEATED_ARRANGEMENTS}, not {heated!r}")
+
+
+@with_validity(Validity(
+    method="Finite-difference H1 table (computed)",
+    reference=(
+        "computed: finite-difference H1 solution, reproduced in tests/test_convection.py "
+        "(about 0.01 % at the nodes; monotone cubic interpolation in alpha within 0.3 % of the "
+        "solver at the midpoints).  Shah & London (1978) tabulate the same configurations, but "
+        "the published table could not be consulted"
+    ),
+    bounds=(
+        Bound("alpha", 0.0, 1.0, "short/long side"),
+        Bound("Re", 0.0, RE_LAMINAR_END, "laminar, hydrodynamically and thermally developed"),
+    ),
+))
+def Nu_rectangular_finite_difference(alpha, heated="1L", condition="H1"):
+    """Fully developed laminar Nu_H1 on D_h of a rectangular duct heated on part of its perimeter [-].
+
+    Solves lap(u) = -1 (u = 0 on all walls) and lap(phi) = u / u_m with phi = 0
+    on the heated walls and zero normal gradient on the others; then
+    Nu = -A D_h / (P_heated phi_b), phi_b the velocity-weighted mean of phi,
+    h referred to the heated perimeter P_heated, D_h = 4A/P to the full
+    perimeter, alpha short/long side [-].  Tabulated at alpha = 0, 1/16,
+    1/8, 1/4, 3/8, 1/2, 3/4, 1 and interpolated with a monotone piecewise
+    cubic.  ``heated``: "3S" (both short walls + one long wall: a wide
+    channel under an unheated lid), "2L" (both long walls) or "1L" (one
+    long wall: a cavity heated from its floor).  Only "H1"; uniform wall temperature ("T") was not
+    computed and raises ValueError.
+    """
+    _check_condition(condition)
+    if heated not in _FD_H1:
+        raise ValueError(f"computed table only for heated in {tuple(_FD_H1)}, not {heated!r}")
+    if condition != "H1":
+        raise ValueError(
+            f"heated={heated!r} with condition 'T' is not available: only the H1 table was "
+            "computed (the parallel-plate value at alpha = 0 is in Nu_rectangular_Shah_London)"
+        )
+    alpha = _check_alpha(alpha)
+    return _out(_pchip(alpha, _FD_ALPHA, _FD_H1[heated], _FD_SLOPES[heated]))
 
 
 @with_validity(Validity(
@@ -168,42 +271,38 @@ _PARALLEL_PLATES = {(2, "T"): 7.541, (2, "H1"): 8.235, (1, "T"): 4.861, (1, "H1"
         Bound("Re", 0.0, RE_LAMINAR_END, "laminar, hydrodynamically and thermally developed"),
     ),
 ))
-def Nu_rectangular_Shah_London(alpha, heated_walls=4, condition="H1"):
+def Nu_rectangular_Shah_London(alpha, heated="4", condition="H1"):
     """Fully developed laminar Nu on D_h of a rectangular duct [-].
 
-    Nu = Nu_0 (1 + c1 alpha + ... + c5 alpha^5), alpha short/long side [-]:
+    Nu = Nu_0 (1 + c1 alpha + ... + c5 alpha^5), alpha short/long side [-];
+    ``heated`` names the heated walls (see HEATED_ARRANGEMENTS):
 
-    * heated_walls=4, "T":  Nu_0 = 7.541, c = -2.610, 4.970, -5.119, 2.702, -0.548
-    * heated_walls=4, "H1": Nu_0 = 8.235, c = -2.0421, 3.0853, -2.4765, 1.0578, -0.1861
-    * heated_walls=3, "H1": Nu_0 = 8.235, c = -1.883, 3.767, -5.814, 5.361, -2.0,
-      for BOTH LONG walls and one short wall heated, the other short wall
-      adiabatic (deep channel, width < depth, lid = short side).  h is
-      referred to the heated perimeter, D_h to the full perimeter.  The
-      published table for a heated short wall pair with an adiabatic LONG wall
-      (wide shallow channel under an unheated lid) could not be found to
-      check, so that case is not offered; nor is three-wall "T".
-    * heated_walls=2 or 1 only for parallel plates (alpha = 0): 8.235 / 7.541
-      both plates heated, 70/13 = 5.385 / 4.861 one plate heated and the other
-      insulated.  Finite-alpha values for one or two heated walls were not
-      verified, so they raise ValueError.
+    * "4", "T":  Nu_0 = 7.541, c = -2.610, 4.970, -5.119, 2.702, -0.548
+    * "4", "H1": Nu_0 = 8.235, c = -2.0421, 3.0853, -2.4765, 1.0578, -0.1861
+    * "3L", "H1": Nu_0 = 8.235, c = -1.883, 3.767, -5.814, 5.361, -2.0:
+      both long walls and one short wall heated, the other short wall
+      adiabatic (deep channel, lid = short side).  h is referred to the
+      heated perimeter, D_h to the full perimeter.  No "T" fit.
+    * "2L" at alpha = 0: both plates heated, 8.235 ("H1") / 7.541 ("T").
+    * "1L", "3S" at alpha = 0: one plate heated, the other insulated,
+      70/13 = 5.385 ("H1") / 4.861 ("T").
+    * "2L", "1L", "3S" at alpha > 0: the values come from
+      the computed table of :func:`Nu_rectangular_finite_difference` ("H1"
+      only), not from Shah & London.
     """
     _check_condition(condition)
-    alpha = np.asarray(alpha, dtype=float)
-    if np.any(alpha < 0) or np.any(alpha > 1):
-        raise ValueError("alpha must lie in [0, 1] (short side / long side)")
-    if heated_walls in (1, 2):
-        if np.any(alpha != 0):
-            raise ValueError(
-                "heated_walls=1 or 2 is only available for parallel plates (alpha = 0); "
-                "the finite-aspect-ratio table values could not be verified"
-            )
-        return _out(np.full(alpha.shape, _PARALLEL_PLATES[(heated_walls, condition)]))
-    if (heated_walls, condition) not in _SL_POLY:
+    _check_heated(heated)
+    alpha = _check_alpha(alpha)
+    if heated in ("2L", "1L", "3S") and np.all(alpha == 0):
+        return _out(np.full(alpha.shape, _PARALLEL_PLATES[(heated, condition)]))
+    if heated in _FD_H1:
+        return Nu_rectangular_finite_difference(alpha, heated, condition)
+    if (heated, condition) not in _SL_POLY:
         raise ValueError(
-            f"heated_walls={heated_walls!r} with condition {condition!r} is not available; "
-            "use heated_walls=4 ('T' or 'H1') or 3 ('H1')"
+            f"heated={heated!r} with condition {condition!r} is not available; "
+            "use '4' ('T' or 'H1') or any arrangement with 'H1'"
         )
-    nu0, c = _SL_POLY[(heated_walls, condition)]
+    nu0, c = _SL_POLY[(heated, condition)]
     poly = sum(ci * alpha**i for i, ci in enumerate(c))
     return _out(nu0 * poly)
 
@@ -279,17 +378,20 @@ TURBULENT_MODELS = {
 }
 
 
-def _fully_developed(shape, alpha, heated_walls, condition):
+def _fully_developed(shape, alpha, heated, condition):
     if shape == "circle":
         return Nu_circular_fully_developed(condition), Nu_circular_fully_developed.validity
-    return Nu_rectangular_Shah_London(alpha, heated_walls, condition), Nu_rectangular_Shah_London.validity
+    nu = Nu_rectangular_Shah_London(alpha, heated, condition)
+    if heated in _FD_H1 and np.any(np.asarray(alpha) > 0):
+        return nu, Nu_rectangular_finite_difference.validity
+    return nu, Nu_rectangular_Shah_London.validity
 
 
-def _laminar(name, Re, Pr, L, D_h, alpha, shape, heated_walls, mu_ratio, condition):
+def _laminar(name, Re, Pr, L, D_h, alpha, shape, heated, mu_ratio, condition):
     """Laminar Nu and the Validity records used."""
     fn = LAMINAR_MODELS[name]
     if name == "fully-developed":
-        nu, v = _fully_developed(shape, alpha, heated_walls, condition)
+        nu, v = _fully_developed(shape, alpha, heated, condition)
         return nu, (v,)
     if name == "hausen":
         return fn(Re * Pr * D_h / L), (fn.validity,)
@@ -297,7 +399,7 @@ def _laminar(name, Re, Pr, L, D_h, alpha, shape, heated_walls, mu_ratio, conditi
         return fn(Re, Pr, L / D_h, mu_ratio), (fn.validity,)
     # Muzychka & Yovanovich with the Shah & London (or circular) developed asymptote;
     # a circular tube is taken as the square (alpha = 1) of the same D_h.
-    nu_fd, v_fd = _fully_developed(shape, alpha, heated_walls, condition)
+    nu_fd, v_fd = _fully_developed(shape, alpha, heated, condition)
     a = 1.0 if shape == "circle" else alpha
     return fn(Re, Pr, L, D_h, a, condition, Nu_fd=nu_fd), (fn.validity, v_fd)
 
@@ -326,7 +428,7 @@ class ConvectionResult:
 
 
 def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovich",
-            turbulent="gnielinski", heated_walls=4, mu_ratio=1.0, f_turbulent=None,
+            turbulent="gnielinski", heated="4", mu_ratio=1.0, f_turbulent=None,
             condition="H1") -> ConvectionResult:
     """Mean Nusselt number on D_h over a channel of length L, all regimes [-].
 
@@ -335,8 +437,8 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
     ``turbulent``; in between Nu = (1 - w) Nu_lam(2300) + w Nu_turb(1e4),
     w = transition_weight(Re) (VDI Heat Atlas G1), continuous at both ends.
     ``f_turbulent``: optional callable Re -> Darcy f for Gnielinski (e.g. a
-    rough-wall Colebrook); Petukhov when None.  ``heated_walls`` and
-    ``condition`` select the fully developed laminar asymptote.  "hausen" and
+    rough-wall Colebrook); Petukhov when None.  ``heated`` (one of
+    HEATED_ARRANGEMENTS) and ``condition`` select the fully developed laminar asymptote.  "hausen" and
     "sieder-tate" are uniform-wall-temperature correlations whatever
     ``condition`` says.
     """
@@ -347,10 +449,11 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
     if shape not in ("rectangle", "circle"):
         raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
     _check_condition(condition)
+    _check_heated(heated)
     Re = np.asarray(Re, dtype=float)
     if np.any(Re <= 0):
         raise ValueError("Re must be positive")
-    args = (Pr, L, D_h, alpha, shape, heated_walls, mu_ratio, condition)
+    args = (Pr, L, D_h, alpha, shape, heated, mu_ratio, condition)
     w = np.asarray(transition_weight(Re), dtype=float)
     lam_here, v_lam = _laminar(laminar, np.minimum(Re, RE_LAMINAR_END), *args)
     lam_end, _ = _laminar(laminar, RE_LAMINAR_END, *args)

@@ -202,7 +202,8 @@ def metals(r):
     d = r.design
     keys = [k for k in (d.plate.material, d.passage.material if d.passage.kind == "tube" else None) if k]
     mats = [materials.material(k) for k in keys]
-    if len(mats) == 2 and abs(mats[0].anodic_index - mats[1].anodic_index) > GALVANIC_LIMIT:
+    indices = [m.anodic_index for m in mats if m.anodic_index is not None]
+    if len(mats) == 2 and len(indices) == 2 and abs(indices[0] - indices[1]) > GALVANIC_LIMIT:
         yield Finding(
             "mixed-metals", "caution",
             f"{mats[0].name} and {mats[1].name} meet in one water circuit; their anodic indices differ by "

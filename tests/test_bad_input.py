@@ -39,7 +39,7 @@ CASES = [
     ("unknown fluid", BASE, {"coolant__fluid": "mercury"}, "[coolant] fluid"),
     ("inlet at freezing", BASE, {"coolant__inlet_temperature": "0 degC"}, "[coolant] inlet_temperature"),
     ("inlet below freezing", BASE, {"coolant__inlet_temperature": "-5 degC"}, "[coolant] inlet_temperature"),
-    ("inlet boiling", BASE, {"coolant__inlet_temperature": "100 degC"}, "[coolant] inlet_temperature"),
+    ("inlet boiling", BASE, {"coolant__inlet_temperature": "100 degC", "supply__static_pressure": None}, "[coolant] inlet_temperature"),
     ("channels do not fit", BASE, {"passage__count": 30}, "do not fit"),
     ("channels exactly fill width", BASE, {"passage__count": 30, "passage__width": "2 mm"}, "[passage] count"),
     ("both material and conductivity", BASE, {"plate__conductivity": "200 W/(m*K)"}, "exactly one"),
@@ -62,6 +62,9 @@ CASES = [
     ("glycol below its freezing point", CAVITY, {"coolant__inlet_temperature": "-20 degC"},
      "[coolant] inlet_temperature"),
     ("flow too small: outlet boils", BASE, {"coolant__flow": "0.005 L/min"}, "[coolant] flow"),
+    ("inlet above boiling at line pressure", BASE, {"coolant__inlet_temperature": "160 degC"},
+     "[coolant] inlet_temperature"),
+    ("cavity taller than wide", CAVITY, {"passage__height": "60 mm"}, "[passage] height"),
 ]
 
 
