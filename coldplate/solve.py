@@ -27,6 +27,7 @@ import numpy as np
 
 from hydraulics.coolant import StateError as _CoolantStateError
 from hydraulics.coolant import enthalpy
+from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
 
@@ -140,10 +141,12 @@ def solve(design: Design) -> Result:
     litres_per_day = d.flow * 1000.0 * 3600.0 * d.supply.hours_per_day
     methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
-    methods += (_use("spreading", conduction.spreading_MCY, {}),)
-    if back.eta_fin is not None:
-        methods += (_use("fin efficiency", conduction.fin_efficiency_straight, {}),)
-    methods += (_use("dew point", psychro.dew_point, {"T": d.room.temperature}),)
+    methods += (_use("spreading", conduction.spreading_MCY,
+                     {"c/a": d.heat.footprint_length / d.plate.length, "d/b": d.heat.footprint_width / d.plate.width,
+                      "Bi": h_eff * d.plate.base / d.plate.conductivity}),)
+    methods += tuple(_use(role, fn, values) for role, fn, values in back.methods)
+    methods += (_use("dew point", psychro.dew_point,
+                     {"T": d.room.temperature, "RH": d.room.relative_humidity}),)
 
     result = Result(
         design=d, geometry=geom, props=pr, R_th=R_th, resistances=tuple(parts), T_in=T_in, T_out=T_out,
@@ -177,13 +180,25 @@ def _use(role, fn, values):
 
 
 def _methods(friction_methods, convection_methods, **values) -> tuple[MethodUse, ...]:
+    """Range checks for the friction and convection methods used.
+
+    In the transition (2300 < Re < 1e4) the laminar methods are evaluated at Re = 2300 and the turbulent ones
+    at Re = 1e4 (Gnielinski's interpolation), so each is checked at the Re it was evaluated at.
+    """
     out, seen = [], set()
+    Re = values["Re"]
+    transitional = RE_LAMINAR_END < Re < RE_TURBULENT_START
     for role, records in (("friction", friction_methods), ("convection", convection_methods)):
         for v in records:
             if (role, v.method) in seen:
                 continue
             seen.add((role, v.method))
-            used = {k: x for k, x in values.items() if any(b.variable == k for b in v.bounds)}
+            here = dict(values)
+            if transitional:
+                laminar = any(b.variable == "Re" and b.high <= RE_LAMINAR_END for b in v.bounds)
+                here["Re"] = RE_LAMINAR_END if laminar else RE_TURBULENT_START
+                here["Gz"] = values["Gz"] * here["Re"] / Re
+            used = {k: x for k, x in here.items() if any(b.variable == k for b in v.bounds)}
             out.append(MethodUse(role=role, method=v.method, reference=v.reference, validity=v.describe(),
                                  values=tuple((k, float(x)) for k, x in used.items()),
                                  outside=v.violations(**used)))

@@ -26,8 +26,7 @@ def render_text(r, version: str = "") -> str:
     d = r.design
     rows = [
         ("heat load", f"{d.heat.load:.4g}", "W"),
-        ("passage", r.geometry.description, ""),
-        ("coolant", f"{d.coolant.label()}, {d.flow * 6e4:.4g}", "L/min"),
+        ("coolant flow", f"{d.flow * 6e4:.4g}", "L/min"),
         ("thermal resistance", f"{r.R_th:.4f}", "K/W  (hottest mounting face - inlet) / load"),
         ("mounting face, hottest", _c(r.T_face_max), f"degC  at {r.x_hot * 1e3:.1f} mm from the inlet edge"),
         ("plate top, hottest", _c(r.T_plate_max), "degC"),
@@ -45,7 +44,9 @@ def render_text(r, version: str = "") -> str:
         (f"room {r.dew_kind}", _c(r.T_dew),
          f"degC  (room {_c(d.room.temperature)} degC, {d.room.relative_humidity * 100:.0f} % RH)"),
     ]
-    out = [f"{d.title}", "=" * min(len(d.title), WIDTH), ""]
+    out = [f"{d.title}", "=" * min(len(d.title), WIDTH),
+           f"passage: {r.geometry.description}",
+           f"coolant: {d.coolant.label()}; supply: {d.supply.source}", ""]
     out += _table(rows, "Result")
     out.append("")
     parts = [(name, f"{value:.4f}", f"K/W  {100 * value / r.R_th:5.1f} %") for name, value in r.resistances]
@@ -54,9 +55,11 @@ def render_text(r, version: str = "") -> str:
     out.append("")
     out.append("Correlations used")
     out.append("-----------------")
+    wr = max(len(m.role) for m in r.methods)
+    wm = max(len(m.method) for m in r.methods)
     for m in r.methods:
-        where = "inside range" if not m.outside else "OUTSIDE: " + "; ".join(m.outside)
-        out.append(f"  {m.role:<15} {m.method:<38} {where}")
+        where = "inside its range" if not m.outside else "OUTSIDE its range (see findings)"
+        out.append(f"  {m.role:<{wr}}  {m.method:<{wm}}  {where}")
     out.append("")
     out.append(f"Findings ({len(r.findings)})")
     out.append("-" * len(out[-1]))

@@ -37,6 +37,8 @@ class BackSide:
     parts: tuple[tuple[str, float], ...]
     wetted_area: float  #: heated wetted area [m^2] (for the report)
     eta_fin: float | None = None  #: fin efficiency of channel walls, where there are fins
+    #: correlations used here, for the range checks: (role, function with a .validity, {variable: value})
+    methods: tuple = ()
 
     @property
     def total(self) -> float:

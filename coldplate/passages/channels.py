@@ -50,11 +50,15 @@ def geometry(passage, plate) -> Geometry:
 
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     t_w = wall_thickness(passage, plate)
-    eta = float(fin_efficiency_straight(fin_m(h, plate.conductivity, t_w), passage.depth))
+    m = fin_m(h, plate.conductivity, t_w)
+    eta = float(fin_efficiency_straight(m, passage.depth))
     L = geom.path_length
     area = passage.count * L * (passage.width + 2 * passage.depth)
     effective = passage.count * L * (passage.width + 2 * passage.depth * eta)
-    return BackSide(parts=(("convection", 1.0 / (h * effective)),), wetted_area=area, eta_fin=eta)
+    checks = (("fin efficiency", fin_efficiency_straight,
+               {"mL": float(m) * passage.depth, "Bi": h * (t_w / 2) / plate.conductivity}),)
+    return BackSide(parts=(("convection", 1.0 / (h * effective)),), wetted_area=area, eta_fin=eta,
+                    methods=checks)
 
 
 def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:

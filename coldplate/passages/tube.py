@@ -59,7 +59,9 @@ def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     wetted = math.pi * di * L
     r_conv = 1.0 / (h * wetted)
     return BackSide(parts=(("plate between passes", r_lat), ("bond", r_bond), ("tube wall", r_wall),
-                           ("convection", r_conv)), wetted_area=wetted)
+                           ("convection", r_conv)), wetted_area=wetted,
+                    methods=(("plate between passes", R_strip_lateral,
+                              {"thickness/half_width": plate.base / half}),) if half > 0 else ())
 
 
 def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:
