@@ -10,7 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from fluids.friction import Colebrook as _fluids_Colebrook
+from fluids.friction import Clamond as _fluids_Clamond
 
 from hydraulics.ducts import (
     RE_LAMINAR_END,
@@ -48,7 +48,8 @@ COLEBROOK = Validity(
     reference=(
         "Colebrook, C.F. (1939) Turbulent flow in pipes, with particular reference to the "
         "transition region between the smooth and rough pipe laws, J. Inst. Civ. Eng. "
-        "11:133-156; evaluated with fluids.friction.Colebrook"
+        "11:133-156; solved with fluids.friction.Clamond (Clamond 2009, Ind. Eng. Chem. Res. 48:3665, "
+        "exact to machine precision without scipy, which keeps start-up fast)"
     ),
     bounds=(
         Bound("Re", 4000.0, 1.0e8, "turbulent; common practice (Moody chart range)"),
@@ -61,12 +62,14 @@ def f_Colebrook(Re, rel_roughness):
     """Darcy friction factor from the Colebrook equation [-].
 
     1/sqrt(f) = -2 log10( (e/D)/3.7 + 2.51 / (Re sqrt(f)) ), with Re [-] and
-    relative roughness e/D [-].  Solved by ``fluids.friction.Colebrook``
-    element by element (as Python floats, so that its own overflow handling
-    works), so arrays are accepted.
+    relative roughness e/D [-].  Solved by ``fluids.friction.Clamond``
+    (Clamond's iteration-free solution of the same equation, exact to machine
+    precision) element by element as Python floats, so arrays are accepted.
+    ``fluids.friction.Colebrook`` would import scipy.special (about 0.3 s at
+    start-up) for its Lambert-W form.
     """
     b = np.broadcast(np.asarray(Re, dtype=float), np.asarray(rel_roughness, dtype=float))
-    out = np.array([_fluids_Colebrook(float(r), float(e)) for r, e in b], dtype=float)
+    out = np.array([_fluids_Clamond(float(r), float(e)) for r, e in b], dtype=float)
     return _out(out.reshape(b.shape))
 
 

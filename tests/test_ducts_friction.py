@@ -165,11 +165,11 @@ def test_petukhov_against_prandtl_karman_nikuradse():
 
 
 def test_colebrook_against_clamond_solution():
-    # library: fluids.friction.Clamond solves the same Colebrook equation with a different
-    # algorithm; f_Colebrook calls fluids.friction.Colebrook, not Clamond.
+    # library: fluids.friction.Colebrook solves the same Colebrook equation with a different
+    # algorithm (Lambert W); f_Colebrook calls fluids.friction.Clamond, not Colebrook.
     Re = np.array([5e3, 1e5, 1e7])
     out = f_Colebrook(Re, 1e-3)
-    ref = [ff.Clamond(x, 1e-3) for x in Re]
+    ref = [ff.Colebrook(x, 1e-3) for x in Re]
     assert np.allclose(out, ref, rtol=1e-9)
     # memory: Moody chart, Re = 1e5, e/D = 0.001 -> f about 0.0222
     assert f_Colebrook(1e5, 1e-3) == pytest.approx(0.0222, abs=3e-4)
@@ -198,7 +198,7 @@ def test_darcy_friction_regimes_and_methods():
     turb = darcy_friction(5e4, L, Dh, alpha, "rectangle")
     assert turb.regime == "turbulent" and turb.f == f_Petukhov(5e4)
     rough = darcy_friction(5e4, L, Dh, alpha, "rectangle", rel_roughness=1e-3)
-    assert rough.methods[-1].method == "Colebrook" and rough.f == pytest.approx(ff.Clamond(5e4, 1e-3))
+    assert rough.methods[-1].method == "Colebrook" and rough.f == pytest.approx(ff.Colebrook(5e4, 1e-3))
     mid = darcy_friction(6150.0, L, Dh, alpha, "rectangle")
     assert mid.regime == "transitional" and len(mid.methods) == 2
     half = 0.5 * (f_apparent_Muzychka_Yovanovich(2300.0, L, Dh, alpha) + f_Petukhov(1e4))
