@@ -1,0 +1,86 @@
+"""The solved design against independent hand calculations built from outside libraries.
+
+The solve's own correlation code does not call these library functions, so they are independent references:
+- ht.conv_internal.turbulent_Gnielinski (Gnielinski 1976) and ht.conv_internal.turbulent_Dittus_Boelter;
+- fluids.friction.Colebrook (our code solves Colebrook with fluids' Clamond routine);
+- iapws.IAPWS95 for water properties (our code uses CoolProp's IF97 backend).
+"""
+from __future__ import annotations
+
+import math
+
+import pytest
+from fluids.friction import Colebrook
+from ht.conv_internal import turbulent_Dittus_Boelter, turbulent_Gnielinski
+from iapws import IAPWS95
+
+from coldplate.design import design_from_dict
+from coldplate.solve import solve
+
+from .helpers import example_dict, modified
+
+
+def _props(T, p):
+    w = IAPWS95(T=T, P=p / 1e6)
+    return w.rho, w.mu, w.cp * 1e3, w.k
+
+
+@pytest.fixture(scope="module")
+def turbulent_tube():
+    # 3.5 L/min through a 4.6 mm tube: Re about 16 000, clearly turbulent.
+    d = design_from_dict(modified(example_dict("laser-mount-tube"), coolant__flow="3.5 L/min"))
+    return solve(d)
+
+
+def test_turbulent_tube_reynolds_and_h_against_ht_gnielinski(turbulent_tube):
+    r = turbulent_tube
+    assert r.regime == "turbulent"
+    rho, mu, cp, k = _props(r.props.T, r.line_pressure)
+    D = r.geometry.D_h
+    V = r.m_dot / (rho * math.pi * D**2 / 4)
+    Re = rho * V * D / mu
+    Pr = cp * mu / k
+    assert r.Re == pytest.approx(Re, rel=2e-3)
+    fd = (0.790 * math.log(Re) - 1.64) ** -2  # Petukhov (1970), as Gnielinski recommends
+    h_ref = turbulent_Gnielinski(Re=Re, Pr=Pr, fd=fd) * k / D
+    assert r.h == pytest.approx(h_ref, rel=5e-3)
+
+
+def test_turbulent_tube_friction_drop_against_fluids_colebrook(turbulent_tube):
+    r = turbulent_tube
+    rho, mu, _, _ = _props(r.props.T, r.line_pressure)
+    D = r.geometry.D_h
+    V = r.m_dot / (rho * math.pi * D**2 / 4)
+    Re = rho * V * D / mu
+    f = Colebrook(Re, r.geometry.roughness / D)
+    dp_ref = f * r.geometry.path_length / D * rho * V**2 / 2  # Darcy-Weisbach
+    assert r.dp_friction == pytest.approx(dp_ref, rel=5e-3)
+
+
+def test_dittus_boelter_selectable_against_ht():
+    d = design_from_dict(modified(example_dict("laser-mount-tube"), coolant__flow="3.5 L/min",
+                                  correlations={"turbulent": "dittus-boelter"}))
+    r = solve(d)
+    rho, mu, cp, k = _props(r.props.T, r.line_pressure)
+    D = r.geometry.D_h
+    Re = rho * (r.m_dot / (rho * math.pi * D**2 / 4)) * D / mu
+    h_ref = turbulent_Dittus_Boelter(Re=Re, Pr=cp * mu / k, heating=True) * k / D
+    assert r.h == pytest.approx(h_ref, rel=5e-3)
+    assert any(m.method == "Dittus-Boelter" for m in r.methods)
+
+
+def test_fully_developed_laminar_tube_is_48_over_11():
+    # Source: textbook standard, uniform heat flux in a circular tube, Nu = 48/11 = 4.364.
+    d = design_from_dict(modified(example_dict("laser-mount-tube"), coolant__flow="0.2 L/min",
+                                  correlations={"laminar": "fully-developed"}))
+    r = solve(d)
+    assert r.regime == "laminar"
+    assert r.Nu == pytest.approx(48 / 11, rel=1e-3)
+
+
+def test_convection_resistance_is_one_over_h_area(turbulent_tube):
+    # Source: definition of the heat transfer coefficient; the tube's wetted area in the plate is pi·D_i·(passes·L).
+    r = turbulent_tube
+    parts = dict(r.resistances)
+    A = math.pi * r.geometry.D_h * r.geometry.heated_length
+    assert parts["convection"] == pytest.approx(1 / (r.h * A), rel=1e-9)
