@@ -46,6 +46,29 @@ def main() -> None:
     print(f"{'case':<26} {'median s':>9} {'x bare python':>14}")
     for name, t in medians.items():
         print(f"{name:<26} {t:9.3f} {t / base:14.1f}")
+    libs = medians["import pint + registry"] + medians["import CoolProp"] - medians["import numpy"] - base
+    check = medians["coldplate check (text)"]
+    print(f"\nthird-party imports (numpy, pint + registry, CoolProp) ≈ {libs:.3f} s = "
+          f"{libs / check:.0%} of the whole command")
+    _in_process()
+
+
+def _in_process() -> None:
+    """Import once, then time the solve alone: the first call and the median of repeated calls."""
+    code = (
+        "import time, statistics\n"
+        "from coldplate.solve import check_file\n"
+        f"p = {str(EXAMPLE)!r}\n"
+        "t = time.perf_counter(); check_file(p); first = time.perf_counter() - t\n"
+        "runs = []\n"
+        "for _ in range(20):\n"
+        "    t = time.perf_counter(); check_file(p); runs.append(time.perf_counter() - t)\n"
+        "print(f'{first:.4f} {statistics.median(runs):.4f}')\n"
+    )
+    out = subprocess.run([sys.executable, "-c", code], cwd=ROOT, check=True, capture_output=True, text=True)
+    first, again = map(float, out.stdout.split())
+    print(f"solve in process: first call {first * 1e3:.1f} ms, repeated {again * 1e3:.1f} ms "
+          f"(property cache warm)")
 
 
 if __name__ == "__main__":

@@ -81,12 +81,23 @@ class Supply:
     source: str  #: "potable", "recirculating" or "process"
     hours_per_day: float
     days_per_year: float
-    static_pressure: float | None  #: gauge [Pa]
+    static_pressure: float | None  #: gauge [Pa] (no-flow pressure at the supply)
     discharge_limit: float  #: [K]
+    discharge: str  #: "drain" (once-through) or "return" (back to a loop)
+
+    @property
+    def once_through(self) -> bool:
+        return self.discharge == "drain"
 
     @property
     def line_pressure(self) -> float:
-        """Absolute pressure in the plate [Pa]: static gauge plus one atmosphere (atmospheric if unknown)."""
+        """Absolute pressure in the plate while flowing [Pa], the cautious (low) value.
+
+        Once-through to an open drain, the plate sits near one atmosphere while the water flows: the
+        supply valve takes up the static pressure.  On a loop the static (fill) pressure stays.
+        """
+        if self.once_through:
+            return P_ATM
         return P_ATM + (self.static_pressure or 0.0)
 
 
@@ -120,6 +131,9 @@ class Design:
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
 SOURCES = ("potable", "recirculating", "process")
+DISCHARGES = ("drain", "return")
+#: Where the water goes when the design file does not say: drinking water runs to a drain, loops return.
+DEFAULT_DISCHARGE = {"potable": "drain", "recirculating": "return", "process": "return"}
 LAMINAR_CHOICES = ("muzychka-yovanovich", "hausen", "sieder-tate", "fully-developed")
 TURBULENT_CHOICES = ("gnielinski", "dittus-boelter")
 
@@ -373,8 +387,15 @@ def _supply(t: _Table) -> Supply:
     p = t.value("static_pressure", "pressure", required=False, low=0, low_inclusive=True, high=5e6)
     limit = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15,
                     default=DEFAULT_DISCHARGE_LIMIT)
+    discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
+    if source == "potable" and discharge == "return":
+        raise DesignError(t.field("discharge"), "drinking water that has been through equipment must never return "
+                                                "to the drinking-water system; potable water runs to a drain")
+    if source == "recirculating" and discharge == "drain":
+        raise DesignError(t.field("discharge"), "a recirculating supply returns its water; use source = \"process\" "
+                                                "or \"potable\" for water that runs to a drain")
     t.finish()
-    return Supply(source, hours, float(days), p, limit)
+    return Supply(source, hours, float(days), p, limit, discharge)
 
 
 def _coolant(t: _Table, supply: Supply):

@@ -86,8 +86,9 @@ def boiling(r):
     if r.T_plate_max > r.T_boil - BOIL_MARGIN:
         yield Finding(
             "near-boiling", "danger",
-            f"The plate reaches {_c(r.T_plate_max)}, within {BOIL_MARGIN:.0f} K of the coolant's boiling point "
-            f"({_c(r.T_boil)} at {r.line_pressure / 1e3:.0f} kPa absolute): local boiling, steam and pressure spikes "
+            f"The plate's top face (an upper bound on the wetted wall) reaches {_c(r.T_plate_max)}, within "
+            f"{BOIL_MARGIN:.0f} K of the coolant's boiling point ({_c(r.T_boil)} at {r.line_pressure / 1e3:.0f} kPa "
+            "absolute, the pressure in the plate while flowing): local boiling, steam and pressure spikes "
             "are possible.",
             "Raise the flow, lower the load, or improve the plate; never let a closed plate boil dry. " + DEFER)
 
@@ -138,7 +139,7 @@ def cross_connection(r):
 
 def discharge(r):
     d = r.design
-    if d.supply.source == "recirculating":
+    if not d.supply.once_through:
         return
     if r.T_out > d.supply.discharge_limit:
         yield Finding(

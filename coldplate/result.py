@@ -73,11 +73,11 @@ class Result:
     wetted_area: float
     V_dot: float  #: [m^3/s]
     m_dot: float  #: [kg/s]
-    line_pressure: float  #: absolute [Pa]
-    T_boil: float  #: saturation temperature at line pressure [K]
+    line_pressure: float  #: absolute pressure in the plate while flowing, cautious low value [Pa]
+    T_boil: float  #: saturation temperature at that pressure [K]
     T_dew: float  #: room dew point (frost point below 0 degC) [K]
     dew_kind: str  #: "dew point" or "frost point"
-    water_use_L_per_day: float
+    water_use_L_per_day: float  #: once-through consumption (0 when the water returns to a loop)
     water_use_m3_per_year: float
     methods: tuple[MethodUse, ...]
     profile: Profile

@@ -108,13 +108,16 @@ def solve(design: Design) -> Result:
     n = d.model.segments
     x = np.linspace(0.0, d.plate.length, n + 1)
     rise = np.asarray(spread.top_rise_centreline(x))
-    frac = np.asarray(spread.absorbed_fraction(x))
-    T_bulk = T_in + (T_out - T_in) * frac
+
+    def absorbed(xs):
+        # A serpentine crosses the plate once per pass: take the outlet temperature everywhere (cautious).
+        return np.asarray(spread.absorbed_fraction(xs)) if geom.single_pass else np.ones_like(xs)
+
+    T_bulk = T_in + (T_out - T_in) * absorbed(x)
     T_top = T_bulk + Q * rise
     x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
     xf = np.linspace(x0, x0 + d.heat.footprint_length, 4 * n + 1)  # the march over the footprint
-    T_top_f = T_in + (T_out - T_in) * np.asarray(spread.absorbed_fraction(xf)) + Q * np.asarray(
-        spread.top_rise_centreline(xf))
+    T_top_f = T_in + (T_out - T_in) * absorbed(xf) + Q * np.asarray(spread.top_rise_centreline(xf))
     i_hot = int(np.argmax(T_top_f))
     x_hot = float(xf[i_hot])
     T_plate_max = float(T_top_f[i_hot])
@@ -138,7 +141,7 @@ def solve(design: Design) -> Result:
     T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
 
-    litres_per_day = d.flow * 1000.0 * 3600.0 * d.supply.hours_per_day
+    litres_per_day = d.flow * 1000.0 * 3600.0 * d.supply.hours_per_day if d.supply.once_through else 0.0
     methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
     methods += (_use("spreading", conduction.spreading_MCY,
@@ -220,6 +223,9 @@ def _assumptions(d: Design) -> tuple[str, ...]:
     elif d.passage.kind == "tube":
         out.append("the groove holds half the tube's circumference; the plate between passes conducts "
                    "sideways through the base thickness only")
+        if d.passage.passes > 1:
+            out.append("a serpentine crosses the plate once per pass: the coolant under the hot spot is taken at "
+                       "the outlet temperature (cautious), and the profile's bulk temperature is that value")
     else:
         out.append("flow spreads evenly across the cavity width")
     if d.supply.static_pressure is None:

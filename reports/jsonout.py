@@ -40,6 +40,7 @@ def result_to_dict(r, version: str = "") -> dict:
         "mass_flow_kg_per_s": r.m_dot,
         "line_pressure_Pa_abs": r.line_pressure,
         "boiling_point_C": _c(r.T_boil),
+        "once_through": d.supply.once_through,
         "water_use_L_per_day": r.water_use_L_per_day,
         "water_use_m3_per_year": r.water_use_m3_per_year,
         "dew_point_C": _c(r.T_dew),

@@ -38,9 +38,12 @@ def render_text(r, version: str = "") -> str:
     ]
     if r.eta_fin is not None:
         rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", "-"))
+    if d.supply.once_through:
+        rows.append(("water use (once-through)", f"{r.water_use_L_per_day:,.0f}",
+                     f"L/day at {d.supply.hours_per_day:g} h/day  ({r.water_use_m3_per_year:,.1f} m³/year)"))
+    else:
+        rows.append(("water use", "none", "the water returns to its loop"))
     rows += [
-        ("water use", f"{r.water_use_L_per_day:,.0f}",
-         f"L/day at {d.supply.hours_per_day:g} h/day  ({r.water_use_m3_per_year:,.1f} m³/year)"),
         (f"room {r.dew_kind}", _c(r.T_dew),
          f"degC  (room {_c(d.room.temperature)} degC, {d.room.relative_humidity * 100:.0f} % RH)"),
     ]

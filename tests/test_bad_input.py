@@ -64,6 +64,9 @@ CASES = [
     ("flow too small: outlet boils", BASE, {"coolant__flow": "0.005 L/min"}, "[coolant] flow"),
     ("inlet above boiling at line pressure", BASE, {"coolant__inlet_temperature": "160 degC"},
      "[coolant] inlet_temperature"),
+    ("potable water returned", BASE, {"supply__discharge": "return"}, "[supply] discharge"),
+    ("recirculating water to a drain", BASE, {"supply__source": "recirculating", "supply__discharge": "drain"},
+     "[supply] discharge"),
     ("cavity taller than wide", CAVITY, {"passage__height": "60 mm"}, "[passage] height"),
 ]
 

@@ -71,9 +71,12 @@ def test_energy_balance_against_iapws97(results):
 
 
 def test_water_use_arithmetic(results):
-    # Source: definition; litres a day = m^3/s * 1000 L/m^3 * 3600 s/h * hours a day.
+    # Source: definition; litres a day = m^3/s * 1000 L/m^3 * 3600 s/h * hours a day, once-through only.
     for r in results.values():
         d = r.design
+        if not d.supply.once_through:
+            assert r.water_use_L_per_day == 0.0
+            continue
         assert r.water_use_L_per_day == pytest.approx(d.flow * 1000 * 3600 * d.supply.hours_per_day, rel=1e-12)
         assert r.water_use_m3_per_year == pytest.approx(r.water_use_L_per_day * 365 / 1000, rel=1e-12)
 
@@ -144,3 +147,33 @@ def test_findings_sorted_by_severity(results):
     for r in results.values():
         ranks = [SEVERITIES.index(f.severity) for f in r.findings]
         assert ranks == sorted(ranks)
+
+
+def test_once_through_plate_boils_at_atmospheric_pressure(results):
+    # A plate running to an open drain sits near one atmosphere while flowing, whatever the static supply
+    # pressure. Source: IAPWS-IF97 saturation temperature at 101.325 kPa from the independent `iapws` package.
+    r = results["reagent-block-channels"]
+    assert r.design.supply.static_pressure == pytest.approx(4e5)
+    assert r.T_boil == pytest.approx(iapws.iapws97._TSat_P(0.101325), abs=0.01)
+
+
+def test_closed_loop_uses_no_water_and_has_no_drain_findings(results):
+    r = results["detector-cavity-glycol"]
+    assert not r.design.supply.once_through
+    assert r.water_use_L_per_day == 0.0
+    ids = {f.id for f in r.findings}
+    assert not ids & {"discharge-temperature", "drain-air-gap", "once-through-restriction", "cross-connection"}
+
+
+def test_tube_strips_by_hand():
+    # Source: 1-D conduction with a uniform source (Fourier's law): a strip of width w draining over a length l
+    # has a mean rise q'' l^2 / (3 k t); the plate's area-mean is the width-weighted sum.
+    from coldplate.passages import tube
+    d = design_from_dict(example_dict("laser-mount-tube"))
+    p, pl = d.passage, d.plate
+    gap = 2 * p.bend_radius - p.outer_diameter
+    edge = (pl.width - (p.passes - 1) * 2 * p.bend_radius - p.outer_diameter) / 2
+    rise_area = ((p.passes - 1) * gap * (gap / 2) ** 2 + 2 * edge * edge**2) / (3 * pl.conductivity * pl.base)
+    expected = rise_area / pl.width / (pl.length * pl.width)
+    back = tube.back_side(p, pl, tube.geometry(p, pl), h=3000.0)
+    assert dict(back.parts)["plate between passes"] == pytest.approx(expected, rel=1e-12)

@@ -24,6 +24,9 @@ class Geometry:
     heated: str  #: heated-wall arrangement for the laminar Nu table ("4", "3L", "3S", "1L"; see convection)
     roughness: float  #: absolute [m]
     description: str  #: one line for reports
+    #: True when the coolant crosses the plate once along its length, so its local bulk temperature follows
+    #: the heat absorbed up to x; False for a serpentine, where the solve takes the outlet temperature.
+    single_pass: bool = True
 
     @property
     def rel_roughness(self) -> float:

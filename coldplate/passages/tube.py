@@ -4,7 +4,8 @@ The passes run along the plate length, joined by 180-degree return bends of
 centre-line radius ``bend_radius`` (so adjacent passes are ``2·bend_radius``
 apart).  Heat crosses, in series: the plate metal between passes to the groove
 (1-D conduction with a uniform source), the bond over the groove's contact arc,
-the tube wall, and convection inside the tube.  The groove is taken to hold half
+the tube wall, and convection inside the tube, where the unbonded half of the
+tube takes heat through the wall acting as a curved fin.  The groove is taken to hold half
 the tube's circumference (common practice for a half-round groove).
 """
 from __future__ import annotations
@@ -14,7 +15,7 @@ import math
 from hydraulics.losses import MinorLoss, K_return_bend
 
 from .. import materials
-from ..conduction import R_cylinder_wall, R_strip_lateral
+from ..conduction import R_cylinder_wall, R_strip_lateral, fin_efficiency_straight, fin_m
 from .base import BackSide, Geometry
 
 #: Share of the tube circumference in contact with the groove (common practice, half-round groove).
@@ -42,31 +43,59 @@ def geometry(passage, plate) -> Geometry:
         roughness=passage.roughness,
         description=(f"{passage.material} tube {di * 1e3:.3g}/{passage.outer_diameter * 1e3:.3g} mm, "
                      f"{passage.passes} passes, {passage.bond} bond"),
+        single_pass=passage.passes == 1,
     )
+
+
+def strips(passage, plate) -> tuple[tuple[float, float], ...]:
+    """The plate strips that conduct sideways to a groove: (width, conduction length) pairs [m].
+
+    Adjacent passes are ``2·bend_radius`` apart, so each gap between grooves is a strip of width
+    ``2·bend_radius − D_o`` that drains to both sides (length half its width); the plate outside the outer
+    passes drains to one side only (length its full width).
+    """
+    do, pitch, n = passage.outer_diameter, 2 * passage.bend_radius, passage.passes
+    gap = max(pitch - do, 0.0)
+    edge = max((plate.width - (n - 1) * pitch - do) / 2.0, 0.0)
+    out = [(gap, gap / 2)] * (n - 1) + [(edge, edge)] * 2
+    return tuple((w, l) for w, l in out if w > 0)
 
 
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     L = geom.heated_length
     do, di = passage.outer_diameter, passage.inner_diameter
-    pitch = plate.width / passage.passes
-    half = max((pitch - do) / 2.0, 0.0)
     area_plate = plate.length * plate.width
-    r_lat = float(R_strip_lateral(half, plate.conductivity, plate.base, area_plate)) if half > 0 else 0.0
+    # The plate between and beside the passes: the area mean of the 1-D strip rises, each strip weighted by
+    # its share of the width (the plate over a groove has no lateral rise).
+    parts_lat = strips(passage, plate)
+    r_lat = sum(w / plate.width * float(R_strip_lateral(l, plate.conductivity, plate.base, area_plate))
+                for w, l in parts_lat)
     bond = materials.BONDS[passage.bond]
     r_bond = bond.value / (CONTACT_ARC * math.pi * do * L)
     k_tube = materials.material(passage.material).conductivity
     r_wall = float(R_cylinder_wall(di, do, k_tube, L, CONTACT_ARC))
+    # Heat reaches the unbonded half of the tube by conduction round the wall: two curved fins of a quarter
+    # of the mean circumference each, wetted on one face (m = sqrt(h/(k t)), i.e. fin_m with 2t).
+    t_wall = (do - di) / 2
+    m = fin_m(h, k_tube, 2 * t_wall)
+    s = math.pi * (do + di) / 8
+    eta_arc = float(fin_efficiency_straight(m, s))
     wetted = math.pi * di * L
-    r_conv = 1.0 / (h * wetted)
+    r_conv = 1.0 / (h * wetted * (CONTACT_ARC + (1 - CONTACT_ARC) * eta_arc))
+    checks = [("tube wall as fin", fin_efficiency_straight, {"mL": float(m) * s, "Bi": h * t_wall / k_tube})]
+    if parts_lat:
+        checks.append(("plate between passes", R_strip_lateral,
+                       {"thickness/half_width": plate.base / max(l for _, l in parts_lat)}))
     return BackSide(parts=(("plate between passes", r_lat), ("bond", r_bond), ("tube wall", r_wall),
-                           ("convection", r_conv)), wetted_area=wetted,
-                    methods=(("plate between passes", R_strip_lateral,
-                              {"thickness/half_width": plate.base / half}),) if half > 0 else ())
+                           ("convection", r_conv)), wetted_area=wetted, methods=tuple(checks))
 
 
 def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:
+    """The return bends.  Rennels' bend K includes the friction of the bend's own arc, which the solve already
+    counts in the straight-tube friction over ``path_length``; that part, fd·π·r/D, is taken out here."""
     bends = passage.passes - 1
     if bends <= 0:
         return ()
     K = K_return_bend(passage.inner_diameter, passage.bend_radius, fd, Re)
-    return (MinorLoss(f"{bends} return bends", bends * K, V),)
+    K_arc = fd * math.pi * passage.bend_radius / passage.inner_diameter
+    return (MinorLoss(f"{bends} return bends (less arc friction)", bends * max(K - K_arc, 0.0), V),)
