@@ -78,7 +78,7 @@ def solve(design: Design) -> Result:
         fr = darcy_friction(Re, geom.path_length, geom.D_h, geom.alpha, geom.shape, geom.rel_roughness)
         mu_ratio = 1.0
         if d.model.laminar == "sieder-tate":
-            mu_ratio = pr.mu / coolant.props(min(T_wall, T_boil - 0.5), p).mu
+            mu_ratio = pr.mu / coolant.props(min(T_wall, coolant.upper_limit(p) - 0.5), p).mu
         cv = nusselt(Re, pr.Pr, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
                      laminar=d.model.laminar, turbulent=d.model.turbulent,
                      heated=geom.heated, mu_ratio=mu_ratio)
@@ -167,13 +167,14 @@ def solve(design: Design) -> Result:
 
 
 def _check_outlet(T_out, T_boil, coolant, p):
+    """The outlet must stay liquid and within the property data; otherwise the flow is too small."""
     if not math.isfinite(T_out) or T_out >= T_boil:
         raise DesignError("[coolant] flow", f"is too small for the load: the coolant would reach boiling "
                                             f"({T_boil - 273.15:.1f} degC at {p / 1e3:.0f} kPa absolute) before the outlet")
     try:
         coolant.check_liquid(T_out, p)
     except _CoolantStateError as exc:
-        raise DesignError("[coolant] flow", str(exc)) from None
+        raise DesignError("[coolant] flow", f"is too small for the load: at the outlet, {exc}") from None
 
 
 def _use(role, fn, values):

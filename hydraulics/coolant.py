@@ -118,6 +118,10 @@ class Coolant:
         """
         return _tsat(p)
 
+    def upper_limit(self, p: float) -> float:
+        """Highest usable temperature [K]: the boiling point or the end of the property data."""
+        return min(self.boiling_point(p), _tmax(self.backend))
+
     def check_liquid(self, T: float, p: float) -> None:
         """Raise :class:`StateError` unless the coolant is a liquid at (T, p)."""
         if not (math.isfinite(T) and math.isfinite(p)) or p <= 0:
@@ -126,6 +130,12 @@ class Coolant:
         if T <= tf:
             raise StateError(
                 f"{self.label()} freezes at {tf - 273.15:.2f} degC; {T - 273.15:.2f} degC is at or below it"
+            )
+        tmax = _tmax(self.backend)
+        if T >= tmax:
+            raise StateError(
+                f"{T - 273.15:.1f} degC is beyond CoolProp's property data for {self.label()} "
+                f"(up to {tmax - 273.15:.1f} degC)"
             )
         tb = self.boiling_point(p)
         if T >= tb:
@@ -155,6 +165,12 @@ def _props(backend: str, T: float, p: float) -> Props:
 @lru_cache(maxsize=64)
 def _tsat(p: float) -> float:
     return CP.PropsSI("T", "P", p, "Q", 0, "IF97::Water")
+
+
+@lru_cache(maxsize=16)
+def _tmax(backend: str) -> float:
+    """Upper temperature limit of the backend's data [K] (incompressible mixtures stop at 100 degC)."""
+    return CP.PropsSI("Tmax", backend)
 
 
 @lru_cache(maxsize=16)
