@@ -8,6 +8,8 @@ source (a code, a standard, or "common practice").
 """
 from __future__ import annotations
 
+import re
+
 from . import materials
 from .result import SEVERITIES, Finding
 
@@ -42,6 +44,11 @@ def collect_findings(r) -> tuple[Finding, ...]:
         out.extend(rule(r))
     rank = {s: i for i, s in enumerate(SEVERITIES)}
     return tuple(sorted(out, key=lambda f: rank[f.severity]))
+
+
+def _slug(text: str) -> str:
+    """A finding id from a method name: lower case, '&' as 'and', other runs of symbols as one '-'."""
+    return re.sub(r"[^a-z0-9]+", "-", text.lower().replace("&", "and")).strip("-")
 
 
 def _c(T: float) -> str:
@@ -232,7 +239,7 @@ def ranges(r):
     for use in r.methods:
         if use.outside:
             yield Finding(
-                f"range-{use.method.lower().replace(' ', '-').replace('&', 'and')}", "caution",
+                "range-" + _slug(use.method), "caution",
                 f"{use.method} ({use.role}) is used outside its published range: {'; '.join(use.outside)}.",
                 "Treat this part of the result as an extrapolation; check it against a test or a finer model.")
     if r.regime == "transitional":
