@@ -142,6 +142,9 @@ DEFAULT_DISCHARGE_LIMIT = 333.15
 #: Default plenum length at each end of a channel field, when not given [m].
 DEFAULT_PLENUM_LENGTH = 0.005
 
+_SI_LABEL = {"length": "m", "power": "W", "flow": "m³/s", "pressure": "Pa (gauge)", "conductivity": "W/(m K)",
+             "area_resistance": "m² K/W", "fraction": "(as a fraction)"}
+
 # ---------------------------------------------------------------- field reader
 
 
@@ -173,18 +176,21 @@ class _Table:
         if raw is None:
             return default
         v = parse_value(raw, kind, self.field(key))
-        self._range(key, v, low, high, low_inclusive, raw)
+        self._range(key, v, low, high, low_inclusive, raw, kind)
         return v
 
-    def _range(self, key, v, low, high, low_inclusive, raw):
-        if low is not None:
-            if (v < low) if low_inclusive else (v <= low):
-                what = "zero or negative" if low == 0 else f"below {low:g} (SI)"
-                if low == 0 and low_inclusive:
-                    what = "negative"
-                raise DesignError(self.field(key), f"{raw!r} is {what}; it must be {'at least' if low_inclusive else 'above'} {low:g}")
+    def _range(self, key, v, low, high, low_inclusive, raw, kind):
+        def show(x):  # limits in the units a user reads: degC for temperatures, SI otherwise
+            return f"{x - 273.15:g} degC" if kind == "temperature" else f"{x:g} {_SI_LABEL.get(kind, '(SI)')}"
+
+        if low is not None and ((v < low) if low_inclusive else (v <= low)):
+            if low == 0:
+                what = "negative" if low_inclusive else "zero or negative"
+                raise DesignError(self.field(key), f"{raw!r} is {what}; it must be "
+                                                   f"{'zero or more' if low_inclusive else 'above zero'}")
+            raise DesignError(self.field(key), f"{raw!r} is below the accepted range (at least {show(low)})")
         if high is not None and v > high:
-            raise DesignError(self.field(key), f"{raw!r} is implausibly large (limit {high:g} in SI units)")
+            raise DesignError(self.field(key), f"{raw!r} is implausibly large (at most {show(high)})")
 
     def integer(self, key: str, low: int, high: int) -> int:
         raw = self.raw(key)

@@ -180,7 +180,7 @@ def velocity(r):
 def pressure(r):
     d = r.design
     kind = d.passage.kind
-    rating = d.plate.pressure_rating or materials.PRESSURE_RATING[kind].value
+    rating = d.plate.pressure_rating or materials.pressure_rating(kind).value
     given = "its stated rating" if d.plate.pressure_rating else f"the usual rating of a {kind} plate (common practice)"
     p = d.supply.static_pressure
     if p is None:

@@ -121,11 +121,11 @@ def solve(design: Design) -> Result:
     i_hot = int(np.argmax(T_top_f))
     x_hot = float(xf[i_hot])
     T_plate_max = float(T_top_f[i_hot])
-    R_int = d.interface.resistance_area / A_fp
+    R_int = conduction.R_interface(d.interface.resistance_area, A_fp)
     T_face_max = T_plate_max + Q * R_int
     R_th = (T_face_max - T_in) / Q
 
-    R_base = d.plate.base / (d.plate.conductivity * A_plate)
+    R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_plate)
     theta_hot = float(spread.top_rise_centreline(np.array([x_hot]))[0])
     R_coolant = (T_plate_max - T_in) / Q - theta_hot
     parts = [("interface", R_int), ("spreading", theta_hot - R_base - R_below), ("base conduction", R_base)]

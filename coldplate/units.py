@@ -129,16 +129,3 @@ def parse_value(text: object, kind: str, field: str) -> float:
 def _finite(value: float, field: str) -> None:
     if not math.isfinite(value):
         raise DesignError(field, "must be a finite number (NaN and infinity are not values)")
-
-
-def to_unit(value_si: float, kind: str, unit: str) -> float:
-    """Convert an SI float of ``kind`` to ``unit`` (for reports)."""
-    return float(Quantity(value_si, _SI_UNIT[kind]).to(unit).magnitude)
-
-
-def kelvin_to_celsius(T: float) -> float:
-    return T - 273.15
-
-
-def celsius_to_kelvin(t: float) -> float:
-    return t + 273.15

@@ -70,8 +70,7 @@ def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     parts_lat = strips(passage, plate)
     r_lat = sum(w / plate.width * float(R_strip_lateral(l, plate.conductivity, plate.base, area_plate))
                 for w, l in parts_lat)
-    bond = materials.BONDS[passage.bond]
-    r_bond = bond.value / (CONTACT_ARC * math.pi * do * L)
+    r_bond = materials.bond(passage.bond).value / (CONTACT_ARC * math.pi * do * L)
     k_tube = materials.material(passage.material).conductivity
     r_wall = float(R_cylinder_wall(di, do, k_tube, L, CONTACT_ARC))
     # Heat reaches the unbonded half of the tube by conduction round the wall: two curved fins of a quarter
