@@ -59,15 +59,14 @@ def solve(design: Design) -> Result:
     T_in = d.inlet_temperature
     T_boil = coolant.boiling_point(p)
 
-    rho_in = coolant.props(T_in, p).rho
-    m_dot = rho_in * d.flow  # the volumetric flow is taken at inlet conditions
+    pr_in = coolant.props(T_in, p)
+    m_dot = pr_in.rho * d.flow  # the volumetric flow is taken at inlet conditions
     H_in = enthalpy(coolant, T_in, p)
     total_area = geom.n_parallel * geom.flow_area
     A_plate = d.plate.length * d.plate.width
     A_fp = d.heat.footprint_length * d.heat.footprint_width
 
-    cp0 = coolant.props(T_in, p).cp
-    T_out = T_in + Q / (m_dot * cp0)
+    T_out = T_in + Q / (m_dot * pr_in.cp)
     T_wall = T_out
     for iteration in range(1, MAX_ITERATIONS + 1):
         _check_outlet(T_out, T_boil, coolant, p)
@@ -87,7 +86,6 @@ def solve(design: Design) -> Result:
         conv = dict(back.parts)["convection"]
         # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
         H_target = H_in + Q / m_dot
-        _check_outlet(T_out, T_boil, coolant, p)
         cp_bar = (enthalpy(coolant, T_out, p) - H_in) / (T_out - T_in) if T_out - T_in > 1e-9 else pr.cp
         T_out_new = T_in + (H_target - H_in) / cp_bar
         T_wall_new = T_mean + Q * conv
@@ -105,19 +103,22 @@ def solve(design: Design) -> Result:
     h_eff = 1.0 / (A_plate * R_below)
     spread = conduction.spreading_MCY(d.plate.length, d.plate.width, d.heat.footprint_length,
                                       d.heat.footprint_width, d.plate.base, d.plate.conductivity, h_eff)
+    def bulk(xs):
+        # A serpentine crosses the plate once per pass: take the outlet temperature everywhere (cautious).
+        frac = np.asarray(spread.absorbed_fraction(xs)) if geom.single_pass else np.ones_like(xs)
+        return T_in + (T_out - T_in) * frac
+
+    def top(xs):
+        """Bulk temperature and plate top-face temperature on the centre line at ``xs``."""
+        T_b = bulk(xs)
+        return T_b, T_b + Q * np.asarray(spread.top_rise_centreline(xs))
+
     n = d.model.segments
     x = np.linspace(0.0, d.plate.length, n + 1)
-    rise = np.asarray(spread.top_rise_centreline(x))
-
-    def absorbed(xs):
-        # A serpentine crosses the plate once per pass: take the outlet temperature everywhere (cautious).
-        return np.asarray(spread.absorbed_fraction(xs)) if geom.single_pass else np.ones_like(xs)
-
-    T_bulk = T_in + (T_out - T_in) * absorbed(x)
-    T_top = T_bulk + Q * rise
+    T_bulk, T_top = top(x)
     x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
     xf = np.linspace(x0, x0 + d.heat.footprint_length, 4 * n + 1)  # the march over the footprint
-    T_top_f = T_in + (T_out - T_in) * absorbed(xf) + Q * np.asarray(spread.top_rise_centreline(xf))
+    T_bulk_f, T_top_f = top(xf)
     i_hot = int(np.argmax(T_top_f))
     x_hot = float(xf[i_hot])
     T_plate_max = float(T_top_f[i_hot])
@@ -126,8 +127,8 @@ def solve(design: Design) -> Result:
     R_th = (T_face_max - T_in) / Q
 
     R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_plate)
-    theta_hot = float(spread.top_rise_centreline(np.array([x_hot]))[0])
-    R_coolant = (T_plate_max - T_in) / Q - theta_hot
+    R_coolant = (float(T_bulk_f[i_hot]) - T_in) / Q
+    theta_hot = (T_plate_max - float(T_bulk_f[i_hot])) / Q
     parts = [("interface", R_int), ("spreading", theta_hot - R_base - R_below), ("base conduction", R_base)]
     parts += list(back.parts)
     parts.append(("coolant temperature rise", R_coolant))
