@@ -11,12 +11,12 @@ import math
 import tomllib
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Any
 
 from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
 
 from . import materials
 from .errors import DesignError, StateError
+from .fields import Table
 from .units import parse_value
 
 # ---------------------------------------------------------------- dataclasses
@@ -142,85 +142,6 @@ DEFAULT_DISCHARGE_LIMIT = 333.15
 #: Default plenum length at each end of a channel field, when not given [m].
 DEFAULT_PLENUM_LENGTH = 0.005
 
-_SI_LABEL = {"length": "m", "power": "W", "flow": "m³/s", "pressure": "Pa (gauge)", "conductivity": "W/(m K)",
-             "area_resistance": "m² K/W", "fraction": "(as a fraction)"}
-
-# ---------------------------------------------------------------- field reader
-
-
-class _Table:
-    """One TOML table with every read recorded, so unknown keys can be refused."""
-
-    def __init__(self, data: Any, name: str):
-        if not isinstance(data, dict):
-            raise DesignError(f"[{name}]", "must be a table")
-        self.data, self.name, self.used = data, name, set()
-
-    def field(self, key: str) -> str:
-        return f"[{self.name}] {key}"
-
-    def has(self, key: str) -> bool:
-        return key in self.data
-
-    def raw(self, key: str, required: bool = True):
-        self.used.add(key)
-        if key not in self.data:
-            if required:
-                raise DesignError(self.field(key), "is missing")
-            return None
-        return self.data[key]
-
-    def value(self, key: str, kind: str, *, required=True, low=None, high=None, low_inclusive=False,
-              default=None) -> float | None:
-        raw = self.raw(key, required and default is None)
-        if raw is None:
-            return default
-        v = parse_value(raw, kind, self.field(key))
-        self._range(key, v, low, high, low_inclusive, raw, kind)
-        return v
-
-    def _range(self, key, v, low, high, low_inclusive, raw, kind):
-        def show(x):  # limits in the units a user reads: degC for temperatures, SI otherwise
-            return f"{x - 273.15:g} degC" if kind == "temperature" else f"{x:g} {_SI_LABEL.get(kind, '(SI)')}"
-
-        if low is not None and ((v < low) if low_inclusive else (v <= low)):
-            if low == 0:
-                what = "negative" if low_inclusive else "zero or negative"
-                raise DesignError(self.field(key), f"{raw!r} is {what}; it must be "
-                                                   f"{'zero or more' if low_inclusive else 'above zero'}")
-            raise DesignError(self.field(key), f"{raw!r} is below the accepted range (at least {show(low)})")
-        if high is not None and v > high:
-            raise DesignError(self.field(key), f"{raw!r} is implausibly large (at most {show(high)})")
-
-    def integer(self, key: str, low: int, high: int) -> int:
-        raw = self.raw(key)
-        if isinstance(raw, bool) or not isinstance(raw, int):
-            raise DesignError(self.field(key), f"must be a whole number, got {raw!r}")
-        if not (low <= raw <= high):
-            raise DesignError(self.field(key), f"{raw} is outside {low}..{high}")
-        return raw
-
-    def choice(self, key: str, choices, default=None) -> str:
-        raw = self.raw(key, default is None)
-        if raw is None:
-            return default
-        if raw not in choices:
-            raise DesignError(self.field(key), f"{raw!r} is not one of: {', '.join(choices)}")
-        return raw
-
-    def exactly_one(self, *keys: str) -> str:
-        given = [k for k in keys if k in self.data]
-        if len(given) != 1:
-            which = "both" if len(given) > 1 else "neither"
-            raise DesignError(f"[{self.name}]", f"give exactly one of {' or '.join(keys)} ({which} given)")
-        return given[0]
-
-    def finish(self) -> None:
-        unknown = sorted(set(self.data) - self.used)
-        if unknown:
-            raise DesignError(self.field(unknown[0]), f"unknown key (known here: {', '.join(sorted(self.used))})")
-
-
 # ---------------------------------------------------------------- reading
 
 
@@ -259,18 +180,18 @@ def design_from_dict(data: dict) -> Design:
         if name not in data:
             raise DesignError(f"[{name}]", "table is missing")
 
-    plate = _plate(_Table(data["plate"], "plate"))
-    heat = _heat(_Table(data["heat"], "heat"), plate)
-    interface = _interface(_Table(data["interface"], "interface"))
-    passage = _passage(_Table(data["passage"], "passage"), plate)
-    supply = _supply(_Table(data["supply"], "supply"))
-    coolant, T_in, flow = _coolant(_Table(data["coolant"], "coolant"), supply)
-    room = _room(_Table(data["room"], "room"))
-    model = _model(_Table(data.get("correlations", {}), "correlations"))
+    plate = _plate(Table(data["plate"], "plate"))
+    heat = _heat(Table(data["heat"], "heat"), plate)
+    interface = _interface(Table(data["interface"], "interface"))
+    passage = _passage(Table(data["passage"], "passage"), plate)
+    supply = _supply(Table(data["supply"], "supply"))
+    coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
+    room = _room(Table(data["room"], "room"))
+    model = _model(Table(data.get("correlations", {}), "correlations"))
     return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model)
 
 
-def _plate(t: _Table) -> Plate:
+def _plate(t: Table) -> Plate:
     which = t.exactly_one("material", "conductivity")
     if which == "material":
         key = t.raw("material")
@@ -289,7 +210,7 @@ def _plate(t: _Table) -> Plate:
     return Plate(key, k, length, width, base, rating)
 
 
-def _heat(t: _Table, plate: Plate) -> Heat:
+def _heat(t: Table, plate: Plate) -> Heat:
     load = t.value("load", "power", low=0, high=1e5)
     fp = t.raw("footprint")
     if not isinstance(fp, list) or len(fp) != 2:
@@ -305,7 +226,7 @@ def _heat(t: _Table, plate: Plate) -> Heat:
     return Heat(load, fl, fw)
 
 
-def _interface(t: _Table) -> Interface:
+def _interface(t: Table) -> Interface:
     if t.has("resistance"):
         if t.has("conductivity") or t.has("thickness"):
             raise DesignError("[interface]", "give either resistance, or conductivity and thickness (both given)")
@@ -320,7 +241,7 @@ def _interface(t: _Table) -> Interface:
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
 
-def _passage(t: _Table, plate: Plate):
+def _passage(t: Table, plate: Plate):
     kind = t.choice("kind", PASSAGE_KINDS)
     if kind == "channels":
         count = t.integer("count", 1, 2000)
@@ -374,7 +295,7 @@ def _passage(t: _Table, plate: Plate):
     return Cavity(h, port, rough)
 
 
-def _supply(t: _Table) -> Supply:
+def _supply(t: Table) -> Supply:
     source = t.choice("source", SOURCES)
     hraw = t.raw("hours_per_day")
     if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
@@ -404,7 +325,7 @@ def _supply(t: _Table) -> Supply:
     return Supply(source, hours, float(days), p, limit, discharge)
 
 
-def _coolant(t: _Table, supply: Supply):
+def _coolant(t: Table, supply: Supply):
     fluid = t.choice("fluid", FLUIDS)
     if fluid == "water":
         fraction, basis = 0.0, "mass"
@@ -425,14 +346,14 @@ def _coolant(t: _Table, supply: Supply):
     return coolant, T_in, flow
 
 
-def _room(t: _Table) -> Room:
+def _room(t: Table) -> Room:
     T = t.value("temperature", "temperature", low=223.15, high=333.15)
     rh = t.value("relative_humidity", "fraction", low=0, high=1.0)
     t.finish()
     return Room(T, rh)
 
 
-def _model(t: _Table) -> Model:
+def _model(t: Table) -> Model:
     lam = t.choice("laminar", LAMINAR_CHOICES, default=Model.laminar)
     turb = t.choice("turbulent", TURBULENT_CHOICES, default=Model.turbulent)
     seg = t.raw("segments", required=False)

@@ -83,8 +83,5 @@ class Result:
     profile: Profile
     iterations: int
     assumptions: tuple[str, ...]
+    load: float  #: heat into the plate [W]
     findings: tuple[Finding, ...] = field(default=())
-
-    @property
-    def load(self) -> float:
-        return self.design.heat.load

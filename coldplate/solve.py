@@ -49,9 +49,21 @@ def check_file(path) -> Result:
 
 
 def solve(design: Design) -> Result:
-    """Solve the design check for one design."""
+    """Solve the design check for one design: the plate at the design's flow and load, then the findings."""
+    result = solve_plate(design)
+    return replace(result, findings=collect_findings(result))
+
+
+def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:
+    """The plate alone at a volumetric flow [m^3/s] and heat load [W] (the design's own when not given).
+
+    Returns a :class:`Result` without findings.  Features that vary the operating point (a flow set by the
+    supply circuit, a load set by a thermoelectric module, curves against flow) call this, so every such
+    number comes from the same chain as the design check.
+    """
     d = design
-    Q = d.heat.load
+    Q = d.heat.load if load is None else float(load)
+    flow = d.flow if flow is None else float(flow)
     p = d.supply.line_pressure
     coolant = d.coolant
     module = PASSAGES[d.passage.kind]
@@ -60,7 +72,7 @@ def solve(design: Design) -> Result:
     T_boil = coolant.boiling_point(p)
 
     pr_in = coolant.props(T_in, p)
-    m_dot = pr_in.rho * d.flow  # the volumetric flow is taken at inlet conditions
+    m_dot = pr_in.rho * flow  # the volumetric flow is taken at inlet conditions
     H_in = enthalpy(coolant, T_in, p)
     total_area = geom.n_parallel * geom.flow_area
     A_plate = d.plate.length * d.plate.width
@@ -142,7 +154,7 @@ def solve(design: Design) -> Result:
     T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
 
-    litres_per_day = d.flow * 1000.0 * 3600.0 * d.supply.hours_per_day if d.supply.once_through else 0.0
+    litres_per_day = flow * 1000.0 * 3600.0 * d.supply.hours_per_day if d.supply.once_through else 0.0
     methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
     methods += (_use("spreading", conduction.spreading_MCY,
@@ -156,15 +168,15 @@ def solve(design: Design) -> Result:
         design=d, geometry=geom, props=pr, R_th=R_th, resistances=tuple(parts), T_in=T_in, T_out=T_out,
         T_face_max=T_face_max, T_plate_max=T_plate_max, x_hot=x_hot, dp=dp, dp_friction=dp_f,
         minor_losses=losses, velocity=V, Re=Re, Pr=pr.Pr, Nu=float(cv.Nu), f_darcy=float(fr.f),
-        regime=cv.regime, h=h, eta_fin=back.eta_fin, wetted_area=back.wetted_area, V_dot=d.flow,
+        regime=cv.regime, h=h, eta_fin=back.eta_fin, wetted_area=back.wetted_area, V_dot=flow,
         m_dot=m_dot, line_pressure=p, T_boil=T_boil, T_dew=T_dew, dew_kind=dew_kind,
         water_use_L_per_day=litres_per_day,
         water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0,
         methods=methods,
         profile=Profile(tuple(map(float, x)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
-        iterations=iteration, assumptions=_assumptions(d),
+        iterations=iteration, assumptions=_assumptions(d), load=Q,
     )
-    return replace(result, findings=collect_findings(result))
+    return result
 
 
 def _check_outlet(T_out, T_boil, coolant, p):

@@ -23,7 +23,7 @@ def result_to_dict(r, version: str = "") -> dict:
         "hot_spot_from_inlet_edge_m": r.x_hot,
         "inlet_temperature_C": _c(r.T_in),
         "outlet_temperature_C": _c(r.T_out),
-        "heat_load_W": d.heat.load,
+        "heat_load_W": r.load,
         "pressure_drop_Pa": r.dp,
         "pressure_drop_parts_Pa": {"friction": r.dp_friction,
                                    **{m.name: m.pressure_drop(r.props.rho) for m in r.minor_losses}},

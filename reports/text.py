@@ -25,8 +25,8 @@ def _table(rows, title):
 def render_text(r, version: str = "") -> str:
     d = r.design
     rows = [
-        ("heat load", f"{d.heat.load:.4g}", "W"),
-        ("coolant flow", f"{d.flow * 6e4:.4g}", "L/min"),
+        ("heat load", f"{r.load:.4g}", "W"),
+        ("coolant flow", f"{r.V_dot * 6e4:.4g}", "L/min"),
         ("thermal resistance", f"{r.R_th:.4f}", "K/W  (hottest mounting face - inlet) / load"),
         ("mounting face, hottest", _c(r.T_face_max), f"degC  at {r.x_hot * 1e3:.1f} mm from the inlet edge"),
         ("plate top, hottest", _c(r.T_plate_max), "degC"),
