@@ -75,15 +75,19 @@ def sha256_text(data: bytes) -> str:
     return hashlib.sha256(data).hexdigest()
 
 
+_SOURCE_WORDS = {"potable": "the building's drinking-water supply", "recirculating": "a recirculating loop",
+                 "process": "a process loop"}
+
+
 def job_line(r, u: DisplayUnits) -> str:
     d = r.design
     where = "once-through to a drain" if d.supply.once_through else "returning to its loop"
     return (f"Carry {u.text('power', r.load)} from a {u.fmt('length', d.heat.footprint_length)} × "
-            f"{u.text('length', d.heat.footprint_width)} footprint into a "
+            f"{u.text('length', d.heat.footprint_width)} footprint into the "
             f"{u.fmt('length', d.plate.length)} × {u.text('length', d.plate.width)} "
             f"{d.plate.material or 'plate'} plate ({r.geometry.description}), cooled by "
-            f"{u.text('flow', d.flow)} of {d.coolant.label()} at {u.text('temperature', d.inlet_temperature)} "
-            f"from a {d.supply.source} supply, {where}.")
+            f"{u.text('flow', r.V_dot)} of {d.coolant.label()} at {u.text('temperature', r.T_in)} "
+            f"from {_SOURCE_WORDS.get(d.supply.source, d.supply.source)}, {where}.")
 
 
 def _inputs(r, u: DisplayUnits) -> Section:
@@ -219,7 +223,7 @@ def _module(m, u: DisplayUnits, figures) -> Section:
         Row("coldest current / best-COP current", f"{format_number(m.coldest_current)} / "
                                                   f"{format_number(m.best_cop_current)}", "A per module"),
         Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature")),
-        Row("cold face above the dew/frost point by", u.fmt("temperature_difference", m.dew_margin),
+        Row("dew margin (cold face − room dew/frost point)", u.fmt("temperature_difference", m.dew_margin),
             u.label("temperature_difference")),
     )
     return Section("module", "Thermoelectric module", rows=rows, figures=figures)

@@ -178,7 +178,7 @@ def module_sweep(module, u: DisplayUnits) -> Figure:
     ax1.set_xlabel("current per module [A]")
     ax1.set_ylabel(f"temperature [{u.label('temperature')}]")
     ax1.set_title("Module faces against current", loc="left")
-    ax1.legend(fontsize=8)
+    ax1.legend(fontsize=8, loc="best")
     ax2.plot(s.current, s.cop, color=GREEN, label="COP")
     ax2.axvline(module.best_cop_current, color=GREEN, linestyle=":", linewidth=1.0)
     ax2.set_xlabel("current per module [A]")
