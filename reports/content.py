@@ -189,8 +189,10 @@ def _flow(curve, fit, u: DisplayUnits, figures) -> Section:
              f"R = {fit.R0:.5g} + {fit.c:.5g}·V̇^(−{fit.n:.4f}), largest error {100 * fit.R_max_error:.1f} %; "
              f"fitted over {fit.V_min:.4g} to {fit.V_max:.4g} m³/s."]
     if curve.skipped:
-        paras.append(f"Left out {len(curve.skipped)} flow(s) up to {u.text('flow', max(v for v, _ in curve.skipped), 3)}: "
-                     f"{curve.skipped[0][1]}.")
+        n = len(curve.skipped)
+        paras.append(f"Left out {n} flow{'s' if n > 1 else ''} at or below "
+                     f"{u.text('flow', max(v for v, _ in curve.skipped), 3)}, where the flow "
+                     f"{curve.skipped[0][1].rstrip('.')}.")
     return Section("flow", "Thermal resistance and pressure drop against flow", tuple(paras), figures=figures)
 
 

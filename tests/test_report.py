@@ -319,3 +319,13 @@ def test_check_does_not_import_matplotlib():
             "sys.stderr.write(str(sorted(m for m in sys.modules if m.split('.')[0] == 'matplotlib')))") % str(EXAMPLES[0])
     proc = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=ROOT, check=True)
     assert proc.stderr == "[]"
+
+
+def test_report_says_which_flows_were_left_out(tmp_path):
+    # 1.5 kW at 0.8 L/min warms the water by about 27 K; at a quarter of the flow it would boil (computed:
+    # 1500 W / (0.2/60e3 m^3/s x 998 kg/m^3 x 4180 J/(kg K)) = 108 K above an 18 degC inlet)
+    path = write(tmp_path, modified(example_dict("laser-mount-tube"), heat__load="1500 W"))
+    out = tmp_path / "hot.html"
+    assert main(["report", str(path), "-o", str(out)]) == 0
+    body = "".join(parse(out.read_text(encoding="utf-8")).text)
+    assert re.search(r"Left out \d+ flows? at or below [\d.]+ L/min, where the flow is too small for the load", body)

@@ -6,6 +6,7 @@ Skipped, with the reason, only where /usr/bin/chromium is absent (.ci/run instal
 from __future__ import annotations
 
 import os
+import re
 import subprocess
 
 import numpy as np
@@ -63,3 +64,19 @@ def test_report_renders_in_chromium(tmp_path, name):
     blue = np.array([0x00, 0x72, 0xB2]) / 255.0
     blue_pixels = int((np.abs(img - blue).max(axis=2) < 0.06).sum())
     assert blue_pixels > 10000, blue_pixels
+
+
+def test_report_prints(tmp_path):
+    # Chromium's print to PDF (its default paper is Letter): the report lays out on whole pages
+    page = tmp_path / "print.html"
+    assert main(["report", str(ROOT / "examples" / "detector-cavity-glycol.toml"), "-o", str(page)]) == 0
+    pdf = tmp_path / "print.pdf"
+    cmd = [CHROMIUM, *FLAGS, f"--user-data-dir={tmp_path / 'profile-print'}", "--no-pdf-header-footer",
+           f"--print-to-pdf={pdf}", page.resolve().as_uri()]
+    proc = subprocess.run(cmd, capture_output=True, text=True, timeout=180, stdin=subprocess.DEVNULL)
+    assert pdf.exists(), proc.stderr[-2000:]
+    data = pdf.read_bytes()
+    assert data.startswith(b"%PDF")
+    boxes = re.findall(rb"/MediaBox\s*\[\s*0 0 ([\d.]+) ([\d.]+)\s*\]", data)
+    assert len(boxes) >= 3  # results, findings, figures and methods do not fit one page
+    assert {(float(w), float(h)) for w, h in boxes} == {(612.0, 792.0)}  # 8.5 x 11 in at 72 pt/in
