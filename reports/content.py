@@ -71,6 +71,17 @@ _LENGTH_FIELDS = {"width", "depth", "plenum_length", "port_diameter", "roughness
                   "outer_diameter", "bend_radius", "height"}
 
 
+def finding_counts(findings) -> str:
+    """'6: 1 warning, 3 cautions, 2 notes', in the order the findings come (most severe first)."""
+    counts: dict[str, int] = {}
+    for f in findings:
+        counts[f.severity] = counts.get(f.severity, 0) + 1
+    if not counts:
+        return "none"
+    parts = ", ".join(f"{n} {sev}{'s' if n > 1 else ''}" for sev, n in counts.items())
+    return f"{len(findings)}: {parts}"
+
+
 def sha256_text(data: bytes) -> str:
     return hashlib.sha256(data).hexdigest()
 
@@ -97,7 +108,7 @@ def _inputs(r, u: DisplayUnits) -> Section:
         Row("footprint (along × across the flow)",
             f"{u.fmt('length', d.heat.footprint_length)} × {u.fmt('length', d.heat.footprint_width)}",
             u.label("length")),
-        Row("interface", d.interface.described_as, ""),
+        Row("interface", annotate(d.interface.described_as, u), ""),
         Row("interface resistance per area", u.fmt("area_resistance", d.interface.resistance_area),
             u.label("area_resistance")),
         Row("plate material", d.plate.material or "(conductivity given)", ""),
@@ -200,13 +211,16 @@ def _methods(r) -> Section:
     head = ("role", "method", "validity range", "this design", "status", "reference")
     body = []
     for m in r.methods:
-        here = ", ".join(f"{k} = {v:.4g}" for k, v in m.values)
+        here = ", ".join(f"{k} = {format_number(v)}" for k, v in m.values)
         body.append((m.role, m.method, m.validity, here,
                      "inside" if not m.outside else "OUTSIDE: " + "; ".join(m.outside), m.reference))
-    return Section("methods", "Methods and their validity ranges",
-                   ("Each published correlation the solve used, where the design sits in its range, and the "
-                    "reference. Outside its range a result is an extrapolation (see the findings).",),
-                   table=(head, *body))
+    paras = ["Each published correlation the solve used, where the design sits in its range, and the reference. "
+             "Outside its range a result is an extrapolation (see the findings)."]
+    if r.regime == "transitional":
+        paras.append(f"The flow is transitional (Re = {format_number(r.Re)}): the result interpolates between "
+                     "the laminar methods, evaluated and checked at the end of the laminar range, and the turbulent "
+                     "ones, evaluated and checked at the start of the turbulent range.")
+    return Section("methods", "Methods and their validity ranges", tuple(paras), table=(head, *body))
 
 
 def _module(m, u: DisplayUnits, figures) -> Section:

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from html import escape
 
-from .content import STANDING_CAUTION, Report, Section
+from .content import STANDING_CAUTION, Report, Section, finding_counts
 
 CSS = """
 :root { color-scheme: light; }
@@ -53,7 +53,8 @@ def _table(table, css="") -> str:
     cls = f' class="{css}"' if css else ""
     out = [f"<table{cls}><thead><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr></thead><tbody>"]
     for row in body:
-        out.append("<tr>" + "".join(f"<td>{escape(c)}</td>" for c in row) + "</tr>")
+        out.append("<tr>" + "".join(f"<td><strong>{escape(c)}</strong></td>" if c.startswith("OUTSIDE")
+                                    else f"<td>{escape(c)}</td>" for c in row) + "</tr>")
     out.append("</tbody></table>")
     return "\n".join(out)
 
@@ -93,7 +94,7 @@ def render_html(rep: Report) -> str:
         '<section id="results"><h2>Results</h2>',
         _rows(rep.headline),
         "</section>",
-        f'<section id="findings"><h2>Findings ({len(rep.findings)}), most severe first</h2>',
+        f'<section id="findings"><h2>Findings ({finding_counts(rep.findings)}), most severe first</h2>',
         f'<div class="caution-box">{escape(STANDING_CAUTION)}</div>',
     ]
     for f in rep.findings:

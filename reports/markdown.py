@@ -4,7 +4,7 @@ Layout only: the words and numbers come from :mod:`reports.content`, as in the H
 """
 from __future__ import annotations
 
-from .content import STANDING_CAUTION, Report, Section
+from .content import STANDING_CAUTION, Report, Section, finding_counts
 
 
 def _cell(text: str) -> str:
@@ -51,7 +51,7 @@ def render_markdown(rep: Report, stem: str) -> tuple[str, dict[str, str]]:
            f"*coldplate {rep.version} · design file {rep.source_name} · SHA-256 `{rep.source_sha256}` · "
            f"units: {units}*", "", "## Results", ""]
     out += _rows(rep.headline)
-    out += [f"## Findings ({len(rep.findings)}), most severe first", "", f"> {STANDING_CAUTION}", ""]
+    out += [f"## Findings ({finding_counts(rep.findings)}), most severe first", "", f"> {STANDING_CAUTION}", ""]
     for f in rep.findings:
         out += [f"- **{f.severity.upper()}** `{f.id}`: {f.message}", f"  *What to do:* {f.action}"]
     out += ["" if rep.findings else "No findings.", ""]
