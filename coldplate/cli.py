@@ -77,7 +77,7 @@ def _report(args, version) -> str:
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
     result = solve(parse_design(text))
-    curve = flow_curve(result.design, _flows(args, result.design))
+    curve = flow_curve(result.design, _flows(args, result.design), load=result.load)
     rep = make_report(result, curve, fit_compact(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
     written = write_report(rep, args.output, args.force)
@@ -87,6 +87,7 @@ def _report(args, version) -> str:
 def _curves(args, version) -> str:
     from .curves import fit_compact, flow_curve
     from .design import load_design
+    from .solve import solve
 
     fmt = args.format
     if fmt is None:
@@ -96,7 +97,8 @@ def _curves(args, version) -> str:
 
         check_targets([args.output], args.force)
     design = load_design(args.file)
-    curve = flow_curve(design, _flows(args, design))
+    load = solve(design).load  # the design's load, or the modules' solved hot-side heat
+    curve = flow_curve(design, _flows(args, design), load=load)
     fit = fit_compact(curve)
     if fmt == "json":
         from reports.curves_out import render_curves_json

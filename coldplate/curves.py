@@ -80,8 +80,12 @@ def default_flows(design, span=DEFAULT_SPAN, points: int = DEFAULT_POINTS) -> tu
     return tuple(sorted(flows))
 
 
-def flow_curve(design, flows=None) -> FlowCurve:
-    """Solve the plate at each flow [m^3/s] (the default span when None) at the design's load."""
+def flow_curve(design, flows=None, load: float | None = None) -> FlowCurve:
+    """Solve the plate at each flow [m^3/s] (the default span when None) at one heat load [W].
+
+    ``load`` defaults to the design's; with thermoelectric modules (whose hot-side heat is solved, not given)
+    pass the solved result's ``load``: the curve then holds the plate at the operating point's heat.
+    """
     from .solve import solve_plate
 
     if flows is None:
@@ -92,7 +96,7 @@ def flow_curve(design, flows=None) -> FlowCurve:
     rows, skipped = [], []
     for V in flows:
         try:
-            r = solve_plate(design, flow=V)
+            r = solve_plate(design, flow=V, load=load)
         except DesignError as exc:  # boiling or out of the property data at this flow
             skipped.append((V, exc.problem))
             continue
@@ -102,7 +106,7 @@ def flow_curve(design, flows=None) -> FlowCurve:
         rows.append((V, r.R_th, r.dp, r.T_face_max, r.T_out, r.water_use_m3_per_year))
     if not rows:
         raise DesignError("flows", "no flow in the range gives a liquid coolant: " + skipped[0][1])
-    here = solve_plate(design)
+    here = solve_plate(design, load=load)
     cols = list(zip(*rows))
     return FlowCurve(V_dot=tuple(cols[0]), R_th=tuple(cols[1]), dp=tuple(cols[2]), T_face=tuple(cols[3]),
                      T_out=tuple(cols[4]), water_m3_per_year=tuple(cols[5]), load=here.load,

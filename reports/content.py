@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import dataclasses
 import hashlib
+import math
 from dataclasses import dataclass, field
 
 from .display_units import DisplayUnits, annotate, format_number
@@ -103,8 +104,10 @@ def job_line(r, u: DisplayUnits) -> str:
 
 def _inputs(r, u: DisplayUnits) -> Section:
     d = r.design
+    load = (Row("heat load", u.fmt("power", d.heat.load), u.label("power")) if math.isfinite(d.heat.load)
+            else Row("heat load", "the modules' hot-side heat, solved", ""))
     rows = [
-        Row("heat load", u.fmt("power", d.heat.load), u.label("power")),
+        load,
         Row("footprint (along × across the flow)",
             f"{u.fmt('length', d.heat.footprint_length)} × {u.fmt('length', d.heat.footprint_width)}",
             u.label("length")),
@@ -129,6 +132,7 @@ def _inputs(r, u: DisplayUnits) -> Section:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", u.fmt("length", v, 3), u.label("length")))
         else:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", str(v), ""))
+    rows += _module_inputs(getattr(d, "module", None), u)
     rows += [
         Row("coolant", d.coolant.label(), ""),
         Row("inlet temperature", u.fmt("temperature", d.inlet_temperature), u.label("temperature")),
@@ -147,6 +151,23 @@ def _inputs(r, u: DisplayUnits) -> Section:
         Row("segments along the flow", str(d.model.segments), ""),
     ]
     return Section("inputs", "Inputs", rows=tuple(rows))
+
+
+def _module_inputs(m, u: DisplayUnits) -> list[Row]:
+    """The [module] table as read (field names of coldplate.module_design.Module)."""
+    if m is None:
+        return []
+    rows = [Row("modules", annotate(m.described_as, u), ""),
+            Row("module count / wiring", f"{m.count} / {m.wiring}", ""),
+            Row("cold-side load (array)", u.fmt("power", m.cold_load), u.label("power"))]
+    if m.current is not None:
+        rows.append(Row("drive current per module", format_number(m.current), "A"))
+    if m.cold_face_target is not None:
+        rows.append(Row("target cold face", u.fmt("temperature", m.cold_face_target), u.label("temperature")))
+    rows += [Row("cold-side resistance (stage)", u.fmt("thermal_resistance", m.cold_side_resistance),
+                 u.label("thermal_resistance")),
+             Row("hot-face limit", u.fmt("temperature", m.hot_side_limit), u.label("temperature"))]
+    return rows
 
 
 def _headline(r, u: DisplayUnits) -> tuple[Row, ...]:
@@ -224,25 +245,38 @@ def _methods(r) -> Section:
 
 
 def _module(m, u: DisplayUnits, figures) -> Section:
-    rows = (
+    def num(x, unit_note=""):
+        return format_number(x) if math.isfinite(x) else "not defined" + unit_note
+
+    rows = [
         Row("modules / wiring", f"{m.count} / {m.wiring}", ""),
-        Row("current per module", format_number(m.current), "A"),
-        Row("voltage per module", format_number(m.voltage), "V"),
-        Row("power supply must deliver", f"{format_number(m.array_current)} A at {format_number(m.array_voltage)}",
-            "V"),
+        Row("current per module", num(m.current), "A"),
+        Row("voltage per module", num(m.voltage), "V"),
+        Row("power supply must deliver", f"{num(m.array_current)} A at {num(m.array_voltage)}", "V"),
         Row("cold face / hot face", f"{u.fmt('temperature', m.T_cold)} / {u.fmt('temperature', m.T_hot)}",
             u.label("temperature")),
         Row("heat pumped (cold side, array)", u.fmt("power", m.Q_cold), u.label("power")),
         Row("heat into the plate (hot side, array)", u.fmt("power", m.Q_hot), u.label("power")),
         Row("electrical power (array)", u.fmt("power", m.power), u.label("power")),
-        Row("coefficient of performance", format_number(m.cop), "-"),
-        Row("coldest current / best-COP current", f"{format_number(m.coldest_current)} / "
-                                                  f"{format_number(m.best_cop_current)}", "A per module"),
+        Row("coefficient of performance", num(m.cop, " (no power drawn)"), "-"),
+        Row("coldest current / best-COP current", f"{num(m.coldest_current)} / {num(m.best_cop_current)}",
+            "A per module"),
         Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature")),
         Row("dew margin (cold face − room dew/frost point)", u.fmt("temperature_difference", m.dew_margin),
             u.label("temperature_difference")),
-    )
-    return Section("module", "Thermoelectric module", rows=rows, figures=figures)
+    ]
+    paras = []
+    T_coldest = getattr(m, "T_cold_coldest", 0.0)
+    if T_coldest:
+        rows.insert(10, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
+                            u.label("temperature")))
+    limit = getattr(m, "hot_side_limit", 0.0)
+    if limit:
+        rows.insert(5, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature")))
+    for note in (getattr(m, "shortfall", ""), getattr(m.sweep, "stopped", "")):
+        if note:
+            paras.append(annotate(note[0].upper() + note[1:], u))
+    return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
 
 
 def _circuit(c, u: DisplayUnits, figures) -> Section:
