@@ -211,10 +211,11 @@ def _breakdown(r, u: DisplayUnits, figures) -> Section:
                     "the parts add up to the total.",), rows=tuple(rows), figures=figures)
 
 
-def _flow(curve, fit, u: DisplayUnits, figures) -> Section:
+def _flow(curve, fit, u: DisplayUnits, figures, module: bool = False) -> Section:
+    load = (f"the operating point's plate load of {u.text('power', curve.load)} (the modules' hot-side heat, "
+            "held fixed)" if module else f"the design load of {u.text('power', curve.load)}")
     paras = [f"The plate solved at {len(curve.V_dot)} flows from {u.text('flow', min(curve.V_dot), 3)} to "
-             f"{u.text('flow', max(curve.V_dot), 3)} at the design load of {u.text('power', curve.load)}; "
-             "the design point is marked.",
+             f"{u.text('flow', max(curve.V_dot), 3)} at {load}; the design point is marked.",
              "Compact form for system models (SI: V̇ in m³/s, Δp in Pa, R in K/W; the command "
              "'coldplate curves' exports the points and this fit as CSV or JSON): "
              f"Δp = {fit.a:.5g}·V̇ + {fit.b:.5g}·V̇², largest error {100 * fit.dp_max_error:.1f} %; "
@@ -331,7 +332,8 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
                 ("Mounting face within the footprint (plate top plus the interface's rise), plate top face and "
                  "water along the centre line; the hottest point of the mounting face is marked.",),
                 figures=fig("profile", "Temperatures along the flow path.")),
-        _flow(curve, fit, u, fig("flow", "Thermal resistance and pressure drop against flow; design point marked.")),
+        _flow(curve, fit, u, fig("flow", "Thermal resistance and pressure drop against flow; design point marked."),
+              getattr(r, "module", None) is not None),
     ]
     module = getattr(r, "module", None)
     if module is not None:

@@ -166,7 +166,7 @@ def water_use(T_face, m3_per_year, design_T, design_use, u: DisplayUnits) -> Fig
 def module_sweep(module, u: DisplayUnits) -> Figure:
     """Thermoelectric current sweep: face temperatures and COP against current; coldest and operating marked."""
     s = module.sweep
-    fig, (ax1, ax2) = _figure(3.2, ncols=2)
+    fig, (ax1, ax2) = _figure(3.8, ncols=2)
     ax1.plot(s.current, u.value("temperature", s.T_cold), color=BLUE, label="cold face")
     ax1.plot(s.current, u.value("temperature", s.T_hot), color=VERMILION, linestyle="--", label="hot face")
     ax1.axvline(module.coldest_current, color=BLACK, linestyle=":", linewidth=1.0)
@@ -182,8 +182,12 @@ def module_sweep(module, u: DisplayUnits) -> Figure:
     ax1.set_xlabel("current per module [A]")
     ax1.set_ylabel(f"temperature [{u.label('temperature')}]")
     ax1.set_title("Module faces against current", loc="left")
-    ax1.legend(fontsize=8, loc="best")
+    ax1.legend(fontsize=8, loc="upper center", bbox_to_anchor=(0.5, -0.2), ncol=2)
     ax2.plot(s.current, s.cop, color=GREEN, label="COP")
+    cops = np.asarray(s.cop, dtype=float)
+    cops = cops[np.isfinite(cops)]
+    if cops.size and np.isfinite(module.cop):  # COP soars as the current goes to zero: show the useful part
+        ax2.set_ylim(0.0, min(float(cops.max()) * 1.05, max(3.0, 4.0 * module.cop)))
     ax2.axvline(module.best_cop_current, color=GREEN, linestyle=":", linewidth=1.0)
     ax2.set_xlabel("current per module [A]")
     ax2.set_ylabel("coefficient of performance [-]")
@@ -193,7 +197,8 @@ def module_sweep(module, u: DisplayUnits) -> Figure:
     ax2b.grid(False)
     ax2.set_title("COP and power against current", loc="left")
     lines = ax2.get_lines()[:1] + ax2b.get_lines()
-    ax2.legend(lines, [ln.get_label() for ln in lines], fontsize=8, loc="upper center")
+    ax2.legend(lines, [ln.get_label() for ln in lines], fontsize=8, loc="upper center", bbox_to_anchor=(0.5, -0.2),
+               ncol=2)
     return fig
 
 
