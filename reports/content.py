@@ -251,29 +251,30 @@ def _module(m, u: DisplayUnits, figures) -> Section:
 
     rows = [
         Row("modules / wiring", f"{m.count} / {m.wiring}", ""),
-        Row("current per module", num(m.current), "A"),
-        Row("voltage per module", num(m.voltage), "V"),
+        Row("current per module", num(m.current), "A", "module_current_A"),
+        Row("voltage per module", num(m.voltage), "V", "module_voltage_V"),
         Row("power supply must deliver", f"{num(m.array_current)} A at {num(m.array_voltage)}", "V"),
-        Row("cold face / hot face", f"{u.fmt('temperature', m.T_cold)} / {u.fmt('temperature', m.T_hot)}",
-            u.label("temperature")),
-        Row("heat pumped (cold side, array)", u.fmt("power", m.Q_cold), u.label("power")),
-        Row("heat into the plate (hot side, array)", u.fmt("power", m.Q_hot), u.label("power")),
-        Row("electrical power (array)", u.fmt("power", m.power), u.label("power")),
-        Row("coefficient of performance", num(m.cop, " (no power drawn)"), "-"),
-        Row("coldest current / best-COP current", f"{num(m.coldest_current)} / {num(m.best_cop_current)}",
-            "A per module"),
-        Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature")),
+        Row("cold face", u.fmt("temperature", m.T_cold), u.label("temperature"), "cold_face_temperature_C"),
+        Row("hot face", u.fmt("temperature", m.T_hot), u.label("temperature"), "hot_face_temperature_C"),
+        Row("heat pumped (cold side, array)", u.fmt("power", m.Q_cold), u.label("power"), "module.cold_load_W"),
+        Row("heat into the plate (hot side, array)", u.fmt("power", m.Q_hot), u.label("power"), "heat_into_plate_W"),
+        Row("electrical power (array)", u.fmt("power", m.power), u.label("power"), "electrical_power_W"),
+        Row("coefficient of performance", num(m.cop, " (no power drawn)"), "-", "cop"),
+        Row("coldest current", num(m.coldest_current), "A per module", "coldest_current_A"),
+        Row("best-COP current", num(m.best_cop_current), "A per module", "module.best_cop_current_A"),
+        Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature"), "module.dew_point_C"),
         Row("dew margin (cold face − room dew/frost point)", u.fmt("temperature_difference", m.dew_margin),
-            u.label("temperature_difference")),
+            u.label("temperature_difference"), "module.dew_margin_K"),
     ]
     paras = []
     T_coldest = getattr(m, "T_cold_coldest", 0.0)
     if T_coldest:
-        rows.insert(10, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
-                            u.label("temperature")))
+        rows.insert(11, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
+                            u.label("temperature"), "module.coldest_cold_face_temperature_C"))
     limit = getattr(m, "hot_side_limit", 0.0)
     if limit:
-        rows.insert(5, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature")))
+        rows.insert(6, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature"),
+                           "module.hot_side_limit_C"))
     for note in (getattr(m, "shortfall", ""), getattr(m.sweep, "stopped", "")):
         if note:
             paras.append(annotate(note[0].upper() + note[1:], u))
