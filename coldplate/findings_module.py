@@ -27,12 +27,13 @@ def past_coldest(r):
         return
     if m.current > m.coldest_current + PAST_COLDEST_CURRENT * m.max_current and \
             m.T_cold > m.T_cold_coldest + PAST_COLDEST_K:
+        same = (f"the same cold face needs just {m.best_cop_current:.3g} A" if m.best_cop_current > 0 else
+                "with no current at all the cold face would be colder than this")
         yield Finding(
             "module-past-coldest-current", "warning",
             f"At {m.current:.3g} A per module the cold face sits at {_c(m.T_cold)}, but this plate and flow give "
             f"the coldest cold face, {_c(m.T_cold_coldest)}, at {m.coldest_current:.3g} A: past that point more "
-            f"current only heats the hot side faster than it pumps (the same cold face needs just "
-            f"{m.best_cop_current:.3g} A).",
+            f"current only heats the hot side faster than it pumps ({same}).",
             f"Run at or below {m.coldest_current:.3g} A per module, or lower the plate's resistance (more flow, "
             "colder water, a better plate or interface) to move the turning point up.")
 

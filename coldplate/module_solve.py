@@ -322,7 +322,9 @@ def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:
     dT = 150.0
     if coldest(T_water=T_in - dT) <= target:
         d = _bisect(lambda d: coldest(T_water=T_in - d) - target, 0.0, dT)
-        ways.append(f"inlet water at or below {_c(T_in - d)} (now {_c(T_in)}; mind the freezing point)")
+        T_need = T_in - d
+        if T_need > design.coolant.freezing_point():
+            ways.append(f"inlet water at or below {_c(T_need)} (now {_c(T_in)})")
     for n in range(N + 1, 4 * N + 5):
         if coldest(count=n) <= target:
             ways.append(f"{n} modules of this kind sharing the load")
