@@ -33,6 +33,15 @@ MAX_ITERATIONS = 40
 _GOLDEN = (math.sqrt(5.0) - 1.0) / 2.0
 
 
+ASSUMPTIONS = (
+    "thermoelectric modules: the standard model with constant S, R and K (from the datasheet maxima at their "
+    "rated hot-side temperature, Luo 2008, when given so); Thomson heat, contact resistances inside the module "
+    "and heat leaking around the modules are left out",
+    "the modules' hot faces sit on the plate's heated footprint and take its hottest mounting-face temperature; "
+    "all modules run at the same faces and current",
+)
+
+
 class _Runaway(Exception):
     def __init__(self, slope: float):
         super().__init__(slope)
@@ -208,6 +217,8 @@ def _sweep(design, line: PlateLine):
                 stopped = f"the water would boil above {rows[-1][0]:.3g} A per module" if rows else "water boils"
                 break
         loads = [r[3] for r in rows if r[3] > 0]
+        if not loads:
+            return rows, stopped
         wanted = [Q for Q in (min(loads), max(loads), 0.5 * (min(loads) + max(loads))) if not line.covers(Q)]
         if not wanted:
             return rows, stopped
@@ -297,7 +308,7 @@ def solve_with_module(design, plate_solver):
         max_current=m.max_current, hot_side_limit=m.hot_side_limit, R_plate=pr.R_th, runaway_slope=slope,
         max_heat_model=te.datasheet_max_heat(m.S, m.R, m.max_current, T_rated),
         parameters=(m.S, m.R, m.K), iterations=solves)
-    return replace(pr, module=mr)
+    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS)
 
 
 def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:
