@@ -71,6 +71,7 @@ def module_text(m) -> list[str]:
         ("heat into the plate", f"{m.Q_hot:.4g}", "W"),
         ("COP", cop, "-"),
         ("coldest current", f"{m.coldest_current:.3f}", f"A per module  (cold face {_c(m.T_cold_coldest):.2f} degC)"),
+        ("best-COP current", f"{m.best_cop_current:.3f}", "A per module  (least current reaching this cold face)"),
         ("cold face - room dew/frost point", f"{m.dew_margin:+.1f}", "K"),
     ]
     wq = max(len(q) for q, _, _ in rows)

@@ -11,15 +11,17 @@ Sources, named beside each check:
 """
 from __future__ import annotations
 
+import math
 import re
-from dataclasses import replace
 from types import SimpleNamespace
 
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from coldplate.cli import main
 from coldplate.design import design_from_dict
-from coldplate.errors import SolveError
+from coldplate.errors import DesignError, SolveError
 from coldplate.module_solve import couple
 from coldplate.solve import solve, solve_plate
 from reports.jsonout import render_json
@@ -293,3 +295,45 @@ def test_bad_module_input_exit_2(tmp_path, capsys, name, changes, needle):
     assert captured.out == ""
     lines = captured.err.strip().splitlines()
     assert len(lines) == 1 and needle in lines[0], captured.err
+
+
+MODULE_FIELDS = {
+    "module__current": st.floats(0, 6).map(lambda v: f"{v:.4g} A"),
+    "module__cold_load": st.floats(0, 200).map(lambda v: f"{v:.4g} W"),
+    "module__count": st.integers(1, 8),
+    "module__max_temperature_difference": st.floats(20, 90).map(lambda v: f"{v:.3g} K"),
+    "module__rated_hot_side": st.floats(0, 80).map(lambda v: f"{v:.3g} degC"),
+    "module__cold_side_resistance": st.floats(0, 2).map(lambda v: f"{v:.3g} K/W"),
+    "coolant__flow": st.floats(0.02, 10).map(lambda v: f"{v:.4g} L/min"),
+    "coolant__inlet_temperature": st.floats(2, 60).map(lambda v: f"{v:.3g} degC"),
+    "interface__thickness": st.floats(0.01, 2).map(lambda v: f"{v:.3g} mm"),
+    "room__relative_humidity": st.floats(1, 100).map(lambda v: f"{v:.3g} %"),
+}
+
+
+@st.composite
+def module_designs(draw):
+    chosen = draw(st.lists(st.sampled_from(sorted(MODULE_FIELDS)), min_size=1, max_size=5, unique=True))
+    changes = {k: draw(MODULE_FIELDS[k]) for k in chosen}
+    if draw(st.booleans()):
+        changes["module__current"] = None
+        changes["module__cold_face_temperature"] = f"{draw(st.floats(-40, 30)):.3g} degC"
+    return modified(BASE, **changes)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(module_designs())
+def test_any_module_design_solves_or_says_why(data):
+    """Property-based (common practice): finite numbers that balance, or a one-line error with a reason."""
+    try:
+        r = solve(design_from_dict(data))
+    except (DesignError, SolveError) as exc:
+        assert str(exc) and "\n" not in str(exc)
+        return
+    m = r.module
+    numbers = [m.T_cold, m.T_hot, m.Q_hot, m.power, m.voltage, m.coldest_current, m.best_cop_current, r.R_th]
+    assert all(math.isfinite(v) for v in numbers)
+    assert m.Q_hot - m.Q_cold == pytest.approx(m.power, rel=1e-6, abs=1e-9)
+    assert 0 <= m.best_cop_current <= m.max_current and 0 <= m.coldest_current <= m.max_current
+    assert m.T_cold_coldest <= min(m.sweep.T_cold) + 1e-6
+    assert r.T_face_max == pytest.approx(m.T_hot, abs=1e-5)
