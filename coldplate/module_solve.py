@@ -25,6 +25,7 @@ import numpy as np
 
 from . import thermoelectric as te
 from .errors import DesignError, SolveError
+from .result import MethodUse
 from .thermoelectric_result import ModuleResult, ModuleSweep
 
 SWEEP_POINTS = 31  #: currents from 0 to I_max in the sweep
@@ -308,7 +309,13 @@ def solve_with_module(design, plate_solver):
         max_current=m.max_current, hot_side_limit=m.hot_side_limit, R_plate=pr.R_th, runaway_slope=slope,
         max_heat_model=te.datasheet_max_heat(m.S, m.R, m.max_current, T_rated),
         parameters=(m.S, m.R, m.K), iterations=solves)
-    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS)
+    uses = [(te.cold_side_heat.validity, {"I/I_max": I_op / m.max_current})]
+    if m.rated_hot_side is not None:
+        uses.append((te.luo_parameters.validity, {"dT_max/T_h": m.max_temperature_difference / m.rated_hot_side}))
+    methods = tuple(MethodUse(role="thermoelectric module", method=v.method, reference=v.reference,
+                              validity=v.describe(), values=tuple(values.items()), outside=v.violations(**values))
+                    for v, values in uses)
+    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS, methods=pr.methods + methods)
 
 
 def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:

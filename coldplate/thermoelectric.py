@@ -23,7 +23,22 @@ import math
 
 import numpy as np
 
+from hydraulics.validity import Bound, Validity, with_validity
 
+LUO_2008 = Validity(
+    method="Luo (module parameters from datasheet maxima)",
+    reference="J. Luo, Method to estimate thermoelectric module parameters, Electronics Cooling, 2008",
+    bounds=(Bound("dT_max/T_h", 0.0, 1.0, "both ends excluded: the cold side stays above absolute zero"),),
+)
+STANDARD_MODEL = Validity(
+    method="standard thermoelectric module model",
+    reference="A. F. Ioffe, Semiconductor Thermoelements and Thermoelectric Cooling, 1957; "
+              "D. M. Rowe (ed.), CRC Handbook of Thermoelectrics, 1995",
+    bounds=(Bound("I/I_max", 0.0, 1.0, "within the datasheet's rating"),),
+)
+
+
+@with_validity(LUO_2008)
 def luo_parameters(I_max: float, V_max: float, dT_max: float, T_hot: float) -> tuple[float, float, float]:
     """Module parameters ``(S, R, K)`` from datasheet maxima at the rated hot-side temperature (Luo 2008).
 
@@ -49,6 +64,7 @@ def figure_of_merit(S, R, K):
     return S * S / (R * K)
 
 
+@with_validity(STANDARD_MODEL)
 def cold_side_heat(S, R, K, I, T_c, T_h):
     """Heat pumped from the cold face Q_c = S I T_c - I^2 R / 2 - K (T_h - T_c) [W] (Ioffe 1957)."""
     return S * I * T_c - 0.5 * I * I * R - K * (T_h - T_c)
