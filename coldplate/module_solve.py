@@ -239,8 +239,11 @@ def solve_with_module(design, plate_solver):
     N, q, T_in = m.count, m.cold_load / m.count, design.inlet_temperature
     line = PlateLine(design, plate_solver)
     seed = N * (q + 0.5 * m.max_current**2 * m.R + m.S * m.max_current * T_in) * 0.5
-    if line.solve(max(seed, 1e-3)) is None:
-        raise SolveError(f"the water would boil at {seed:.4g} W from the modules: raise the flow")
+    for load in (seed, 0.1 * seed, max(N * q, 1e-3)):  # a first plate solve; a smaller load if the water boils
+        if line.solve(max(load, 1e-3)) is not None:
+            break
+    else:
+        raise SolveError(f"the water would boil with {max(N * q, 1e-3):.4g} W from the modules: raise the flow")
     rows, stopped = _sweep(design, line)
     I_s = [r[0] for r in rows]
     T_c_s = [r[2] for r in rows]
