@@ -17,6 +17,7 @@ from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantSta
 from . import materials
 from .errors import DesignError, StateError
 from .fields import Table
+from .module_design import Module, read_module
 from .units import parse_value
 
 # ---------------------------------------------------------------- dataclasses
@@ -127,6 +128,7 @@ class Design:
     supply: Supply
     room: Room
     model: Model
+    module: Module | None = None  #: thermoelectric modules on the plate, from [module]
 
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
@@ -167,12 +169,13 @@ def parse_design(text: str) -> Design:
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
+_OPTIONAL_TOP = ("module",)
 
 
 def design_from_dict(data: dict) -> Design:
-    unknown = sorted(set(data) - set(_TOP))
+    unknown = sorted(set(data) - set(_TOP) - set(_OPTIONAL_TOP))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP)})")
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP + _OPTIONAL_TOP)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
@@ -181,14 +184,16 @@ def design_from_dict(data: dict) -> Design:
             raise DesignError(f"[{name}]", "table is missing")
 
     plate = _plate(Table(data["plate"], "plate"))
-    heat = _heat(Table(data["heat"], "heat"), plate)
+    module = read_module(data["module"]) if "module" in data else None
+    heat = _heat(Table(data["heat"], "heat"), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface"))
     passage = _passage(Table(data["passage"], "passage"), plate)
     supply = _supply(Table(data["supply"], "supply"))
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
     room = _room(Table(data["room"], "room"))
     model = _model(Table(data.get("correlations", {}), "correlations"))
-    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model)
+    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
+                  module=module)
 
 
 def _plate(t: Table) -> Plate:
@@ -210,8 +215,12 @@ def _plate(t: Table) -> Plate:
     return Plate(key, k, length, width, base, rating)
 
 
-def _heat(t: Table, plate: Plate) -> Heat:
-    load = t.value("load", "power", low=0, high=1e5)
+def _heat(t: Table, plate: Plate, module: bool = False) -> Heat:
+    if module and t.has("load"):
+        raise DesignError(t.field("load"), "remove it: with a [module] table the plate's load is the modules' "
+                                           "hot-side heat, and the cold-side load is [module] cold_load")
+    # With modules the plate's load is solved, not given: NaN here, the solve passes the real load.
+    load = math.nan if module else t.value("load", "power", low=0, high=1e5)
     fp = t.raw("footprint")
     if not isinstance(fp, list) or len(fp) != 2:
         raise DesignError(t.field("footprint"), "must be an array of two lengths, along the flow and across, e.g. [\"40 mm\", \"40 mm\"]")

@@ -262,3 +262,7 @@ def cavity_distribution(r):
 
 RULES = (condensation, freezing, boiling, cross_connection, discharge, velocity, pressure, metals, electrical,
          ranges, cavity_distribution)
+
+from .findings_module import MODULE_RULES  # noqa: E402  (thermoelectric modules; reads DEFER from here)
+
+RULES += MODULE_RULES

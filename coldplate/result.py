@@ -8,6 +8,7 @@ from hydraulics.losses import MinorLoss
 
 from .design import Design
 from .passages.base import Geometry
+from .thermoelectric_result import ModuleResult
 
 SEVERITIES = ("danger", "warning", "caution", "note")  #: most severe first
 
@@ -85,3 +86,4 @@ class Result:
     assumptions: tuple[str, ...]
     load: float  #: heat into the plate [W]
     findings: tuple[Finding, ...] = field(default=())
+    module: ModuleResult | None = None  #: thermoelectric modules solved with the plate (from [module])

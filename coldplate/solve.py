@@ -50,7 +50,11 @@ def check_file(path) -> Result:
 
 def solve(design: Design) -> Result:
     """Solve the design check for one design: the plate at the design's flow and load, then the findings."""
-    result = solve_plate(design)
+    if design.module is not None:  # thermoelectric modules: the plate's load is their hot-side heat
+        from .module_solve import solve_with_module
+        result = solve_with_module(design, solve_plate)
+    else:
+        result = solve_plate(design)
     return replace(result, findings=collect_findings(result))
 
 
