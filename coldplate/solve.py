@@ -26,7 +26,7 @@ from dataclasses import replace
 import numpy as np
 
 from hydraulics.coolant import StateError as _CoolantStateError
-from hydraulics.coolant import enthalpy
+from hydraulics.coolant import SATURATION_MARGIN_K, enthalpy
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
@@ -185,7 +185,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
 
 def _check_outlet(T_out, T_boil, coolant, p):
     """The outlet must stay liquid and within the property data; otherwise the flow is too small."""
-    if not math.isfinite(T_out) or T_out >= T_boil:
+    if not math.isfinite(T_out) or T_out >= T_boil - SATURATION_MARGIN_K:
         raise DesignError("[coolant] flow", f"is too small for the load: the coolant would reach boiling "
                                             f"({T_boil - 273.15:.1f} degC at {p / 1e3:.0f} kPa absolute) before the outlet")
     try:
