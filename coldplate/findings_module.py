@@ -38,6 +38,14 @@ def past_coldest(r):
             "colder water, a better plate or interface) to move the turning point up.")
 
 
+def target_unreachable(r):
+    m = r.module
+    if m is not None and m.shortfall:
+        yield Finding("module-target-unreachable", "warning", m.shortfall,
+                      "Change what the message says would reach the target, or accept the coldest cold face "
+                      "shown; never run above the coldest current, which only warms the cold face.")
+
+
 def hot_face_limit(r):
     m = r.module
     if m is not None and m.T_hot > m.hot_side_limit:
@@ -107,5 +115,5 @@ def datasheet_consistency(r):
             "Treat the results as estimates; measured S, R and K at the working temperature would be closer.")
 
 
-MODULE_RULES = (past_coldest, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
+MODULE_RULES = (past_coldest, target_unreachable, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
                 datasheet_consistency)

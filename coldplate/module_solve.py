@@ -259,21 +259,24 @@ def solve_with_module(design, plate_solver):
     if T_c_s[k] < T_coldest:
         I_coldest, T_coldest = I_s[k], T_c_s[k]
 
+    shortfall = ""
     if m.current is not None:
         mode, I_op = "current", m.current
         if stopped and I_op > I_s[-1]:
             raise SolveError(f"at {I_op:g} A per module: {stopped}")
     else:
         mode, target = "target", m.cold_face_target
-        if target < T_coldest - 1e-6:
-            raise SolveError(_unreachable(design, target, I_coldest, T_coldest, line))
-        if target > T_c_s[0]:
+        if target < T_coldest - 1e-6:  # out of reach: run at the coldest current and say what would reach it
+            shortfall = _unreachable(design, target, I_coldest, T_coldest, line)
+            I_op = I_coldest
+        elif target > T_c_s[0]:
             raise SolveError(f"the target cold face {_c(target)} is warmer than the cold face with no current "
                              f"({_c(T_c_s[0])}): the modules would have to heat; lower the target")
-        I_op = _bisect(lambda I: cold(I) - target, 0.0, I_coldest)
+        else:
+            I_op = _bisect(lambda I: cold(I) - target, 0.0, I_coldest)
 
     T_h, T_c, Q_h, pr, solves, slope = couple(design, I_op, plate_solver)
-    if mode == "target":  # secant on the full coupled solve, from the plate line's current
+    if mode == "target" and not shortfall:  # secant on the full coupled solve, from the plate line's current
         I_prev, f_prev = I_op, T_c - target
         step = 1e-3 * m.max_current
         for _ in range(8):
@@ -311,7 +314,7 @@ def solve_with_module(design, plate_solver):
         mode=mode, T_load=T_c + m.cold_load * m.cold_side_resistance, T_cold_coldest=T_coldest,
         max_current=m.max_current, hot_side_limit=m.hot_side_limit, R_plate=pr.R_th, runaway_slope=slope,
         max_heat_model=te.datasheet_max_heat(m.S, m.R, m.max_current, T_rated),
-        parameters=(m.S, m.R, m.K), iterations=solves)
+        parameters=(m.S, m.R, m.K), iterations=solves, shortfall=shortfall)
     uses = [(te.cold_side_heat.validity, {"I/I_max": I_op / m.max_current})]
     if m.rated_hot_side is not None:
         uses.append((te.luo_parameters.validity, {"dT_max/T_h": m.max_temperature_difference / m.rated_hot_side}))
@@ -351,6 +354,6 @@ def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:
             ways.append(f"{n} modules of this kind sharing the load")
             break
     ways.append("a module with a larger dT_max or I_max")
-    return (f"the target cold face {_c(target)} is not reachable at any current up to I_max "
-            f"({m.max_current:g} A): the coldest is {_c(T_min)} at {I_c:.3g} A per module. "
-            f"It would be reached with {'; or '.join(ways)}")
+    return (f"The target cold face {_c(target)} is not reachable at any current up to I_max "
+            f"({m.max_current:g} A): the coldest is {_c(T_min)} at {I_c:.3g} A per module, where the results "
+            f"are given. It would be reached with {'; or '.join(ways)}.")

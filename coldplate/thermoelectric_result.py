@@ -49,3 +49,4 @@ class ModuleResult:
     max_heat_model: float = 0.0  #: the model's Q_max (I_max, no temperature difference, rated hot side) [W]
     parameters: tuple[float, float, float] = (0.0, 0.0, 0.0)  #: (S [V/K], R [ohm], K [W/K]) of one module
     iterations: int = 0  #: plate solves of the coupled operating point
+    shortfall: str = ""  #: when a target cold face is out of reach: why, and what would reach it (else empty)
