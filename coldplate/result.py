@@ -8,6 +8,7 @@ from hydraulics.losses import MinorLoss
 
 from .design import Design
 from .passages.base import Geometry
+from .supply_result import CircuitResult, PlanningResult
 
 SEVERITIES = ("danger", "warning", "caution", "note")  #: most severe first
 
@@ -85,3 +86,5 @@ class Result:
     assumptions: tuple[str, ...]
     load: float  #: heat into the plate [W]
     findings: tuple[Finding, ...] = field(default=())
+    circuit: CircuitResult | None = None  #: the operating point in its circuit ([circuit])
+    planning: PlanningResult | None = None  #: least flow, water and money per year (once-through)

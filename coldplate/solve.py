@@ -49,8 +49,15 @@ def check_file(path) -> Result:
 
 
 def solve(design: Design) -> Result:
-    """Solve the design check for one design: the plate at the design's flow and load, then the findings."""
-    result = solve_plate(design)
+    """Solve the design check for one design: the plate at the design's flow and load, then the findings.
+
+    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
+    get the water planning (coldplate/supply_stage.py).
+    """
+    from .supply_stage import supply_stage  # imports scipy only when a circuit or planning is asked for
+
+    flow, attach = supply_stage(design)
+    result = attach(solve_plate(design, flow))
     return replace(result, findings=collect_findings(result))
 
 

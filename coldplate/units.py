@@ -53,6 +53,8 @@ KINDS = {
     "fraction": "[]",
     "time": "[time]",
     "velocity": "[length] / [time]",
+    "volume": "[length] ** 3",
+    "energy": "[energy]",
 }
 
 _SI_UNIT = {
@@ -67,6 +69,8 @@ _SI_UNIT = {
     "fraction": "dimensionless",
     "time": "s",
     "velocity": "m/s",
+    "volume": "m**3",
+    "energy": "J",
 }
 
 _EXAMPLE = {
@@ -81,6 +85,8 @@ _EXAMPLE = {
     "fraction": "'55 %'",
     "time": "'8 h'",
     "velocity": "'1 m/s'",
+    "volume": "'1 m**3'",
+    "energy": "'1 kWh'",
 }
 
 

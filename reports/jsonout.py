@@ -6,6 +6,8 @@ from __future__ import annotations
 
 import json
 
+from .supply import supply_dict
+
 
 def _c(T: float) -> float:
     return T - 273.15
@@ -54,6 +56,7 @@ def result_to_dict(r, version: str = "") -> dict:
         "assumptions": list(r.assumptions),
         "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
                      for f in r.findings],
+        **supply_dict(r),
     }
 
 

@@ -6,6 +6,8 @@ from __future__ import annotations
 
 import textwrap
 
+from .supply import supply_lines
+
 WIDTH = 92
 
 
@@ -56,6 +58,7 @@ def render_text(r, version: str = "") -> str:
     parts.append(("total", f"{r.R_th:.4f}", "K/W"))
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
+    out += supply_lines(r, _table)
     out.append("Correlations used")
     out.append("-----------------")
     wr = max(len(m.role) for m in r.methods)
