@@ -11,6 +11,7 @@ from hydraulics.circuit import Backflow
 
 from . import materials
 from .circuit_design import BACKFLOW_DEVICES
+from .operating import FLOW_MAX
 from .findings import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, _c
 from .result import Finding
 
@@ -47,6 +48,13 @@ def supply_pressure(r):
             f"{rating / 1e5:.1f} bar.",
             "Move the throttling valve upstream of the plate, fit a pressure-reducing valve, or use a plate rated "
             "for the pressure. " + DEFER)
+    if c.plate_outlet_pressure < 0:
+        yield Finding(
+            "plate-below-atmosphere", "note",
+            f"The drain line falls far enough to siphon: the plate outlet sits {-c.plate_outlet_pressure / 1e3:.1f} kPa "
+            "below atmospheric pressure while water flows, so a loose joint there draws air in rather than "
+            "leaking, and the water boils a little sooner.",
+            "Keep joints after the plate tight; an air release or a vented drain break stops the siphon.")
     p = d.supply.static_pressure
     if c.drive == "flow" and p is not None and c.needed_pressure > p:
         yield Finding(
@@ -136,10 +144,13 @@ def planning(r):
     if p is None:
         return
     if p.binding == "unreachable":
+        limits = [f"discharge at most {_c(p.discharge_limit)}"]
+        if p.face_limit is not None:
+            limits.insert(0, f"mounting face at most {_c(p.face_limit)}")
         yield Finding(
             "limits-unreachable", "warning",
-            f"No flow up to {600:.0f} L/min keeps the mounting face below {_c(p.face_limit)}: the plate's "
-            "conduction and interface alone exceed the limit.",
+            f"No flow up to {FLOW_MAX * 6e4:.0f} L/min meets the limits ({', '.join(limits)}) with water entering at "
+            f"{_c(r.T_in)}: the plate's conduction and interface, or the inlet temperature itself, exceed them.",
             "Improve the interface or the plate, lower the load, or use colder water.")
         return
     if p.face_limit is not None and r.T_face_max > p.face_limit:

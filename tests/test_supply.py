@@ -226,3 +226,17 @@ def test_existing_examples_unchanged():
     for name in ("reagent-block-channels", "laser-mount-tube", "detector-cavity-glycol"):
         r = solve(design_from_dict(example_dict(name)))
         assert r.circuit is None and r.planning is None
+
+
+def test_planning_without_a_circuit_and_unreachable_limits():
+    # A once-through design with a fixed flow and planning keys gets planning without a circuit; a face limit
+    # one kelvin above the inlet cannot be met by any flow (the interface alone needs more).
+    base = example_dict("reagent-block-channels")
+    base["supply"].update(face_limit="40 degC", tariff="2.5 EUR/m**3")
+    r = solve(design_from_dict(copy.deepcopy(base)))
+    assert r.circuit is None and r.planning is not None and r.planning.binding == "mounting face"
+    assert r.planning.cost_per_year == pytest.approx(r.V_dot * 3600 * 8 * 365 * 2.5, rel=1e-12)
+    base["supply"]["face_limit"] = "16 degC"
+    r = solve(design_from_dict(base))
+    assert r.planning.binding == "unreachable" and math.isinf(r.planning.V_dot_min)
+    assert "limits-unreachable" in {f.id for f in r.findings}
