@@ -113,7 +113,7 @@ def cross_connection(r):
         return
     hazard = "high hazard (contamination)" if d.coolant.has_additive else "low hazard (pollution) at least"
     continuous = d.supply.hours_per_day > AVB_MAX_HOURS
-    held = d.circuit is not None and d.circuit.can_hold_pressure()  # a valve or back pressure in the circuit
+    held = d.circuit is not None and d.circuit.outlet_side_held()  # a valve or back pressure in the circuit
     if d.coolant.has_additive:
         device = ("a reduced-pressure principle assembly (ASSE 1013) or an air gap: additives such as glycol "
                   "or inhibitors make this a high hazard, for which a vacuum breaker is not enough")

@@ -102,6 +102,12 @@ def backflow_fit(r):
                 f"The {kind.name} ({kind.standard}) at '{part.name}' does not fit this circuit: {'; '.join(why)}.",
                 "Use a reduced-pressure principle assembly (ASSE 1013) or an air gap for a high hazard, a "
                 "pressure vacuum breaker (ASSE 1020) where the line stays under pressure. " + DEFER)
+        if r.V_dot > part.flow_rated:
+            yield Finding(
+                "backflow-device-size", "caution",
+                f"The {kind.name} at '{part.name}' passes {r.V_dot * 6e4:.3g} L/min, above the {part.flow_rated * 6e4:.3g} "
+                "L/min its loss is given for: its loss rises steeply beyond its size.",
+                "Choose the next size up, or give the device's own loss at this flow. " + DEFER)
         need = {"atmospheric-vacuum-breaker": AVB_ABOVE, "pressure-vacuum-breaker": PVB_ABOVE}.get(part.device)
         downstream = heights[i + 1:]
         if need is not None and downstream:

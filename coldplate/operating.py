@@ -18,6 +18,7 @@ from hydraulics.circuit import (G, Fitting, Fluid, K_fitting, Line, Valve, dp_li
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.pump import PumpError, PumpTable, intersect, pump_curve
 
+from . import materials
 from .errors import DesignError
 from .result import MethodUse
 from .supply_result import CircuitResult, PumpCurve, SystemCurve
@@ -139,7 +140,8 @@ def operate(design) -> CircuitResult:
         drive=d.supply.drive, V_dot=V, supply_pressure=p0 if d.supply.drive != "flow" else None,
         plate_inlet_pressure=inlet, points=points, curve=system_curve(plate, max(2 * V, pump.V_dot[-1] if pump else 0)),
         pump=pump, needed_pressure=need, plate_outlet_pressure=pressures[k], heights=tuple(zip(names, c.heights())),
-        surges=_surges(c, r.m_dot, plate.upstream, down), m_dot=r.m_dot)
+        surges=_surges(c, r.m_dot, plate.upstream, down), m_dot=r.m_dot,
+        plate_rating=d.plate.pressure_rating or materials.pressure_rating(d.passage.kind).value)
 
 
 def system_curve(plate: PlateAt, V_max: float, n: int = CURVE_POINTS) -> SystemCurve:

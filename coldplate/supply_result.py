@@ -41,6 +41,7 @@ class CircuitResult:
     heights: tuple[tuple[str, float], ...]  #: (part, height after it above the supply point [m])
     surges: tuple[tuple[str, float], ...]  #: (fast-closing valve, Joukowsky pressure rise [Pa])
     m_dot: float  #: [kg/s]
+    plate_rating: float  #: the plate's stated or usual pressure rating, gauge [Pa]
 
 
 @dataclass(frozen=True)

@@ -210,6 +210,11 @@ class Circuit:
         return self.back_pressure > 0 or any(
             isinstance(p, Valve) or (isinstance(p, Fitting) and p.fitting in closing) for p in rest)
 
+    def outlet_side_held(self) -> bool:
+        """:meth:`can_hold_pressure` after the first backflow device, or after the supply when none is listed."""
+        first = next((i for i, p in enumerate(self.parts) if isinstance(p, Backflow)), -1)
+        return self.can_hold_pressure(first)
+
     def heights(self) -> tuple[float, ...]:
         """Height of the water after each part, relative to the supply point [m]."""
         z, out = 0.0, []

@@ -25,6 +25,7 @@ def supply_dict(r) -> dict:
                 "needed_supply_pressure_Pa": c.needed_pressure,
                 "plate_inlet_pressure_Pa": c.plate_inlet_pressure,
                 "plate_outlet_pressure_Pa": c.plate_outlet_pressure,
+                "plate_pressure_rating_Pa": c.plate_rating,
                 "pressures_Pa": [{"after": name, "pressure_Pa": value} for name, value in c.points],
                 "heights_m": [{"after": name, "height_m": value} for name, value in c.heights],
                 "surges_Pa": [{"valve": name, "surge_Pa": value} for name, value in c.surges],
@@ -77,7 +78,7 @@ def supply_lines(r, table) -> list[str]:
             rows.append(("supply pressure used", f"{c.supply_pressure / 1e5:.3f}", "bar (gauge)"))
         rows.append(("pressure the circuit needs", f"{c.needed_pressure / 1e5:.3f}", "bar (gauge) at the supply"))
         rows.append(("plate inlet / outlet", f"{c.plate_inlet_pressure / 1e5:.3f} / {c.plate_outlet_pressure / 1e5:.3f}",
-                     "bar (gauge) while flowing"))
+                     f"bar (gauge) while flowing; plate rated {c.plate_rating / 1e5:.2f} bar"))
         out += table(rows, "Supply circuit")
         out.append("")
         out += table([(name, f"{value / 1e5:.3f}", "bar") for name, value in c.points],

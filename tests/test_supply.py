@@ -15,6 +15,7 @@ from iapws import IAPWS97
 
 from coldplate.cli import main
 from coldplate.design import design_from_dict
+from coldplate.operating import PlateAt
 from coldplate.solve import solve, solve_plate
 from hydraulics.circuit import G
 
@@ -240,3 +241,23 @@ def test_planning_without_a_circuit_and_unreachable_limits():
     r = solve(design_from_dict(base))
     assert r.planning.binding == "unreachable" and math.isinf(r.planning.V_dot_min)
     assert "limits-unreachable" in {f.id for f in r.findings}
+
+
+@pytest.mark.parametrize("bar", [1.0, 2.0, 5.0])
+def test_operating_flow_rises_with_tap_pressure_and_uses_all_of_it(bar):
+    # Source: definition (the circuit uses exactly the static pressure) and monotonicity of a system curve.
+    r = solve(design_from_dict(_with(static_pressure=f"{bar} bar")))
+    assert r.circuit.needed_pressure == pytest.approx(bar * 1e5, rel=1e-7)
+    need = PlateAt(_design(_with(static_pressure=f"{bar} bar"))).need
+    assert need(0.95 * r.V_dot) < bar * 1e5 < need(1.05 * r.V_dot)
+    if bar > 1.0:
+        weaker = solve(design_from_dict(_with(static_pressure=f"{bar / 2} bar")))
+        assert weaker.V_dot < r.V_dot
+
+
+def test_backflow_device_size_finding():
+    data = copy.deepcopy(TAP)
+    _part(data, "pressure vacuum breaker")["rated_flow"] = "1 L/min"
+    _part(data, "pressure vacuum breaker")["loss"] = "0.1 bar"
+    assert "backflow-device-size" in _ids(data)
+    assert "backflow-device-size" not in _ids(TAP)
