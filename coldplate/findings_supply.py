@@ -63,11 +63,12 @@ def supply_pressure(r):
             f"more than the static supply pressure of {p / 1e5:.2f} bar: the design flow will not arrive.",
             "Use drive = \"pressure\" to see the flow this supply gives, shorten or widen the lines, or open the "
             "valve further.")
-    if c.drive == "pump" and c.supply_pressure is not None and c.supply_pressure > rating:
+    shut = (d.supply.static_pressure or 0.0) + c.pump.dp[0] if c.pump is not None else 0.0
+    if shut > rating:
         yield Finding(
             "pump-above-rating", "warning",
-            f"The pump holds {c.supply_pressure / 1e5:.2f} bar at the supply at the operating point; at shut-off it "
-            f"gives more, above {given} ({rating / 1e5:.1f} bar) if a valve downstream closes.",
+            f"If a valve or a blockage stops the flow, the pump's shut-off head puts {shut / 1e5:.2f} bar (gauge) on "
+            f"the plate, above {given} ({rating / 1e5:.1f} bar).",
             "Fit a relief valve or a bypass around the plate, or choose a pump with less head. " + DEFER)
 
 

@@ -6,6 +6,15 @@ from __future__ import annotations
 
 from dataclasses import replace
 
+#: What the circuit model assumes, added to the result's assumptions when there is a circuit.
+CIRCUIT_ASSUMPTIONS = (
+    "circuit: lines before the plate carry the coolant at the inlet temperature, lines after it at the outlet "
+    "temperature, at the same mass flow; pressures are static gauge values with the velocity head lost only at "
+    "the outlet",
+    "circuit: fitting loss coefficients are the turbulent values (Crane TP-410, Rennels); backflow devices lose "
+    "their opening loss plus a part growing with the square of the flow (typical values unless given)",
+)
+
 
 def supply_stage(design):
     """(flow for solve_plate or None, function that attaches the circuit and planning results)."""
@@ -22,6 +31,7 @@ def supply_stage(design):
     def attach(result):
         methods = result.methods + (circuit_methods(design, circuit) if circuit is not None else ())
         planning = plan(design, result.V_dot) if wants_planning(design) else None
-        return replace(result, circuit=circuit, planning=planning, methods=methods)
+        assumptions = result.assumptions + (CIRCUIT_ASSUMPTIONS if circuit is not None else ())
+        return replace(result, circuit=circuit, planning=planning, methods=methods, assumptions=assumptions)
 
     return flow, attach

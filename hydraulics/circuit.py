@@ -105,15 +105,15 @@ FITTINGS: dict[str, FittingKind] = {
                              f"hose barb: sharp contraction into the barb's ``bore`` and sudden expansion out: {_RENNELS}"),
 }
 
-CRANE_K = Validity(
-    method="Crane fitting K",
-    reference=f"{_CRANE}; K for fully turbulent flow",
+FITTING_K = Validity(
+    method="fitting K (Crane, Rennels)",
+    reference=f"{_CRANE}; {_RENNELS}; K for turbulent flow",
     bounds=(Bound("Re", 4000.0, math.inf, "turbulent; in slower flow the fitting losses rise (Hooper 1981); "
                                           "common practice"),),
 )
 
 
-@with_validity(CRANE_K)
+@with_validity(FITTING_K)
 def K_fitting(name: str, D: float, other: float | None = None) -> float:
     """Loss coefficient K [-] of fitting ``name`` on the velocity in a line of inner diameter D [m].
 

@@ -261,3 +261,13 @@ def test_backflow_device_size_finding():
     _part(data, "pressure vacuum breaker")["loss"] = "0.1 bar"
     assert "backflow-device-size" in _ids(data)
     assert "backflow-device-size" not in _ids(TAP)
+
+
+def test_pump_shut_off_above_the_plate_rating():
+    # Source: common practice: a pump's shut-off head reaches the plate when a valve after it closes.
+    data = _with(drive="pump", static_pressure=None, pump_flow=["0 L/min", "2 L/min", "4 L/min", "6 L/min"],
+                 pump_head=["20 m", "18 m", "13 m", "5 m"])
+    data["plate"]["pressure_rating"] = "1.5 bar"  # below 20 m of water (1.96 bar)
+    assert "pump-above-rating" in _ids(data)
+    data["plate"]["pressure_rating"] = "3 bar"
+    assert "pump-above-rating" not in _ids(data)
