@@ -49,7 +49,10 @@ class PlateAt:
         if key not in self._cache:
             try:
                 self._cache[key] = self._solve(self.design, key)
-            except DesignError:
+            except (DesignError, ValueError):
+                # DesignError: the outlet would boil. ValueError: CoolProp refuses a state within a few 1e-5 of
+                # saturation, which solve_plate's boiling check lets through when a root find probes the flow
+                # where the outlet just reaches boiling. Either way the plate cannot run at this flow.
                 self._cache[key] = None
         return self._cache[key]
 
@@ -131,6 +134,10 @@ def operate(design) -> CircuitResult:
         p0 = (d.supply.static_pressure or 0.0) + pump_curve(table)(V)
     else:
         p0 = need
+    if abs(p0 - need) > max(1.0, 1e-6 * p0):  # the root sits where the plate stops running: it would boil
+        field = "[supply] static_pressure" if d.supply.drive == "pressure" else "[supply] pump_head"
+        raise DesignError(field, f"drives only about {V * 6e4:.3g} L/min through the circuit, too little for the "
+                                 "load: the coolant would boil in the plate")
     losses, pressures, p_end = walk(c, r.m_dot, plate.upstream, down, r.dp, p0)
     k = c.plate_index
     names = [part.name for part in c.parts]
