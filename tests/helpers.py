@@ -63,3 +63,18 @@ def write(tmp_path, data: dict, name="design.toml") -> Path:
     path = tmp_path / name
     path.write_text(to_toml(data))
     return path
+
+
+def solved_or_refused(data: dict):
+    """(design, result) for a design dict, or None when it is refused with a one-line DesignError."""
+    from coldplate.design import design_from_dict
+    from coldplate.errors import DesignError
+    from coldplate.solve import solve
+
+    try:
+        d = design_from_dict(data)
+        return d, solve(d)
+    except DesignError as exc:
+        assert exc.field or "design" in str(exc)
+        assert "\n" not in str(exc)
+        return None
