@@ -85,20 +85,22 @@ def _solve_pressure(plate: PlateAt, p_supply: float) -> float:
                                                       f"lifts, back pressure and check valves ({held / 1e3:.4g} kPa): "
                                                       "no water flows")
     q = plate.design.flow or FLOW_START
-    lo, hi = 0.0, None
-    for _ in range(80):
-        if plate.need(q) < p_supply:
-            lo, q = q, q * 2.0
-            if q > FLOW_MAX:
-                raise DesignError("[supply] static_pressure", f"drives more than {FLOW_MAX * 6e4:.0f} L/min through "
-                                                              "this circuit; check the circuit's parts")
-        else:
-            hi = q
-            if lo > 0 or q < 1e-9:
-                break
+    if plate.need(q) < p_supply:  # the supply drives more: double up to a bracket
+        while plate.need(q) < p_supply:
+            lo = q
+            if q >= FLOW_MAX:
+                raise DesignError("[supply] static_pressure", f"drives more than {FLOW_MAX * 6e4:.0f} L/min "
+                                                              "through this circuit; check the circuit's parts")
+            q = min(2.0 * q, FLOW_MAX)
+        hi = q
+    else:  # it drives less: halve down to a bracket (zero flow always needs less than the supply holds)
+        lo, hi = 0.0, q
+        while q > 1e-9:
             q *= 0.5
-    if hi is None:  # pragma: no cover - the loop always ends with a bracket
-        raise DesignError("[supply] static_pressure", "no operating flow found")
+            if plate.need(q) < p_supply:
+                lo = q
+                break
+            hi = q
     return float(brentq(lambda v: p_supply - plate.need(v), lo, hi, xtol=1e-12, rtol=1e-9))
 
 
