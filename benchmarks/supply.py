@@ -9,6 +9,7 @@ Not a test: nothing here fails on time.
 from __future__ import annotations
 
 import argparse
+import importlib
 import statistics
 import sys
 import time
@@ -17,9 +18,7 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
-import importlib  # noqa: E402
 from coldplate.design import load_design  # noqa: E402
-from coldplate.operating import PlateAt  # noqa: E402
 from coldplate.solve import solve, solve_plate  # noqa: E402
 
 solve_module = importlib.import_module("coldplate.solve")
