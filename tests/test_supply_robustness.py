@@ -38,9 +38,8 @@ def circuits(draw):
 @settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(circuits())
 def test_any_circuit_solves_or_says_why(data):
-    solved = solved_or_refused(data)
-    if solved is None:
-        return
+    if (solved := solved_or_refused(data)) is None:
+        return  # refused in one line, which is also an answer
     d, r = solved
     c, p = r.circuit, r.planning
     assert math.isclose(c.needed_pressure, d.supply.static_pressure, rel_tol=1e-6)
