@@ -14,7 +14,10 @@ from pathlib import Path
 
 from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
 
+from hydraulics.circuit import Circuit
+
 from . import materials
+from .circuit_design import read_circuit, read_supply_extras
 from .errors import DesignError, StateError
 from .fields import Table
 from .module_design import Module, read_module
@@ -85,6 +88,17 @@ class Supply:
     static_pressure: float | None  #: gauge [Pa] (no-flow pressure at the supply)
     discharge_limit: float  #: [K]
     discharge: str  #: "drain" (once-through) or "return" (back to a loop)
+    # supply side (coldplate/circuit_design.py reads these; README "[circuit]")
+    drive: str = "flow"  #: "flow" (given), "pressure" (static supply pressure) or "pump"
+    pump_flow: tuple[float, ...] = ()  #: pump table flows [m^3/s]
+    pump_rise: tuple[float, ...] = ()  #: pump table head [m] or pressure rise [Pa]
+    pump_rise_is_head: bool = True  #: pump_rise in metres of coolant (True) or in Pa
+    face_limit: float | None = None  #: hottest mounting face allowed [K]
+    tariff: float | None = None  #: water price per m^3 [currency/m^3]
+    currency: str | None = None  #: three-letter code the user gave
+    chiller_power: float | None = None  #: electrical power of a recirculating chiller [W]
+    electricity_tariff: float | None = None  #: [currency/J]
+    chiller_price: float | None = None  #: [currency]
 
     @property
     def once_through(self) -> bool:
@@ -124,11 +138,12 @@ class Design:
     passage: Channels | Tube | Cavity
     coolant: Coolant
     inlet_temperature: float  #: [K]
-    flow: float  #: [m^3/s]
+    flow: float | None  #: [m^3/s]; None when the supply sets it (drive "pressure" or "pump")
     supply: Supply
     room: Room
     model: Model
     module: Module | None = None  #: thermoelectric modules on the plate, from [module]
+    circuit: Circuit | None = None  #: the lines around the plate ([circuit])
 
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
@@ -169,13 +184,13 @@ def parse_design(text: str) -> Design:
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
-_OPTIONAL_TOP = ("module",)
+_OPTIONAL = ("module", "circuit")
 
 
 def design_from_dict(data: dict) -> Design:
-    unknown = sorted(set(data) - set(_TOP) - set(_OPTIONAL_TOP))
+    unknown = sorted(set(data) - set(_TOP) - set(_OPTIONAL))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP + _OPTIONAL_TOP)})")
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP + _OPTIONAL)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
@@ -192,8 +207,12 @@ def design_from_dict(data: dict) -> Design:
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
     room = _room(Table(data["room"], "room"))
     model = _model(Table(data.get("correlations", {}), "correlations"))
+    circuit = read_circuit(data["circuit"]) if "circuit" in data else None
+    if supply.drive != "flow" and circuit is None:
+        raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
+                                            "supply pushes water through)")
     return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
-                  module=module)
+                  module=module, circuit=circuit)
 
 
 def _plate(t: Table) -> Plate:
@@ -324,6 +343,7 @@ def _supply(t: Table) -> Supply:
     limit = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15,
                     default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
+    extras = read_supply_extras(t, source, discharge, p)
     if source == "potable" and discharge == "return":
         raise DesignError(t.field("discharge"), "drinking water that has been through equipment must never return "
                                                 "to the drinking-water system; potable water runs to a drain")
@@ -331,7 +351,7 @@ def _supply(t: Table) -> Supply:
         raise DesignError(t.field("discharge"), "a recirculating supply returns its water; use source = \"process\" "
                                                 "or \"potable\" for water that runs to a drain")
     t.finish()
-    return Supply(source, hours, float(days), p, limit, discharge)
+    return Supply(source, hours, float(days), p, limit, discharge, **extras)
 
 
 def _coolant(t: Table, supply: Supply):
@@ -350,7 +370,10 @@ def _coolant(t: Table, supply: Supply):
         coolant.check_liquid(T_in, supply.line_pressure)
     except _CoolantStateError as exc:
         raise StateError(t.field("inlet_temperature"), str(exc)) from None
-    flow = t.value("flow", "flow", low=0, high=0.01)
+    if supply.drive != "flow" and t.has("flow"):
+        raise DesignError(t.field("flow"), f"the supply sets the flow (drive = {supply.drive!r}); remove this key "
+                                           "or use drive = \"flow\"")
+    flow = t.value("flow", "flow", required=supply.drive == "flow", low=0, high=0.01)
     t.finish()
     return coolant, T_in, flow
 

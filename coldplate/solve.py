@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import replace
+from functools import partial
 
 import numpy as np
 
@@ -49,13 +50,36 @@ def check_file(path) -> Result:
 
 
 def solve(design: Design) -> Result:
-    """Solve the design check for one design: the plate at the design's flow and load, then the findings."""
-    if design.module is not None:  # thermoelectric modules: the plate's load is their hot-side heat
-        from .module_solve import solve_with_module
-        result = solve_with_module(design, solve_plate)
+    """Solve the design check for one design: the plate at the design's flow and load, then the findings.
+
+    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
+    get the water planning (coldplate/supply_stage.py).  With thermoelectric modules the plate's load is
+    their hot-side heat (coldplate/module_solve.py).
+    """
+    from .supply_stage import supply_stage  # imports scipy only when a circuit or planning is asked for
+
+    if design.module is None:
+        flow, attach = supply_stage(design)
+        result = attach(solve_plate(design, flow))
     else:
-        result = solve_plate(design)
+        result = _solve_with_modules(design, supply_stage)
     return replace(result, findings=collect_findings(result))
+
+
+def _solve_with_modules(design: Design, supply_stage) -> Result:
+    """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
+    properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
+    flow, then the supply at the modules' real heat and the modules once more at its flow."""
+    from .module_solve import solve_with_module
+
+    flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
+    if flow is not None:
+        first = solve_with_module(design, partial(solve_plate, flow=flow))
+        flow, attach = supply_stage(design, load=first.load)
+    result = solve_with_module(design, partial(solve_plate, flow=flow))
+    if flow is None:  # no circuit: planning (if any) at the modules' real heat
+        _, attach = supply_stage(design, load=result.load)
+    return attach(result)
 
 
 def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:

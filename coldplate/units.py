@@ -59,6 +59,8 @@ KINDS = {
     "thermal_resistance": "[temperature] / [power]",
     "thermal_conductance": "[power] / [temperature]",
     "seebeck": "[electric_potential] / [temperature]",
+    "volume": "[length] ** 3",
+    "energy": "[energy]",
 }
 
 _SI_UNIT = {
@@ -79,6 +81,8 @@ _SI_UNIT = {
     "thermal_resistance": "K/W",
     "thermal_conductance": "W/K",
     "seebeck": "V/K",
+    "volume": "m**3",
+    "energy": "J",
 }
 
 _EXAMPLE = {
@@ -99,6 +103,8 @@ _EXAMPLE = {
     "thermal_resistance": "'0.05 K/W'",
     "thermal_conductance": "'0.5 W/K'",
     "seebeck": "'0.05 V/K'",
+    "volume": "'1 m**3'",
+    "energy": "'1 kWh'",
 }
 
 

@@ -7,6 +7,7 @@ from __future__ import annotations
 import json
 
 from .module_report import module_to_dict
+from .supply import supply_dict
 
 
 def _c(T: float) -> float:
@@ -56,6 +57,7 @@ def result_to_dict(r, version: str = "") -> dict:
         "assumptions": list(r.assumptions),
         "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
                      for f in r.findings],
+        **supply_dict(r),
     }
 
 

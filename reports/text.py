@@ -7,6 +7,7 @@ from __future__ import annotations
 import textwrap
 
 from .module_report import module_text
+from .supply import supply_lines
 
 WIDTH = 92
 
@@ -59,6 +60,7 @@ def render_text(r, version: str = "") -> str:
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
     out += module_text(getattr(r, "module", None))
+    out += supply_lines(r, _table)
     out.append("Correlations used")
     out.append("-----------------")
     wr = max(len(m.role) for m in r.methods)
