@@ -49,10 +49,7 @@ class PlateAt:
         if key not in self._cache:
             try:
                 self._cache[key] = self._solve(self.design, key, self.load)
-            except (DesignError, ValueError):
-                # DesignError: the outlet would boil. ValueError: CoolProp refuses a state within a few 1e-5 of
-                # saturation, which solve_plate's boiling check lets through when a root find probes the flow
-                # where the outlet just reaches boiling. Either way the plate cannot run at this flow.
+            except DesignError:  # the outlet would boil (or leave the property data): the plate cannot run here
                 self._cache[key] = None
         return self._cache[key]
 
