@@ -128,8 +128,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     n = d.model.segments
     x = np.linspace(0.0, d.plate.length, n + 1)
     T_bulk, T_top = top(x)
-    x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
-    xf = np.linspace(x0, x0 + d.heat.footprint_length, 4 * n + 1)  # the march over the footprint
+    xf = march_points(d.plate.length, d.heat.footprint_length, n)  # the march over the footprint
     T_bulk_f, T_top_f = top(xf)
     i_hot = int(np.argmax(T_top_f))
     x_hot = float(xf[i_hot])
@@ -177,6 +176,13 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         iterations=iteration, assumptions=_assumptions(d), load=Q,
     )
     return result
+
+
+def march_points(plate_length: float, footprint_length: float, segments: int) -> np.ndarray:
+    """Where the march looks for the hottest point: 4·segments + 1 points over the centred footprint [m]
+    (shared with the sizing evaluator, so both take the maximum over the same points)."""
+    x0 = 0.5 * (plate_length - footprint_length)
+    return np.linspace(x0, x0 + footprint_length, 4 * segments + 1)
 
 
 def _check_outlet(T_out, T_boil, coolant, p):
