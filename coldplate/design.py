@@ -147,6 +147,11 @@ DEFAULT_PLENUM_LENGTH = 0.005
 
 def load_design(path: str | Path) -> Design:
     """Read and check a design file; raise :class:`DesignError` on any problem."""
+    return design_from_dict(load_data(path))
+
+
+def load_data(path: str | Path) -> dict:
+    """A design file's TOML data as read, not yet checked (feature tables read their own parts from it)."""
     path = Path(path)
     try:
         text = path.read_text(encoding="utf-8")
@@ -154,25 +159,30 @@ def load_design(path: str | Path) -> Design:
         raise DesignError("", f"design file {str(path)!r} does not exist") from None
     except (OSError, UnicodeDecodeError) as exc:
         raise DesignError("", f"cannot read design file {str(path)!r}: {exc}") from None
-    return parse_design(text)
+    return _toml(text)
 
 
 def parse_design(text: str) -> Design:
     """Parse design-file text (TOML)."""
+    return design_from_dict(_toml(text))
+
+
+def _toml(text: str) -> dict:
     try:
-        data = tomllib.loads(text)
+        return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise DesignError("", f"not a valid TOML file: {exc}") from None
-    return design_from_dict(data)
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
+#: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
+_FEATURE_TABLES = ("search",)
 
 
 def design_from_dict(data: dict) -> Design:
-    unknown = sorted(set(data) - set(_TOP))
+    unknown = sorted(set(data) - set(_TOP) - set(_FEATURE_TABLES))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP)})")
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP + _FEATURE_TABLES)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")

@@ -102,6 +102,7 @@ class Evaluator:
         R_th = R_plate + self.R_int
         full = lambda a: np.broadcast_to(a, shape)  # noqa: E731
         ok = full(st.ok) & np.isfinite(R_th)
+        dp = np.where(st.ok, dp, np.nan)
         return Evaluation(R_th=full(R_th), T_face=full(self.T_in + self.Q * R_th), dp=full(dp),
                           T_out=full(st.T_out), velocity=full(V), Re=full(Re), flow=full(st.flow), solvable=ok)
 
