@@ -92,7 +92,7 @@ class _Geometries:
 
 
 def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = None, progress=None,
-               chunk: int = CHUNK) -> SearchOutcome:
+               chunk: int | None = None) -> SearchOutcome:
     """Evaluate every candidate of ``spec`` and keep the feasible Pareto set.
 
     ``progress(done, total)`` is called after each chunk.  Ctrl-C (KeyboardInterrupt) between or within a
@@ -104,7 +104,7 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
     base, flow = spec.axes["base"], spec.axes["flow"]
     per_geometry = base.size * flow.size
     total = geo.size * per_geometry
-    step = max(1, chunk // per_geometry)
+    step = max(1, (chunk or CHUNK) // per_geometry)
     lim = spec.limits
     hours = design.supply.hours_per_day
     checks = _limit_list(lim)
@@ -123,6 +123,9 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
             e = ev.channels(*cols, base, flow) if spec.kind == "channels" else ev.tubes(*cols, base, flow)
             quantities = _quantities(e, geo, sl, base, flow, hours)
             passes = {name: _passes(quantities[name], limit, sense) for name, limit, sense in checks}
+            for name, _, sense in checks:  # where the coolant boils the rest is unknown: count it as boiling only
+                if sense != "flag":
+                    passes[name] = passes[name] | ~e.solvable
             n_fail = sum((~p).astype(np.int8) for p in passes.values())
             n_fail = np.broadcast_to(n_fail, e.R_th.shape)
             for name, limit, sense in checks:

@@ -102,11 +102,11 @@ def read_search(data: dict, design: Design) -> SearchSpec:
             axes[name] = _axis(t, name, unit, whole, low, high)
         else:
             axes[name] = np.array([own[name]], dtype=int if whole else float)
+    limits = _limits(t, design)
+    t.finish()
     if not given:
         raise DesignError("[search]", f"gives no variable to search; give one or more of: "
                                       f"{', '.join(VARIABLES[kind])}")
-    limits = _limits(t, design)
-    t.finish()
     spec = SearchSpec(kind, axes, limits, tuple(given))
     if spec.size > MAX_CANDIDATES:
         raise DesignError("[search]", f"{spec.size:,} candidates is more than the {MAX_CANDIDATES:,} one search "
