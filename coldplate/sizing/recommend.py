@@ -90,10 +90,13 @@ def _why(outcome: SearchOutcome, refinement: Refinement | None, chosen: Candidat
     out = [f"Of {outcome.feasible:,} candidates that meet every limit, it needs the least water: "
            f"{_water(chosen.flow, design)}."]
     same = sum(1 for c in outcome.pareto if c.flow == grid.flow)
-    out.append(f"At the grid's least flow it was the coolest of the designs on the trade-off front "
-               f"({same} there), leaving the most margin on the mounting face.")
+    there = ("it is the only design on the trade-off front there" if same == 1 else
+             f"of the {same} designs on the trade-off front there, the grid's pick runs coolest, leaving the most "
+             "margin on the mounting face")
+    out.append(f"On the grid, the least flow that meets every limit is {grid.flow * 6e4:.3g} L/min; {there}.")
     if refinement is not None and refinement.result is not None:
-        out.append(f"Refinement (SLSQP over {', '.join(refinement.varied)}, from {refinement.starts} grid points) "
+        points = "grid point" if refinement.starts == 1 else "grid points"
+        out.append(f"Refinement (SLSQP over {', '.join(refinement.varied)}, from {refinement.starts} {points}) "
                    f"cut the flow from {grid.flow * 6e4:.3g} to {chosen.flow * 6e4:.3g} L/min, rounded to 0.01 mm "
                    f"and 0.01 L/min and checked again.")
     elif refinement is not None:
@@ -131,7 +134,7 @@ def _binding(outcome: SearchOutcome) -> tuple[str, ...]:
     for c in alone:
         label, fmt = LIMIT_TEXT[c.name]
         if fmt is None:
-            out.append(f"{c.name} binds: {label} in {c.only:,} candidates that meet every other limit.")
+            out.append(f"{c.name} binds: {label} in {c.only:,} candidates; raise the flow's range.")
         else:
             out.append(f"{c.name} binds: relaxing the {label} ({fmt(c.limit)}) alone would admit {c.only:,} "
                        f"candidates; the nearest reaches {fmt(c.nearest)}.")
