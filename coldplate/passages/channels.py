@@ -12,6 +12,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
 
@@ -28,6 +30,13 @@ def channel_length(passage, plate) -> float:
     return plate.length - 2 * passage.plenum_length
 
 
+def heated_walls(width, depth):
+    """Heated-wall arrangement for the laminar Nu: floor and both side walls heated, the lid not.  A channel at
+    least as deep as it is wide has its two long walls and one short wall heated ("3L"), a wide shallow one
+    its two short walls and one long wall ("3S").  Floats or numpy arrays."""
+    return np.where(np.asarray(depth) >= np.asarray(width), "3L", "3S")
+
+
 def geometry(passage, plate) -> Geometry:
     w, d = passage.width, passage.depth
     L = channel_length(passage, plate)
@@ -41,7 +50,7 @@ def geometry(passage, plate) -> Geometry:
         alpha=aspect_ratio(w, d),
         path_length=L,
         heated_length=L,
-        heated="3L" if d >= w else "3S",  # floor and side walls heated, lid not
+        heated=str(heated_walls(w, d)),  # floor and side walls heated, lid not
         roughness=passage.roughness,
         description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
                      f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),

@@ -7,8 +7,9 @@ One physics, two evaluation modes.  Every step calls the same function the one-d
   temperature: :class:`~coldplate.sizing.proptable.PropertyTable` (CoolProp, tabulated once per run);
 * channel geometry: :func:`coldplate.passages.channels.wall_thickness`, ``channel_length``,
   :func:`hydraulics.ducts.hydraulic_diameter_rectangle`, :func:`~hydraulics.ducts.aspect_ratio`;
-* friction: :func:`hydraulics.friction.darcy_friction` (apparent laminar friction, transition blend,
-  Petukhov or Colebrook); Nusselt number: :func:`coldplate.convection.nusselt`;
+* velocity, Reynolds number, friction and Nusselt number: :func:`coldplate.solve.passage_flow` (the check's
+  own step: :func:`hydraulics.friction.darcy_friction`, :func:`coldplate.convection.nusselt`), and
+  :func:`coldplate.solve.friction_pressure_drop`;
 * back side: :func:`coldplate.passages.channels.fin_areas` (fin efficiency of the walls);
 * spreading and the march for the hottest point: :class:`~coldplate.sizing.platetable.PlateTable`
   (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the check's march points);
@@ -31,14 +32,14 @@ import numpy as np
 
 from hydraulics.coolant import enthalpy
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
-from hydraulics.friction import darcy_friction
+from hydraulics.losses import total_pressure_drop
 
 from .. import conduction
-from ..convection import nusselt
 from ..design import Design
 from ..errors import DesignError
 from ..passages import channels as channel_passage
 from ..passages import tube as tube_passage
+from ..solve import friction_pressure_drop, passage_flow
 from .platetable import PlateTable
 from .proptable import PropertyTable
 
@@ -124,27 +125,25 @@ class Evaluator:
         L = channel_passage.channel_length(passage, d.plate)
         D_h = hydraulic_diameter_rectangle(w, dep)
         alpha = aspect_ratio(w, dep)
-        V = st.m_dot / (pr.rho * n * w * dep)
-        Re = np.where(st.ok, pr.rho * V * D_h / pr.mu, 1.0)
-        fr = darcy_friction(Re, L, D_h, alpha, "rectangle", d.passage.roughness / D_h)
-        # the heated-wall arrangement follows each channel's shape (as channels.geometry decides it)
-        deep = (dep >= w).ravel()
-        Nu = np.empty(np.broadcast_shapes(Re.shape, n.shape))
-        for heated, rows in (("3L", deep), ("3S", ~deep)):
-            if rows.any():
-                cv = nusselt(Re[rows], pr.Pr, L, D_h[rows], alpha[rows], shape="rectangle", laminar=d.model.laminar,
-                             turbulent=d.model.turbulent, heated=heated)
-                Nu[rows] = cv.Nu
-        h = Nu * pr.k / D_h
+        area = n * w * dep
+        shape = (n.shape[0], 1, flow.size)
+        V, Re, f, h = (np.empty(shape) for _ in range(4))
+        # the heated-wall arrangement follows each channel's shape: one call per arrangement
+        heated = channel_passage.heated_walls(w, dep).ravel()
+        for kind in np.unique(heated):
+            rows = heated == kind
+            V[rows], Re[rows], fr, _, h[rows] = passage_flow(
+                st.m_dot, pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
+                d.passage.roughness / D_h[rows], d.model)
+            f[rows] = fr.f
         _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
         h_eff = effective * h / self.A_plate  # 1 / (A_plate R_below), R_below = 1 / (h A_effective)
         R_plate = np.stack([self.plate.rise(float(t), h_eff[:, 0, :], st.s.ravel()) for t in base], axis=1)
+        dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
-        dp = fr.f * L / D_h * dyn
         for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
             dp = dp + K * ratio**2 * dyn
-        shape = (n.shape[0], base.size, flow.size)
-        return self._finish(R_plate, dp, st, V, Re, shape)
+        return self._finish(R_plate, dp, st, V, Re, (n.shape[0], base.size, flow.size))
 
     # ---------------------------------------------------------------- tubes
 
@@ -171,19 +170,16 @@ class Evaluator:
             passage = replace(d.passage, inner_diameter=float(di_all[g]), outer_diameter=float(di_all[g] + 2 * wall),
                               passes=int(np_all[g]))
             geom = tube_passage.geometry(passage, d.plate)
-            V = st.m_dot / (pr.rho * geom.flow_area)
-            Re = np.where(st.ok, pr.rho * V * geom.D_h / pr.mu, 1.0)
-            fr = darcy_friction(Re, geom.path_length, geom.D_h, geom.alpha, geom.shape, geom.rel_roughness)
-            cv = nusselt(Re, pr.Pr, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
-                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated)
-            h = np.asarray(cv.Nu) * pr.k / geom.D_h
+            V, Re, fr, _, h = passage_flow(st.m_dot, pr, geom.n_parallel * geom.flow_area, geom.D_h, geom.alpha,
+                                           geom.shape, geom.path_length, geom.heated_length, geom.heated,
+                                           geom.rel_roughness, d.model)
             f = np.asarray(fr.f)
             for q in range(Nq):
                 if not st.ok[q]:
                     continue
                 losses = tube_passage.minor_losses(passage, d.plate, geom, float(V[q]), float(Re[q]), float(f[q]))
-                dp[g, 0, q] = (f[q] * geom.path_length / geom.D_h * 0.5 * pr.rho[q] * V[q] ** 2
-                               + sum(m.pressure_drop(float(pr.rho[q])) for m in losses))
+                dp[g, 0, q] = (friction_pressure_drop(f[q], geom.path_length, geom.D_h, pr.rho[q], V[q])
+                               + total_pressure_drop(losses, float(pr.rho[q])))
             V_all[g, 0], Re_all[g, 0] = V, Re
             for b, t in enumerate(base):
                 plate_t = replace(d.plate, base=float(t))
