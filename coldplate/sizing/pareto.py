@@ -26,17 +26,22 @@ def pareto_mask(F) -> np.ndarray:
         return np.zeros(0, dtype=bool)
     order = np.lexsort((F[:, 1], F[:, 0], F[:, 2]))  # by level f3, then f1, then f2
     S = F[order]
-    same = np.r_[False, np.all(S[1:] == S[:-1], axis=1)]  # a copy of the row before it
-    first = np.maximum.accumulate(np.where(~same, np.arange(n), 0))  # each row's first copy
-    starts = np.flatnonzero(np.r_[True, S[1:, 2] != S[:-1, 2]])
-    ends = np.r_[starts[1:], n]
+    same = np.zeros(n, dtype=bool)
+    same[1:] = np.all(S[1:] == S[:-1], axis=1)  # a copy of the row before it
+    first = np.maximum.accumulate(np.where(same, 0, np.arange(n)))  # each row's first copy
+    new_level = np.ones(n, dtype=bool)
+    new_level[1:] = S[1:, 2] != S[:-1, 2]
+    starts = np.flatnonzero(new_level)
+    ends = np.append(starts[1:], n)
     keep_sorted = np.zeros(n, dtype=bool)
     stair_f1 = np.empty(0)
     stair_f2 = np.empty(0)  # running minimum of f2 over the lower levels, by ascending f1
     for a, b in zip(starts, ends):
         f1, f2 = S[a:b, 0], S[a:b, 1]
         # within the level (sorted by f1 then f2): a first copy is dominated iff an earlier row has f2 <= own
-        prev_min = np.minimum.accumulate(np.r_[np.inf, f2[:-1]])
+        prev_min = np.empty_like(f2)
+        prev_min[0] = np.inf
+        np.minimum.accumulate(f2[:-1], out=prev_min[1:])
         ok = f2 < prev_min
         if stair_f1.size:
             pos = np.searchsorted(stair_f1, f1, side="right")
@@ -44,11 +49,12 @@ def pareto_mask(F) -> np.ndarray:
             ok &= ~(best <= f2)
         keep_sorted[a:b] = ok
         # fold this level's front into the staircase
-        all_f1 = np.r_[stair_f1, f1[ok]]
-        all_f2 = np.r_[stair_f2, f2[ok]]
+        all_f1 = np.concatenate((stair_f1, f1[ok]))
+        all_f2 = np.concatenate((stair_f2, f2[ok]))
         s = np.lexsort((all_f2, all_f1))
         all_f1, all_f2 = all_f1[s], np.minimum.accumulate(all_f2[s])
-        last = np.r_[all_f1[1:] != all_f1[:-1], True]  # keep the last (lowest f2) of equal f1
+        last = np.ones(all_f1.size, dtype=bool)
+        last[:-1] = all_f1[1:] != all_f1[:-1]  # keep the last (lowest f2) of equal f1
         stair_f1, stair_f2 = all_f1[last], all_f2[last]
     keep_sorted = keep_sorted[first]  # copies share their first copy's verdict
     keep = np.zeros(n, dtype=bool)

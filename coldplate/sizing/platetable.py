@@ -74,13 +74,16 @@ class PlateTable:
         for row, j in enumerate(range(lo, hi + 1)):
             F, G = self._node(float(t), bool(single_pass), j)
             psi[row] = np.max(s[:, None] * F[None, :] + G[None, :], axis=1)
-        q = np.broadcast_to(np.arange(s.size), h.shape)
-        i = j0 - lo
-        # cubic Lagrange interpolation through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1)
+        # cubic Lagrange interpolation through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1),
+        # gathered from the flattened table: element (j, q) sits at j * Nq + q
+        ns = s.size
+        k = (j0 - lo) * ns + np.arange(ns)
+        flat = psi.ravel()
         wm, w1, w2 = w + 1.0, w - 1.0, w - 2.0
-        out = (-w * w1 * w2 / 6.0 * psi[i - 1, q] + wm * w1 * w2 / 2.0 * psi[i, q]
-               - wm * w * w2 / 2.0 * psi[i + 1, q] + wm * w * w1 / 6.0 * psi[i + 2, q])
-        out = out + 1.0 / (hs * (self.a * self.b))
+        ww = w * wm
+        out = (w1 * w2 * (wm * 0.5 * flat[k] - w * (1.0 / 6.0) * flat[k - ns])
+               + ww * (w1 * (1.0 / 6.0) * flat[k + 2 * ns] - w2 * 0.5 * flat[k + ns]))
+        out += 1.0 / (hs * (self.a * self.b))
         return np.where(bad, np.nan, out)
 
     def exact_rise(self, t: float, h_eff: float, s: float, single_pass: bool = True) -> float:
