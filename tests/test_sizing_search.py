@@ -165,7 +165,7 @@ def test_ranges_lists_and_single_values():
 def test_static_pressure_is_the_pressure_limit_when_none_is_given():
     _, _, spec = _spec({"flow": ["1 L/min"], "face_limit": "40 degC"})
     assert spec.limits.pressure_drop == pytest.approx(4e5)
-    assert "fittings and hose are not counted" in spec.limits.pressure_source
+    assert "fittings, hose and valves are not counted" in spec.limits.pressure_source
 
 
 def test_tube_search_reads_its_own_variables():
@@ -187,3 +187,11 @@ def test_a_small_tube_search_runs_and_its_recommendation_checks():
     assert s.check.T_face_max <= spec.limits.face
     assert s.check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)
     assert dataclasses.replace(s.check.design.passage).kind == "tube"
+
+
+def test_writer_places_every_searched_variable():
+    # the writer's table of places names exactly the variables the [search] reader knows
+    from coldplate.sizing.search import VARIABLES
+    from coldplate.sizing.writer import PLACES
+
+    assert set(PLACES) == {name for kind in VARIABLES.values() for name in kind}

@@ -121,11 +121,13 @@ def _limits(t: Table, design: Design) -> Limits:
     dp_given = t.value("pressure_drop_limit", "pressure", required=False, low=0, high=1e8)
     static = design.supply.static_pressure
     if dp_given is not None and (static is None or dp_given <= static):
-        dp, source = dp_given, "[search] pressure_drop_limit"
+        dp, source = dp_given, "[search] pressure_drop_limit, for the plate alone"
     elif static is not None:
-        dp, source = static, "[supply] static_pressure (the plate alone: fittings and hose are not counted)"
+        dp, source = static, "[supply] static_pressure, all of it across the plate"
     else:
         dp, source = None, "none given"
+    if dp is not None:
+        source += " (fittings, hose and valves are not counted: leave them their share)"
     once = design.supply.once_through
     discharge = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15)
     if discharge is None and once:
