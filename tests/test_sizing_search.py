@@ -118,7 +118,7 @@ def test_refinement_needs_less_flow_and_still_meets_the_limits():
     lim = spec.limits
     # the one-design check of the written design meets every limit
     assert s.check.T_face_max <= lim.face and s.check.dp <= lim.pressure_drop and s.check.T_out <= lim.discharge
-    for name in ("width", "depth"):
+    for name in ("width", "depth", "base"):
         assert spec.axes[name].min() - 1e-12 <= s.recommended.value(name) <= spec.axes[name].max() + 1e-12
 
 

@@ -1,13 +1,13 @@
 """Refinement after the grid: scipy.optimize from the best few grid points, inside the bounds and the limits.
 
 The recommendation is the feasible candidate that uses the least water (least flow).  A grid can only offer
-its own flow steps, so from the few best grid points (least flow, distinct geometries) SLSQP minimises the
-flow over the continuous variables the search varies — channel width and depth or the tube bore, and the
-flow — with every limit as an inequality constraint, within the search's ranges.  Whole-number variables
-(channel count, passes) and the base thickness stay at the grid point's value: the base is a stock
-thickness, and each new base would need the spreading series afresh.  The optimum is then rounded to what a
-workshop and a flow meter can set (0.01 mm, 0.01 L/min: sizes to the nearest, flow upwards) and checked
-again; a refined point is kept only if it still meets every limit and needs less flow than the grid's best.
+its own steps, so from the few best grid points (least flow, distinct whole-number choices) SLSQP minimises
+the flow over the continuous variables the search varies — channel width and depth or the tube bore, the
+base thickness and the flow — with every limit as an inequality constraint, within the search's ranges.
+Whole-number variables (channel count, passes) stay at the grid point's value.  The optimum is then rounded
+to what a workshop and a flow meter can set (0.01 mm, 0.01 L/min: sizes to the nearest, flow upwards) and
+checked again; a refined point is kept only if it still meets every limit and needs less flow than the
+grid's best.
 """
 from __future__ import annotations
 
@@ -24,7 +24,7 @@ LENGTH_STEP = 1e-5
 FLOW_STEP = 0.01 / 6e4
 #: How many grid points to start from.
 STARTS = 3
-CONTINUOUS = {"channels": ("width", "depth", "flow"), "tube": ("inner_diameter", "flow")}
+CONTINUOUS = {"channels": ("width", "depth", "base", "flow"), "tube": ("inner_diameter", "base", "flow")}
 
 
 @dataclass(frozen=True)
