@@ -64,6 +64,9 @@ def run(args) -> int:
     bar = None if args.quiet or not sys.stderr.isatty() else ProgressBar(sys.stderr)
     try:
         result = size(data, design, spec, progress=bar)
+    except KeyboardInterrupt:  # outside the search itself (tables, the final check): nothing to show yet
+        print("coldplate: interrupted before any design was found; nothing written", file=sys.stderr)
+        return EXIT_INTERRUPTED
     finally:
         if bar is not None:
             bar.close()

@@ -67,7 +67,7 @@ class Evaluator:
     ``design`` is the design file's design; the candidates replace its passage sizes, base and flow.
     """
 
-    def __init__(self, design: Design, flow_max: float | None = None):
+    def __init__(self, design: Design):
         d = self.design = design
         if d.model.laminar == "sieder-tate":
             raise DesignError("[correlations] laminar", "sieder-tate needs each candidate's wall temperature; "

@@ -65,7 +65,9 @@ class PlateTable:
         h = np.asarray(h_eff, dtype=float)
         s = np.atleast_1d(np.asarray(s, dtype=float))
         bad = ~np.isfinite(h) | (h <= 0)
-        hs = np.where(bad, 1.0, h)
+        if bad.all():
+            return np.full(h.shape, np.nan)
+        hs = np.where(bad, np.nanmax(np.where(bad, np.nan, h)), h)  # stand-ins inside the range (masked below)
         u = np.log10(hs) * self.n
         j0 = np.floor(u).astype(np.int64)
         w = u - j0
