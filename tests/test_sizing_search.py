@@ -10,6 +10,8 @@ import dataclasses
 
 import numpy as np
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from coldplate.design import design_from_dict
 from coldplate.errors import DesignError
@@ -195,3 +197,26 @@ def test_writer_places_every_searched_variable():
     from coldplate.sizing.writer import PLACES
 
     assert set(PLACES) == {name for kind in VARIABLES.values() for name in kind}
+
+
+@settings(max_examples=20, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(count=st.lists(st.integers(1, 60), min_size=1, max_size=3),
+       width=st.lists(st.floats(0.2, 12.0), min_size=1, max_size=3),
+       depth=st.lists(st.floats(0.3, 12.0), min_size=1, max_size=3),
+       flow=st.lists(st.floats(0.001, 20.0), min_size=1, max_size=3),
+       face=st.floats(15.5, 120.0))
+def test_any_accepted_search_finishes_with_a_design_or_the_binding_limit(count, width, depth, flow, face):
+    # property-based (hypothesis): every [search] the reader accepts is searched to a recommendation that the
+    # one-design check confirms, or to a statement of the binding limit; never an internal error
+    search = {"count": count, "width": [f"{w} mm" for w in width], "depth": [f"{d} mm" for d in depth],
+              "flow": [f"{q} L/min" for q in flow], "face_limit": f"{face} degC"}
+    try:
+        data, design, spec = _spec(search)
+    except DesignError:
+        return
+    s = size(data, design, spec)
+    if s.recommended is None:
+        assert s.binding and s.binding[0].startswith("No ")
+    else:
+        assert s.check.T_face_max <= spec.limits.face + 1e-6
+        assert s.check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)

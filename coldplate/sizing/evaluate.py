@@ -79,6 +79,9 @@ class Evaluator:
         self.p = d.supply.line_pressure
         c = d.coolant
         self.T_top = c.upper_limit(self.p) - TOP_MARGIN_K
+        if self.T_top <= self.T_in + TOP_MARGIN_K:
+            raise DesignError("[coolant] inlet_temperature", "is within a kelvin of boiling or of the end of the "
+                                                             "property data: no flow can carry heat away")
         self.rho_in = c.props(self.T_in, self.p).rho
         self.H_in = enthalpy(c, self.T_in, self.p)
         self.props = PropertyTable(c, self.p, self.T_in, self.T_top)

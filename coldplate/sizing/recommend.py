@@ -96,11 +96,12 @@ def _why(outcome: SearchOutcome, refinement: Refinement | None, chosen: Candidat
     out.append(f"On the grid, the least flow that meets every limit is {grid.flow * 6e4:.3g} L/min; {there}.")
     if refinement is not None and refinement.result is not None:
         points = "grid point" if refinement.starts == 1 else "grid points"
+        gain = (f"cut the flow from {grid.flow * 6e4:.3g} to {chosen.flow * 6e4:.3g} L/min"
+                if chosen.flow < grid.flow else f"lowered R from {grid.R_th:.4f} to {chosen.R_th:.4f} K/W")
         out.append(f"Refinement (SLSQP over {', '.join(refinement.varied)}, from {refinement.starts} {points}) "
-                   f"cut the flow from {grid.flow * 6e4:.3g} to {chosen.flow * 6e4:.3g} L/min, rounded to 0.01 mm "
-                   f"and 0.01 L/min and checked again.")
+                   f"{gain}, rounded to 0.01 mm and 0.01 L/min and checked again.")
     elif refinement is not None:
-        out.append("Refinement between grid points found nothing that needs less flow and still meets every limit.")
+        out.append("Refinement between grid points found nothing better that still meets every limit.")
     met = [f"mounting face {check.T_face_max - 273.15:.1f} degC <= {lim.face - 273.15:.1f} degC"]
     if lim.pressure_drop is not None:
         met.append(f"plate pressure drop {check.dp / 1e3:.2f} kPa <= {lim.pressure_drop / 1e3:.3g} kPa")

@@ -1,8 +1,8 @@
 """Refinement after the grid: scipy.optimize from the best few grid points, inside the bounds and the limits.
 
-The recommendation is the feasible candidate that uses the least water (least flow).  A grid can only offer
-its own steps, so from the few best grid points (least flow, distinct whole-number choices) SLSQP minimises
-the flow over the continuous variables the search varies — channel width and depth or the tube bore, the
+The recommendation is the feasible candidate that uses the least water (least flow; at equal flow the lowest
+thermal resistance).  A grid can only offer its own steps, so from the few best grid points (least flow,
+distinct whole-number choices) SLSQP minimises the flow (or, when the flow is fixed, the resistance) over the continuous variables the search varies — channel width and depth or the tube bore, the
 base thickness and the flow — with every limit as an inequality constraint, within the search's ranges.
 Whole-number variables (channel count, passes) stay at the grid point's value.  The optimum is then rounded
 to what a workshop and a flow meter can set (0.01 mm, 0.01 L/min: sizes to the nearest, flow upwards) and
@@ -54,10 +54,16 @@ def refine(outcome: SearchOutcome, evaluator: Evaluator, starts: int = STARTS) -
     best, start = None, outcome.best
     for seed in seeds:
         got = _refine_one(seed, varied, outcome, evaluator)
-        better = got is not None and got.flow < outcome.best.flow * (1 - 1e-6)
-        if better and (best is None or got.flow < best.flow):
+        if got is not None and _better(got, outcome.best) and (best is None or _better(got, best)):
             best, start = got, seed
     return Refinement(start=start, result=best, varied=varied, starts=len(seeds))
+
+
+def _better(a: Candidate, b: Candidate) -> bool:
+    """The recommendation's order: less flow; at the same flow, lower thermal resistance (beyond round-off)."""
+    if a.flow < b.flow * (1 - 1e-6):
+        return True
+    return a.flow <= b.flow * (1 + 1e-9) and a.R_th < b.R_th * (1 - 1e-6)
 
 
 def _evaluate(evaluator, kind, values: dict):
@@ -109,7 +115,6 @@ def _refine_one(seed: Candidate, varied, outcome: SearchOutcome, evaluator: Eval
     order = tuple(spec.axes)
     scale = np.array([fixed[v] for v in varied])
     bounds = [(spec.axes[v].min() / s, spec.axes[v].max() / s) for v, s in zip(varied, scale)]
-    flow_i = varied.index("flow")
     memo: dict[bytes, Candidate] = {}
 
     def candidate(x) -> Candidate:
@@ -121,7 +126,12 @@ def _refine_one(seed: Candidate, varied, outcome: SearchOutcome, evaluator: Eval
             memo[key] = candidate_from(e, tuple((k, values[k]) for k in order))
         return memo[key]
 
-    res = minimize(lambda x: x[flow_i], np.ones(len(varied)), method="SLSQP", bounds=bounds,
+    if "flow" in varied:  # least flow; with the flow fixed, the lowest resistance at that flow
+        flow_i = varied.index("flow")
+        objective = lambda x: x[flow_i]  # noqa: E731
+    else:
+        objective = lambda x: candidate(x).R_th / seed.R_th  # noqa: E731
+    res = minimize(objective, np.ones(len(varied)), method="SLSQP", bounds=bounds,
                    constraints=[{"type": "ineq", "fun": lambda x: margins(candidate(x), outcome, design)}],
                    options={"maxiter": 60, "ftol": 1e-6})
     x = np.clip(res.x, [b[0] for b in bounds], [b[1] for b in bounds])
@@ -133,7 +143,7 @@ def _refine_one(seed: Candidate, varied, outcome: SearchOutcome, evaluator: Eval
             values[v] = math.ceil(values[v] / FLOW_STEP - 1e-9) * FLOW_STEP
         else:
             values[v] = round(values[v] / LENGTH_STEP) * LENGTH_STEP
-    for _ in range(20):  # rounding may cost a little margin: step the flow up until every limit holds
+    for _ in range(20 if "flow" in varied else 1):  # rounding may cost a little margin: step the flow up
         c = candidate_from(_evaluate(evaluator, spec.kind, values), tuple((k, values[k]) for k in order))
         if np.all(margins(c, outcome, design) >= 0):
             return c
