@@ -70,9 +70,11 @@ def K_exit() -> float:
     return float(exit_normal())
 
 
-def K_return_bend(D_i: float, bend_radius: float, fd: float, Re: float) -> float:
-    """180-degree return bend, K on the tube velocity (``fluids.fittings.bend_rounded``, Rennels)."""
-    return float(bend_rounded(Di=D_i, angle=180.0, fd=fd, rc=bend_radius, Re=Re, method="Rennels"))
+def K_return_bend(D_i: float, bend_radius: float, fd, Re):
+    """180-degree return bend, K on the tube velocity (``fluids.fittings.bend_rounded``, Rennels).  ``fd`` and
+    ``Re`` may be numpy arrays (Rennels' formula is plain arithmetic in fd)."""
+    return _out(bend_rounded(Di=D_i, angle=180.0, fd=np.asarray(fd, dtype=float), rc=bend_radius, Re=Re,
+                             method="Rennels"))
 
 
 def total_pressure_drop(losses: tuple[MinorLoss, ...], rho: float) -> float:

@@ -14,17 +14,19 @@ One physics, two evaluation modes.  Every step calls the same function the one-d
 * spreading and the march for the hottest point: :class:`~coldplate.sizing.platetable.PlateTable`
   (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the check's march points);
 * minor losses: :func:`coldplate.passages.channels.loss_coefficients` (fluids' Rennels formulas).
+* tubes: the tube module's ``geometry``, ``conduction_parts`` (per base thickness), ``convection`` and
+  ``bend_loss_coefficient`` (arrays over flows), the same functions its ``back_side`` and ``minor_losses``
+  use.
 
 Candidates are given as axes that broadcast: geometry arrays of length G (count, width, depth — or
 inner diameter and passes for a tube), base thicknesses (Nt) and flows (Nq); the result arrays have shape
 (G, Nt, Nq).  Work that depends on fewer axes is done on fewer elements (friction and Nusselt on G × Nq,
 the spreading series per base thickness and h_eff node), which is what makes a million candidates a
-second possible.  Tubes take a slower path: the tube module's own ``back_side`` and ``minor_losses`` are
-called per candidate (tube searches are small).
+second possible.  Tubes loop over geometries and base thicknesses in Python (tube searches are small) and
+are vectorised over flows.
 """
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, replace
 from types import SimpleNamespace
 
@@ -32,7 +34,6 @@ import numpy as np
 
 from hydraulics.coolant import enthalpy
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
-from hydraulics.losses import total_pressure_drop
 
 from .. import conduction
 from ..design import Design
@@ -177,17 +178,13 @@ class Evaluator:
                                            geom.shape, geom.path_length, geom.heated_length, geom.heated,
                                            geom.rel_roughness, d.model)
             f = np.asarray(fr.f)
-            for q in range(Nq):
-                if not st.ok[q]:
-                    continue
-                losses = tube_passage.minor_losses(passage, d.plate, geom, float(V[q]), float(Re[q]), float(f[q]))
-                dp[g, 0, q] = (friction_pressure_drop(f[q], geom.path_length, geom.D_h, pr.rho[q], V[q])
-                               + total_pressure_drop(losses, float(pr.rho[q])))
+            dp[g, 0] = (friction_pressure_drop(f, geom.path_length, geom.D_h, pr.rho, V)
+                        + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
             V_all[g, 0], Re_all[g, 0] = V, Re
+            r_conv = tube_passage.convection(passage, geom, h)[0]
             for b, t in enumerate(base):
-                plate_t = replace(d.plate, base=float(t))
-                R_below = np.array([tube_passage.back_side(passage, plate_t, geom, float(h[q])).total
-                                    if st.ok[q] else math.nan for q in range(Nq)])
+                fixed = tube_passage.conduction_parts(passage, replace(d.plate, base=float(t)), geom)
+                R_below = sum(r for _, r in fixed) + r_conv
                 R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_plate * R_below), st.s,
                                                 single_pass=geom.single_pass)
         return self._finish(R_plate, dp, st, V_all, Re_all, (G, Nt, Nq))
