@@ -9,7 +9,6 @@ from __future__ import annotations
 
 import os
 import sys
-import tempfile
 import time
 from pathlib import Path
 
@@ -93,6 +92,8 @@ def run(args) -> int:
 
 
 def _write_atomic(path: Path, text: str) -> None:
+    import tempfile  # only when writing: keeps `coldplate check` start-up lean
+
     folder = path.resolve().parent
     try:
         fd, tmp = tempfile.mkstemp(prefix=".coldplate-", suffix=".toml", dir=folder)
