@@ -47,12 +47,13 @@ SMALL = {"count": [6, 10, 14], "width": ["1.5 mm", "2 mm", "2.5 mm"], "depth": [
 # ---------------------------------------------------------------- Pareto
 
 
+@pytest.mark.parametrize("method", ["levels", "divide", None])
 @pytest.mark.parametrize("seed", range(6))
-def test_pareto_filter_matches_the_definition(seed):
+def test_pareto_filter_matches_the_definition(seed, method):
     rng = np.random.default_rng(seed)
-    n = 300
+    n = 700  # more than one block of the divide-and-conquer method
     F = rng.random((n, 3)) if seed % 2 else rng.integers(0, 5, (n, 3)).astype(float)  # ties and copies too
-    assert np.array_equal(pareto_mask(F), pareto_mask_brute_force(F))
+    assert np.array_equal(pareto_mask(F, method), pareto_mask_brute_force(F))
 
 
 def test_pareto_edge_cases():
@@ -63,6 +64,14 @@ def test_pareto_edge_cases():
     assert pareto_mask(F).tolist() == [True, True, False, True]
     with pytest.raises(ValueError):
         pareto_mask([[1.0, 2.0]])
+    with pytest.raises(ValueError):
+        pareto_mask([[1.0, 2.0, 3.0]], method="guess")
+
+
+def test_pareto_methods_are_the_named_functions():
+    from coldplate.sizing import pareto
+
+    assert pareto.METHODS == {"levels": pareto._by_levels, "divide": pareto._divide_and_conquer}
 
 
 def test_search_front_equals_brute_force_front_on_a_small_grid():

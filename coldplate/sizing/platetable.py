@@ -25,6 +25,8 @@ from ..solve import march_points
 
 #: Nodes per decade of h_eff (see the module docstring for the error this gives).
 NODES_PER_DECADE = 16
+#: Values of s handled at once when the table's rows are formed.
+S_BLOCK = 4096
 
 
 class PlateTable:
@@ -75,7 +77,8 @@ class PlateTable:
         psi = np.empty((hi - lo + 1, s.size))
         for row, j in enumerate(range(lo, hi + 1)):
             F, G = self._node(float(t), bool(single_pass), j)
-            psi[row] = np.max(s[:, None] * F[None, :] + G[None, :], axis=1)
+            for a in range(0, s.size, S_BLOCK):  # blocks of s keep the temporary (block × march points) small
+                psi[row, a:a + S_BLOCK] = np.max(s[a:a + S_BLOCK, None] * F[None, :] + G[None, :], axis=1)
         # cubic Lagrange interpolation through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1),
         # gathered from the flattened table: element (j, q) sits at j * Nq + q
         ns = s.size

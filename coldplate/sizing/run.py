@@ -104,7 +104,9 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
     base, flow = spec.axes["base"], spec.axes["flow"]
     per_geometry = base.size * flow.size
     total = geo.size * per_geometry
-    step = max(1, (chunk or CHUNK) // per_geometry)
+    chunk = chunk or CHUNK
+    step = max(1, chunk // per_geometry)
+    q_step = flow.size if per_geometry <= chunk else max(1, chunk // base.size)  # long flow lists: split them too
     lim = spec.limits
     hours = design.supply.hours_per_day
     checks = _limit_list(lim)
@@ -117,11 +119,12 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
     done = feasible_count = 0
     interrupted = False
     try:
-        for g0 in range(0, geo.size, step):
+        for g0, q0 in ((g, q) for g in range(0, geo.size, step) for q in range(0, flow.size, q_step)):
             sl = slice(g0, min(g0 + step, geo.size))
             cols = [c[sl] for c in geo.cols]
-            e = ev.channels(*cols, base, flow) if spec.kind == "channels" else ev.tubes(*cols, base, flow)
-            quantities = _quantities(e, geo, sl, base, flow, hours)
+            fl = flow[q0:q0 + q_step]
+            e = ev.channels(*cols, base, fl) if spec.kind == "channels" else ev.tubes(*cols, base, fl)
+            quantities = _quantities(e, geo, sl, base, fl, hours)
             passes = {name: _passes(quantities[name], limit, sense) for name, limit, sense in checks}
             for name, _, sense in checks:  # where the coolant boils the rest is unknown: count it as boiling only
                 if sense != "flag":
@@ -141,7 +144,7 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
                     nearest[name] = here if old is None else (min(old, here) if sense == "max" else max(old, here))
             feasible = n_fail == 0
             feasible_count += int(feasible.sum())
-            F, idx, extra = _reduced_points(e, feasible, g0)
+            F, idx, extra = _reduced_points(e, feasible, g0, q0)
             if F.size:
                 F = np.concatenate([front_F, F])
                 idx = np.concatenate([front_idx, idx])
@@ -196,7 +199,7 @@ def _passes(value, limit, sense):
         return value <= limit + slack if sense == "max" else value >= limit - slack
 
 
-def _reduced_points(e: Evaluation, feasible, g0):
+def _reduced_points(e: Evaluation, feasible, g0, q0):
     """Feasible points as objectives (R_th, dp, flow), indices (g, b, q) and (T_face, T_out, velocity, Re),
     keeping for each (g, q) only the base with the lowest R_th: pressure drop and flow do not depend on the
     base, so the others are dominated."""
@@ -209,7 +212,7 @@ def _reduced_points(e: Evaluation, feasible, g0):
     gi, qi, b = gi[ok], qi[ok], b[ok]
     F = np.column_stack([R_best[ok], e.dp[gi, b, qi], e.flow[gi, b, qi]])
     extra = np.column_stack([a[gi, b, qi] for a in (e.T_face, e.T_out, e.velocity, e.Re)])
-    return F, np.column_stack([gi + g0, b, qi]).astype(np.int64), extra
+    return F, np.column_stack([gi + g0, b, qi + q0]).astype(np.int64), extra
 
 
 def _materialise(F, idx, extra, spec, geo, base, flow) -> list[Candidate]:
