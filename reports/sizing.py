@@ -52,10 +52,12 @@ def render_sizing_text(s, version: str = "") -> str:
     if o.pareto:
         title = f"Trade-off front: thermal resistance, pressure drop, water ({len(o.pareto)} designs)"
         out += [title, "-" * len(title)]
-        shown = o.pareto[:FRONT_ROWS]
+        picks = sorted({round(i * (len(o.pareto) - 1) / (FRONT_ROWS - 1)) for i in range(FRONT_ROWS)})
+        shown = [o.pareto[i] for i in picks] if len(o.pareto) > FRONT_ROWS else o.pareto
         out += _grid([_row(c, names, d) for c in shown], heads)
         if len(o.pareto) > FRONT_ROWS:
-            out.append(f"  ... {len(o.pareto) - FRONT_ROWS} more (least flow first; all in --format json)")
+            out.append(f"  ({len(shown)} of {len(o.pareto)} shown, spread from least to most flow; "
+                       "all in --format json)")
         out.append("")
     if s.recommended is None:
         out += ["No design found", "---------------"]
