@@ -124,33 +124,25 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
             cols = [c[sl] for c in geo.cols]
             fl = flow[q0:q0 + q_step]
             e = ev.channels(*cols, base, fl) if spec.kind == "channels" else ev.tubes(*cols, base, fl)
-            quantities = _quantities(e, geo, sl, base, fl, hours)
-            passes = {name: _passes(quantities[name], limit, sense) for name, limit, sense in checks}
-            for name, _, sense in checks:  # where the coolant boils the rest is unknown: count it as boiling only
-                if sense != "flag":
-                    passes[name] = passes[name] | ~e.solvable
-            n_fail = sum((~p).astype(np.int8) for p in passes.values())
-            n_fail = np.broadcast_to(n_fail, e.R_th.shape)
-            for name, limit, sense in checks:
-                bad = np.broadcast_to(~passes[name], e.R_th.shape)
-                failed[name] += int(bad.sum())
-                alone = bad & (n_fail == 1)
-                k = int(alone.sum())
-                if k:
-                    only[name] += k
-                    v = np.broadcast_to(quantities[name], e.R_th.shape)[alone]
-                    here = float(v.min() if sense == "max" else v.max())
-                    old = nearest[name]
-                    nearest[name] = here if old is None else (min(old, here) if sense == "max" else max(old, here))
-            feasible = n_fail == 0
-            feasible_count += int(feasible.sum())
-            F, idx, extra = _reduced_points(e, feasible, g0, q0)
+            stats, F, idx, extra = _chunk(e, _quantities(e, geo, sl, base, fl, hours), checks, g0, q0)
+            feasible_here = stats.pop("feasible")
             if F.size:
                 F = np.concatenate([front_F, F])
                 idx = np.concatenate([front_idx, idx])
                 extra = np.concatenate([front_x, extra])
                 keep = pareto_mask(F)
-                front_F, front_idx, front_x = F[keep], idx[keep], extra[keep]
+                F, idx, extra = F[keep], idx[keep], extra[keep]
+            else:
+                F, idx, extra = front_F, front_idx, front_x
+            # the chunk is done: count it (nothing above changed the running totals, so Ctrl-C leaves them whole)
+            front_F, front_idx, front_x = F, idx, extra
+            feasible_count += feasible_here
+            for name, (n_bad, n_only, near, sense) in stats.items():
+                failed[name] += n_bad
+                only[name] += n_only
+                if near is not None:
+                    old = nearest[name]
+                    nearest[name] = near if old is None else (min(old, near) if sense == "max" else max(old, near))
             done += e.R_th.size
             if progress is not None:
                 progress(done, total)
@@ -162,6 +154,30 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
     return SearchOutcome(spec=spec, candidates=total, unbuildable=geo.dropped * per_geometry, evaluated=done,
                          feasible=feasible_count, pareto=pareto, best=pareto[0] if pareto else None,
                          limits=limits, interrupted=interrupted, seconds=time.perf_counter() - t0)
+
+
+def _chunk(e: Evaluation, quantities, checks, g0, q0):
+    """One chunk's limit counts and its feasible points: ({limit: (failed, failed only it, nearest, sense)} with
+    "feasible" → count, then the points as in :func:`_reduced_points`)."""
+    passes = {name: _passes(quantities[name], limit, sense) for name, limit, sense in checks}
+    for name, _, sense in checks:  # where the coolant boils the rest is unknown: count it as boiling only
+        if sense != "flag":
+            passes[name] = passes[name] | ~e.solvable
+    shape = e.R_th.shape
+    n_fail = np.broadcast_to(sum((~p).astype(np.int8) for p in passes.values()), shape)
+    stats = {}
+    for name, _, sense in checks:
+        bad = np.broadcast_to(~passes[name], shape)
+        alone = bad & (n_fail == 1)
+        k = int(alone.sum())
+        near = None
+        if k:
+            v = np.broadcast_to(quantities[name], shape)[alone]
+            near = float(v.min() if sense == "max" else v.max())
+        stats[name] = (int(bad.sum()), k, near, sense)
+    feasible = n_fail == 0
+    stats["feasible"] = int(feasible.sum())
+    return (stats, *_reduced_points(e, feasible, g0, q0))
 
 
 def _limit_list(lim):
