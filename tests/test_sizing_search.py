@@ -89,6 +89,9 @@ def test_search_front_equals_brute_force_front_on_a_small_grid():
     got = np.array([[c.R_th, c.dp, c.flow] for c in outcome.pareto])
     assert outcome.feasible == int(ok.sum())
     assert sorted(map(tuple, front.round(12))) == sorted(map(tuple, got.round(12)))
+    # the grid's pick is the least flow, then the lowest R_th, then the lowest dp of every feasible candidate
+    least = min(map(tuple, F[:, [2, 0, 1]]))
+    assert (outcome.best.flow, outcome.best.R_th, outcome.best.dp) == pytest.approx(least, rel=1e-12)
 
 
 # ---------------------------------------------------------------- known-good design
