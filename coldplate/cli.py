@@ -1,4 +1,4 @@
-"""Command line: ``coldplate check FILE [--format text|json]``.
+"""Command line: ``coldplate check FILE [--format text|json]`` and ``coldplate size FILE`` (coldplate.sizing).
 
 Only wiring: read the file, solve, format, set the exit status.  Bad input prints
 one line on stderr and exits with status 2; nothing is written half-way.
@@ -18,12 +18,19 @@ def _parser() -> argparse.ArgumentParser:
     c = sub.add_parser("check", help="solve a design file and print the design check")
     c.add_argument("file", help="design file (TOML)")
     c.add_argument("--format", choices=("text", "json"), default="text", help="output format (default: text)")
+    from .sizing.command import add_parser as add_size_parser
+
+    add_size_parser(sub)
     return p
 
 
 def main(argv=None) -> int:
     args = _parser().parse_args(argv)
     try:
+        if args.command == "size":
+            from .sizing.command import run as run_size
+
+            return run_size(args)
         from . import __version__
         from .solve import check_file
 

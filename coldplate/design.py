@@ -164,6 +164,11 @@ DEFAULT_PLENUM_LENGTH = 0.005
 
 def load_design(path: str | Path) -> Design:
     """Read and check a design file; raise :class:`DesignError` on any problem."""
+    return design_from_dict(load_data(path))
+
+
+def load_data(path: str | Path) -> dict:
+    """A design file's TOML data as read, not yet checked (feature tables read their own parts from it)."""
     path = Path(path)
     try:
         text = path.read_text(encoding="utf-8")
@@ -171,26 +176,32 @@ def load_design(path: str | Path) -> Design:
         raise DesignError("", f"design file {str(path)!r} does not exist") from None
     except (OSError, UnicodeDecodeError) as exc:
         raise DesignError("", f"cannot read design file {str(path)!r}: {exc}") from None
-    return parse_design(text)
+    return _toml(text)
 
 
 def parse_design(text: str) -> Design:
     """Parse design-file text (TOML)."""
+    return design_from_dict(_toml(text))
+
+
+def _toml(text: str) -> dict:
     try:
-        data = tomllib.loads(text)
+        return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise DesignError("", f"not a valid TOML file: {exc}") from None
-    return design_from_dict(data)
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
 _OPTIONAL = ("module", "circuit")
+#: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
+_FEATURE_TABLES = ("search",)
 
 
 def design_from_dict(data: dict) -> Design:
-    unknown = sorted(set(data) - set(_TOP) - set(_OPTIONAL))
+    known = _TOP + _OPTIONAL + _FEATURE_TABLES
+    unknown = sorted(set(data) - set(known))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP + _OPTIONAL)})")
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(known)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
