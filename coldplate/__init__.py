@@ -5,6 +5,10 @@ Python API::
     from coldplate import check_file
     result = check_file("examples/reagent-block-channels.toml")
     result.R_th, result.T_face_max, result.findings
+
+    from coldplate import size_file
+    s = size_file("examples/laser-mount-sizing.toml")
+    s.recommended, s.why, s.check.findings, s.text
 """
 __version__ = "0.1.0"
 
@@ -21,3 +25,11 @@ def solve(design):
     from .solve import solve as _solve
 
     return _solve(design)
+
+
+def size_file(path):
+    """Read a design file with a ``[search]`` table, search it and recommend a plate (``coldplate size``);
+    returns a frozen :class:`coldplate.sizing.recommend.SizingResult`."""
+    from .sizing.recommend import size_file as _size_file
+
+    return _size_file(path)

@@ -1,5 +1,6 @@
 """Command line: ``coldplate check FILE [--format text|json] [--units si|us]``,
-``coldplate report FILE -o OUT.html|OUT.md`` and ``coldplate curves FILE [-o OUT.csv|OUT.json]``.
+``coldplate report FILE -o OUT.html|OUT.md``, ``coldplate curves FILE [-o OUT.csv|OUT.json]`` and
+``coldplate size FILE`` (coldplate.sizing).
 
 Only wiring: read the file, solve, format, set the exit status.  Bad input prints
 one line on stderr and exits with status 2; nothing is written half-way.
@@ -33,6 +34,9 @@ def _parser() -> argparse.ArgumentParser:
     k.add_argument("--format", choices=("csv", "json"), help="output format (default: from the file name, else csv)")
     _flow_range_options(k)
     k.add_argument("--force", action="store_true", help="replace an existing file")
+    from .sizing.command import add_parser as add_size_parser
+
+    add_size_parser(sub)
     return p
 
 
@@ -42,18 +46,18 @@ def _flow_range_options(p) -> None:
     p.add_argument("--points", type=int, default=25, help="flows on the curves (default: 25)")
 
 
-def _flows(args, design):
-    """The flows for the curves: log-spaced over the asked range, with the design flow."""
+def _flows(args, flow):
+    """The flows for the curves: log-spaced over the asked range, with the operating flow [m^3/s]."""
     from .curves import DEFAULT_SPAN, MIN_POINTS, default_flows
     from .units import parse_value
 
     if not MIN_POINTS <= args.points <= 500:
         raise DesignError("--points", f"must be between {MIN_POINTS} and 500")
-    lo = parse_value(args.min_flow, "flow", "--min-flow") if args.min_flow else design.flow * DEFAULT_SPAN[0]
-    hi = parse_value(args.max_flow, "flow", "--max-flow") if args.max_flow else design.flow * DEFAULT_SPAN[1]
+    lo = parse_value(args.min_flow, "flow", "--min-flow") if args.min_flow else flow * DEFAULT_SPAN[0]
+    hi = parse_value(args.max_flow, "flow", "--max-flow") if args.max_flow else flow * DEFAULT_SPAN[1]
     if not 0 < lo < hi:
         raise DesignError("--min-flow", "must be positive and below --max-flow")
-    return default_flows(design, (lo / design.flow, hi / design.flow), args.points)
+    return default_flows(flow, (lo / flow, hi / flow), args.points)
 
 
 def _report(args, version) -> str:
@@ -77,7 +81,7 @@ def _report(args, version) -> str:
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
     result = solve(parse_design(text))
-    curve = flow_curve(result.design, _flows(args, result.design), load=result.load)
+    curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
     rep = make_report(result, curve, fit_compact(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
     written = write_report(rep, args.output, args.force)
@@ -97,8 +101,8 @@ def _curves(args, version) -> str:
 
         check_targets([args.output], args.force)
     design = load_design(args.file)
-    load = solve(design).load  # the design's load, or the modules' solved hot-side heat
-    curve = flow_curve(design, _flows(args, design), load=load)
+    here = solve(design)  # the operating point: modules set the plate's load, a supply circuit its flow
+    curve = flow_curve(design, _flows(args, here.V_dot), load=here.load, flow=here.V_dot)
     fit = fit_compact(curve)
     if fmt == "json":
         from reports.curves_out import render_curves_json
@@ -119,6 +123,10 @@ def _curves(args, version) -> str:
 def main(argv=None) -> int:
     args = _parser().parse_args(argv)
     try:
+        if args.command == "size":
+            from .sizing.command import run as run_size
+
+            return run_size(args)
         from . import __version__
 
         if args.command == "report":

@@ -188,7 +188,8 @@ def spreading_MCY(a, b, c, d, t, k, h, n_terms=200):
     (A_n as A_m with δ, d, Y_c).  Returns a :class:`Spreading` with R_1D =
     (t/k + 1/h)/(ab), R_mean (source-mean rise per watt, 1-D part included),
     R_spreading_mean = R_mean - R_1D and R_centroid (rise at the source centre)
-    [K/W].  m, n run 1..n_terms; with the default 200 the truncation error
+    [K/W].  m, n run 1..n_terms (the odd terms vanish for the centred source and are skipped); with the
+    default 200 the truncation error
     measured on the reference case (10 mm source on 50 mm plate) is below
     1e-5 relative on R_mean and about 1e-4 on R_centroid.
     """
@@ -196,7 +197,9 @@ def spreading_MCY(a, b, c, d, t, k, h, n_terms=200):
     if min(a, b, c, d, t, k, h) <= 0.0 or c > a or d > b:
         raise ValueError("spreading_MCY needs positive sizes, k, h and c <= a, d <= b")
     H = h / k
-    idx = np.arange(1, int(n_terms) + 1, dtype=float)
+    # The source is centred, so cos(λ a/2) = cos(mπ/2) = 0 for every odd m (and likewise n): only the even
+    # terms are summed, a quarter of the double series' work for the same sums.
+    idx = np.arange(2, int(n_terms) + 1, 2, dtype=float)
     lam, dl = idx * math.pi / a, idx * math.pi / b
     Xc, Yc = a / 2.0, b / 2.0
     A0 = (t / k + 1.0 / h) / (a * b)

@@ -71,25 +71,29 @@ class CompactFit:
         return self.R0 + self.c * V ** (-self.n)
 
 
-def default_flows(design, span=DEFAULT_SPAN, points: int = DEFAULT_POINTS) -> tuple[float, ...]:
-    """Log-spaced flows from span[0] to span[1] times the design flow, with the design flow itself."""
+def default_flows(flow: float, span=DEFAULT_SPAN, points: int = DEFAULT_POINTS) -> tuple[float, ...]:
+    """Log-spaced flows from span[0] to span[1] times ``flow`` [m^3/s] (the operating flow), with it included."""
     lo, hi = span
-    flows = [v for v in np.geomspace(design.flow * lo, design.flow * hi, points).tolist()
-             if abs(v / design.flow - 1.0) > 1e-9]  # the design flow itself goes in exactly once
-    flows.append(float(design.flow))
+    flows = [v for v in np.geomspace(flow * lo, flow * hi, points).tolist()
+             if abs(v / flow - 1.0) > 1e-9]  # the operating flow itself goes in exactly once
+    flows.append(float(flow))
     return tuple(sorted(flows))
 
 
-def flow_curve(design, flows=None, load: float | None = None) -> FlowCurve:
-    """Solve the plate at each flow [m^3/s] (the default span when None) at one heat load [W].
+def flow_curve(design, flows=None, load: float | None = None, flow: float | None = None) -> FlowCurve:
+    """Solve the plate at each flow [m^3/s] (the default span around the design point when None) at one load [W].
 
-    ``load`` defaults to the design's; with thermoelectric modules (whose hot-side heat is solved, not given)
-    pass the solved result's ``load``: the curve then holds the plate at the operating point's heat.
+    ``load`` defaults to the design's and ``flow`` (the design point) to the design's flow.  Where the solve
+    sets them (thermoelectric modules give the plate's load; a supply circuit gives the flow), pass the solved
+    result's ``load`` and ``V_dot``: the curve then holds the plate at the operating point's heat.
     """
     from .solve import solve_plate
 
+    flow = design.flow if flow is None else float(flow)
+    if flow is None:
+        raise DesignError("[coolant] flow", "no flow given: the curves need the operating flow of the solved design")
     if flows is None:
-        flows = default_flows(design)
+        flows = default_flows(flow)
     flows = sorted(float(v) for v in flows)
     if not flows or any(not math.isfinite(v) or v <= 0 for v in flows):
         raise DesignError("flows", "must be positive, finite volumetric flows")
@@ -106,7 +110,7 @@ def flow_curve(design, flows=None, load: float | None = None) -> FlowCurve:
         rows.append((V, r.R_th, r.dp, r.T_face_max, r.T_out, r.water_use_m3_per_year))
     if not rows:
         raise DesignError("flows", "no flow in the range gives a liquid coolant: " + skipped[0][1])
-    here = solve_plate(design, load=load)
+    here = solve_plate(design, flow=flow, load=load)
     cols = list(zip(*rows))
     return FlowCurve(V_dot=tuple(cols[0]), R_th=tuple(cols[1]), dp=tuple(cols[2]), T_face=tuple(cols[3]),
                      T_out=tuple(cols[4]), water_m3_per_year=tuple(cols[5]), load=here.load,

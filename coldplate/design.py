@@ -14,9 +14,13 @@ from pathlib import Path
 
 from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
 
+from hydraulics.circuit import Circuit
+
 from . import materials
+from .circuit_design import read_circuit, read_supply_extras
 from .errors import DesignError, StateError
 from .fields import Table
+from .module_design import Module, read_module
 from .units import parse_value
 
 # ---------------------------------------------------------------- dataclasses
@@ -84,6 +88,17 @@ class Supply:
     static_pressure: float | None  #: gauge [Pa] (no-flow pressure at the supply)
     discharge_limit: float  #: [K]
     discharge: str  #: "drain" (once-through) or "return" (back to a loop)
+    # supply side (coldplate/circuit_design.py reads these; README "[circuit]")
+    drive: str = "flow"  #: "flow" (given), "pressure" (static supply pressure) or "pump"
+    pump_flow: tuple[float, ...] = ()  #: pump table flows [m^3/s]
+    pump_rise: tuple[float, ...] = ()  #: pump table head [m] or pressure rise [Pa]
+    pump_rise_is_head: bool = True  #: pump_rise in metres of coolant (True) or in Pa
+    face_limit: float | None = None  #: hottest mounting face allowed [K]
+    tariff: float | None = None  #: water price per m^3 [currency/m^3]
+    currency: str | None = None  #: three-letter code the user gave
+    chiller_power: float | None = None  #: electrical power of a recirculating chiller [W]
+    electricity_tariff: float | None = None  #: [currency/J]
+    chiller_price: float | None = None  #: [currency]
 
     @property
     def once_through(self) -> bool:
@@ -123,10 +138,12 @@ class Design:
     passage: Channels | Tube | Cavity
     coolant: Coolant
     inlet_temperature: float  #: [K]
-    flow: float  #: [m^3/s]
+    flow: float | None  #: [m^3/s]; None when the supply sets it (drive "pressure" or "pump")
     supply: Supply
     room: Room
     model: Model
+    module: Module | None = None  #: thermoelectric modules on the plate, from [module]
+    circuit: Circuit | None = None  #: the lines around the plate ([circuit])
 
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
@@ -147,6 +164,11 @@ DEFAULT_PLENUM_LENGTH = 0.005
 
 def load_design(path: str | Path) -> Design:
     """Read and check a design file; raise :class:`DesignError` on any problem."""
+    return design_from_dict(load_data(path))
+
+
+def load_data(path: str | Path) -> dict:
+    """A design file's TOML data as read, not yet checked (feature tables read their own parts from it)."""
     path = Path(path)
     try:
         text = path.read_text(encoding="utf-8")
@@ -154,25 +176,32 @@ def load_design(path: str | Path) -> Design:
         raise DesignError("", f"design file {str(path)!r} does not exist") from None
     except (OSError, UnicodeDecodeError) as exc:
         raise DesignError("", f"cannot read design file {str(path)!r}: {exc}") from None
-    return parse_design(text)
+    return _toml(text)
 
 
 def parse_design(text: str) -> Design:
     """Parse design-file text (TOML)."""
+    return design_from_dict(_toml(text))
+
+
+def _toml(text: str) -> dict:
     try:
-        data = tomllib.loads(text)
+        return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise DesignError("", f"not a valid TOML file: {exc}") from None
-    return design_from_dict(data)
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
+_OPTIONAL = ("module", "circuit")
+#: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
+_FEATURE_TABLES = ("search",)
 
 
 def design_from_dict(data: dict) -> Design:
-    unknown = sorted(set(data) - set(_TOP))
+    known = _TOP + _OPTIONAL + _FEATURE_TABLES
+    unknown = sorted(set(data) - set(known))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(_TOP)})")
+        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(known)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
@@ -181,14 +210,20 @@ def design_from_dict(data: dict) -> Design:
             raise DesignError(f"[{name}]", "table is missing")
 
     plate = _plate(Table(data["plate"], "plate"))
-    heat = _heat(Table(data["heat"], "heat"), plate)
+    module = read_module(data["module"]) if "module" in data else None
+    heat = _heat(Table(data["heat"], "heat"), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface"))
     passage = _passage(Table(data["passage"], "passage"), plate)
     supply = _supply(Table(data["supply"], "supply"))
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
     room = _room(Table(data["room"], "room"))
     model = _model(Table(data.get("correlations", {}), "correlations"))
-    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model)
+    circuit = read_circuit(data["circuit"]) if "circuit" in data else None
+    if supply.drive != "flow" and circuit is None:
+        raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
+                                            "supply pushes water through)")
+    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
+                  module=module, circuit=circuit)
 
 
 def _plate(t: Table) -> Plate:
@@ -210,8 +245,12 @@ def _plate(t: Table) -> Plate:
     return Plate(key, k, length, width, base, rating)
 
 
-def _heat(t: Table, plate: Plate) -> Heat:
-    load = t.value("load", "power", low=0, high=1e5)
+def _heat(t: Table, plate: Plate, module: bool = False) -> Heat:
+    if module and t.has("load"):
+        raise DesignError(t.field("load"), "remove it: with a [module] table the plate's load is the modules' "
+                                           "hot-side heat, and the cold-side load is [module] cold_load")
+    # With modules the plate's load is solved, not given: NaN here, the solve passes the real load.
+    load = math.nan if module else t.value("load", "power", low=0, high=1e5)
     fp = t.raw("footprint")
     if not isinstance(fp, list) or len(fp) != 2:
         raise DesignError(t.field("footprint"), "must be an array of two lengths, along the flow and across, e.g. [\"40 mm\", \"40 mm\"]")
@@ -315,6 +354,7 @@ def _supply(t: Table) -> Supply:
     limit = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15,
                     default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
+    extras = read_supply_extras(t, source, discharge, p)
     if source == "potable" and discharge == "return":
         raise DesignError(t.field("discharge"), "drinking water that has been through equipment must never return "
                                                 "to the drinking-water system; potable water runs to a drain")
@@ -322,7 +362,7 @@ def _supply(t: Table) -> Supply:
         raise DesignError(t.field("discharge"), "a recirculating supply returns its water; use source = \"process\" "
                                                 "or \"potable\" for water that runs to a drain")
     t.finish()
-    return Supply(source, hours, float(days), p, limit, discharge)
+    return Supply(source, hours, float(days), p, limit, discharge, **extras)
 
 
 def _coolant(t: Table, supply: Supply):
@@ -341,7 +381,10 @@ def _coolant(t: Table, supply: Supply):
         coolant.check_liquid(T_in, supply.line_pressure)
     except _CoolantStateError as exc:
         raise StateError(t.field("inlet_temperature"), str(exc)) from None
-    flow = t.value("flow", "flow", low=0, high=0.01)
+    if supply.drive != "flow" and t.has("flow"):
+        raise DesignError(t.field("flow"), f"the supply sets the flow (drive = {supply.drive!r}); remove this key "
+                                           "or use drive = \"flow\"")
+    flow = t.value("flow", "flow", required=supply.drive == "flow", low=0, high=0.01)
     t.finish()
     return coolant, T_in, flow
 

@@ -113,13 +113,16 @@ def cross_connection(r):
         return
     hazard = "high hazard (contamination)" if d.coolant.has_additive else "low hazard (pollution) at least"
     continuous = d.supply.hours_per_day > AVB_MAX_HOURS
+    held = d.circuit is not None and d.circuit.outlet_side_held()  # a valve or back pressure in the circuit
     if d.coolant.has_additive:
         device = ("a reduced-pressure principle assembly (ASSE 1013) or an air gap: additives such as glycol "
                   "or inhibitors make this a high hazard, for which a vacuum breaker is not enough")
-    elif continuous:
-        device = (f"a pressure vacuum breaker (ASSE 1020) or a reduced-pressure principle assembly: the supply is "
-                  f"under pressure {d.supply.hours_per_day:g} h a day, longer than an atmospheric vacuum breaker "
-                  "(ASSE 1001) may be, and that device guards against back-siphonage only")
+    elif continuous or held:
+        why = (f"the supply is under pressure {d.supply.hours_per_day:g} h a day, longer than an atmospheric vacuum "
+               "breaker (ASSE 1001) may be" if continuous else "a valve or back pressure in the circuit can hold the "
+               "outlet side under pressure, which an atmospheric vacuum breaker (ASSE 1001) may not be")
+        device = (f"a pressure vacuum breaker (ASSE 1020) or a reduced-pressure principle assembly: {why}, and that "
+                  "device guards against back-siphonage only")
     else:
         device = ("at least an atmospheric vacuum breaker (ASSE 1001), mounted above the highest point downstream "
                   "with no shut-off valve after it; if a valve or anything else can hold the outlet side under "
@@ -131,11 +134,13 @@ def cross_connection(r):
         "back into the building's drinking water.",
         f"Fit backflow protection at the supply: {device}. Never return cooling water to the drinking-water "
         "system. " + DEFER)
+    outlet = d.circuit.outlet_diameter if d.circuit is not None else None
+    here = f" (here {max(2 * outlet, AIR_GAP_MIN) * 1e3:.0f} mm)" if outlet else ""
     yield Finding(
         "drain-air-gap", "caution",
         "The discharge goes to a drain: a hose pushed into the drain can siphon waste water back.",
         f"Discharge through an air gap of at least twice the outlet's diameter and not less than "
-        f"{AIR_GAP_MIN * 1e3:.0f} mm above the drain's flood rim (ASME A112.1.2). " + DEFER)
+        f"{AIR_GAP_MIN * 1e3:.0f} mm above the drain's flood rim (ASME A112.1.2){here}. " + DEFER)
     yield Finding(
         "once-through-restriction", "note",
         f"Once-through cooling with drinking water uses {r.water_use_L_per_day:,.0f} L a day here; some "
@@ -262,3 +267,10 @@ def cavity_distribution(r):
 
 RULES = (condensation, freezing, boiling, cross_connection, discharge, velocity, pressure, metals, electrical,
          ranges, cavity_distribution)
+
+from .findings_module import MODULE_RULES  # noqa: E402  (thermoelectric modules; reads DEFER from here)
+
+RULES += MODULE_RULES
+
+from .findings_supply import RULES as SUPPLY_RULES  # noqa: E402 (they read DEFER and the limits above)
+RULES += SUPPLY_RULES

@@ -104,6 +104,12 @@ ROUGHNESS: dict[str, Entry] = {e.key: e for e in (
           "common practice: plastics are hydraulically smooth in Moody's chart (0 in the "
           "table above); 0.0015 mm is the usual design value for drawn plastic tubing",
           "a corrugated or reinforced hose is rougher; measure its pressure drop"),
+    Entry("galvanized-steel", 1.5e-4, 1.5e-4, 1.5e-4, "m", _MOODY,
+          "galvanized iron 0.15 mm: older building supply pipe ahead of the lab tap"),
+    Entry("pex-tubing", 7.0e-6, 1.5e-6, 7.0e-6, "m",
+          "common practice: cross-linked polyethylene tubing is usually taken as 0.007 mm in plumbing "
+          "design tables; from memory",
+          "hydraulically smooth at the flows of a cold plate; the fittings' reduced bores matter more"),
     Entry("machined-aluminium", 1.6e-6, 0.8e-6, 3.2e-6, "m",
           "common practice: milled surface Ra 0.8-3.2 µm (N6-N8), 1.6 µm typical",
           "Ra taken as the absolute roughness; the equivalent sand-grain roughness can be "

@@ -8,6 +8,8 @@ from hydraulics.losses import MinorLoss
 
 from .design import Design
 from .passages.base import Geometry
+from .thermoelectric_result import ModuleResult
+from .supply_result import CircuitResult, PlanningResult
 
 SEVERITIES = ("danger", "warning", "caution", "note")  #: most severe first
 
@@ -85,3 +87,6 @@ class Result:
     assumptions: tuple[str, ...]
     load: float  #: heat into the plate [W]
     findings: tuple[Finding, ...] = field(default=())
+    module: ModuleResult | None = None  #: thermoelectric modules solved with the plate (from [module])
+    circuit: CircuitResult | None = None  #: the operating point in its circuit ([circuit])
+    planning: PlanningResult | None = None  #: least flow, water and money per year (once-through)

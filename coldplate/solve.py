@@ -22,11 +22,12 @@ from __future__ import annotations
 
 import math
 from dataclasses import replace
+from functools import partial
 
 import numpy as np
 
 from hydraulics.coolant import StateError as _CoolantStateError
-from hydraulics.coolant import enthalpy
+from hydraulics.coolant import SATURATION_MARGIN_K, enthalpy
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
@@ -49,9 +50,36 @@ def check_file(path) -> Result:
 
 
 def solve(design: Design) -> Result:
-    """Solve the design check for one design: the plate at the design's flow and load, then the findings."""
-    result = solve_plate(design)
+    """Solve the design check for one design: the plate at the design's flow and load, then the findings.
+
+    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
+    get the water planning (coldplate/supply_stage.py).  With thermoelectric modules the plate's load is
+    their hot-side heat (coldplate/module_solve.py).
+    """
+    from .supply_stage import supply_stage  # imports scipy only when a circuit or planning is asked for
+
+    if design.module is None:
+        flow, attach = supply_stage(design)
+        result = attach(solve_plate(design, flow))
+    else:
+        result = _solve_with_modules(design, supply_stage)
     return replace(result, findings=collect_findings(result))
+
+
+def _solve_with_modules(design: Design, supply_stage) -> Result:
+    """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
+    properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
+    flow, then the supply at the modules' real heat and the modules once more at its flow."""
+    from .module_solve import solve_with_module
+
+    flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
+    if flow is not None:
+        first = solve_with_module(design, partial(solve_plate, flow=flow))
+        flow, attach = supply_stage(design, load=first.load)
+    result = solve_with_module(design, partial(solve_plate, flow=flow))
+    if flow is None:  # no circuit: planning (if any) at the modules' real heat
+        _, attach = supply_stage(design, load=result.load)
+    return attach(result)
 
 
 def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:
@@ -84,16 +112,11 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         _check_outlet(T_out, T_boil, coolant, p)
         T_mean = 0.5 * (T_in + T_out)
         pr = coolant.props(T_mean, p)
-        V = m_dot / (pr.rho * total_area)
-        Re = pr.rho * V * geom.D_h / pr.mu
-        fr = darcy_friction(Re, geom.path_length, geom.D_h, geom.alpha, geom.shape, geom.rel_roughness)
         mu_ratio = 1.0
         if d.model.laminar == "sieder-tate":
             mu_ratio = pr.mu / coolant.props(min(T_wall, coolant.upper_limit(p) - 0.5), p).mu
-        cv = nusselt(Re, pr.Pr, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
-                     laminar=d.model.laminar, turbulent=d.model.turbulent,
-                     heated=geom.heated, mu_ratio=mu_ratio)
-        h = float(cv.Nu) * pr.k / geom.D_h
+        V, Re, fr, cv, h = passage_flow(m_dot, pr, total_area, geom.D_h, geom.alpha, geom.shape, geom.path_length,
+                                        geom.heated_length, geom.heated, geom.rel_roughness, d.model, mu_ratio)
         back = module.back_side(d.passage, d.plate, geom, h)
         conv = dict(back.parts)["convection"]
         # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
@@ -128,8 +151,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     n = d.model.segments
     x = np.linspace(0.0, d.plate.length, n + 1)
     T_bulk, T_top = top(x)
-    x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
-    xf = np.linspace(x0, x0 + d.heat.footprint_length, 4 * n + 1)  # the march over the footprint
+    xf = march_points(d.plate.length, d.heat.footprint_length, n)  # the march over the footprint
     T_bulk_f, T_top_f = top(xf)
     i_hot = int(np.argmax(T_top_f))
     x_hot = float(xf[i_hot])
@@ -147,7 +169,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
 
     # --- pressure drop
     losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
-    dp_f = float(fr.f) * geom.path_length / geom.D_h * 0.5 * pr.rho * V**2
+    dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
     dp = dp_f + total_pressure_drop(losses, pr.rho)
 
     # --- room air
@@ -179,9 +201,39 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     return result
 
 
+def passage_flow(m_dot, pr, total_area, D_h, alpha, shape, path_length, heated_length, heated, rel_roughness,
+                 model, mu_ratio=1.0):
+    """The passage at an operating point: velocity [m/s], Reynolds number, Darcy friction (FrictionResult),
+    Nusselt number (ConvectionResult) and heat transfer coefficient [W/(m² K)].
+
+    V = ṁ / (ρ A_total), Re = ρ V D_h / μ, h = Nu k / D_h.  ``pr`` has rho, mu, k, Pr; every argument may be a
+    float or a numpy array (the sizing evaluator passes arrays of candidates), ``model`` the design's
+    correlation choices.  The one formula for both the check and the sizing search.
+    """
+    V = m_dot / (pr.rho * total_area)
+    Re = pr.rho * V * D_h / pr.mu
+    fr = darcy_friction(Re, path_length, D_h, alpha, shape, rel_roughness)
+    cv = nusselt(Re, pr.Pr, heated_length, D_h, alpha, shape=shape, laminar=model.laminar,
+                 turbulent=model.turbulent, heated=heated, mu_ratio=mu_ratio)
+    h = cv.Nu * pr.k / D_h
+    return V, Re, fr, cv, h
+
+
+def friction_pressure_drop(f, length, D_h, rho, V):
+    """Darcy-Weisbach: dp = f (L / D_h) ρ V² / 2 [Pa] (floats or arrays)."""
+    return f * length / D_h * 0.5 * rho * V**2
+
+
+def march_points(plate_length: float, footprint_length: float, segments: int) -> np.ndarray:
+    """Where the march looks for the hottest point: 4·segments + 1 points over the centred footprint [m]
+    (shared with the sizing evaluator, so both take the maximum over the same points)."""
+    x0 = 0.5 * (plate_length - footprint_length)
+    return np.linspace(x0, x0 + footprint_length, 4 * segments + 1)
+
+
 def _check_outlet(T_out, T_boil, coolant, p):
     """The outlet must stay liquid and within the property data; otherwise the flow is too small."""
-    if not math.isfinite(T_out) or T_out >= T_boil:
+    if not math.isfinite(T_out) or T_out >= T_boil - SATURATION_MARGIN_K:
         raise DesignError("[coolant] flow", f"is too small for the load: the coolant would reach boiling "
                                             f"({T_boil - 273.15:.1f} degC at {p / 1e3:.0f} kPa absolute) before the outlet")
     try:

@@ -53,6 +53,14 @@ KINDS = {
     "fraction": "[]",
     "time": "[time]",
     "velocity": "[length] / [time]",
+    "current": "[current]",
+    "voltage": "[electric_potential]",
+    "electrical_resistance": "[electric_potential] / [current]",
+    "thermal_resistance": "[temperature] / [power]",
+    "thermal_conductance": "[power] / [temperature]",
+    "seebeck": "[electric_potential] / [temperature]",
+    "volume": "[length] ** 3",
+    "energy": "[energy]",
 }
 
 _SI_UNIT = {
@@ -67,6 +75,14 @@ _SI_UNIT = {
     "fraction": "dimensionless",
     "time": "s",
     "velocity": "m/s",
+    "current": "A",
+    "voltage": "V",
+    "electrical_resistance": "ohm",
+    "thermal_resistance": "K/W",
+    "thermal_conductance": "W/K",
+    "seebeck": "V/K",
+    "volume": "m**3",
+    "energy": "J",
 }
 
 _EXAMPLE = {
@@ -81,6 +97,14 @@ _EXAMPLE = {
     "fraction": "'55 %'",
     "time": "'8 h'",
     "velocity": "'1 m/s'",
+    "current": "'4.5 A'",
+    "voltage": "'15 V'",
+    "electrical_resistance": "'1.9 ohm'",
+    "thermal_resistance": "'0.05 K/W'",
+    "thermal_conductance": "'0.5 W/K'",
+    "seebeck": "'0.05 V/K'",
+    "volume": "'1 m**3'",
+    "energy": "'1 kWh'",
 }
 
 

@@ -138,7 +138,7 @@ class Coolant:
                 f"(up to {tmax - 273.15:.1f} degC)"
             )
         tb = self.boiling_point(p)
-        if T >= tb:
+        if T >= tb - SATURATION_MARGIN_K:
             raise StateError(
                 f"{self.label()} boils at {tb - 273.15:.1f} degC at {p / 1e3:.0f} kPa absolute; "
                 f"{T - 273.15:.1f} degC would be steam, not liquid"
@@ -151,6 +151,11 @@ class Coolant:
         """
         self.check_liquid(T, p)
         return _props(self.backend, round(T, 6), round(p, 1))
+
+
+#: A liquid this close to its boiling point [K] is treated as boiling: it boils on a heated wall anyway,
+#: and CoolProp's IF97 refuses states within a few thousandths of a percent of saturation.
+SATURATION_MARGIN_K = 0.1
 
 
 @lru_cache(maxsize=4096)

@@ -28,6 +28,10 @@ RE_TURBULENT_START = 1.0e4
 # Odd series indices for the exact rectangular-duct solution; the terms fall as
 # n**-5, so 101 terms leave a truncation error far below 1e-12.
 _ODD_N = np.arange(1, 202, 2, dtype=float)
+# For alpha <= 1, tanh(n pi / (2 alpha)) is 1 to double precision once n pi / 2 > 19.1 (n >= 13): those terms
+# are summed once here, so an array of many aspect ratios costs 6 tanh per element, not 101.
+_HEAD_N = _ODD_N[_ODD_N < 13]
+_TAIL_SUM = float(np.sum(1.0 / _ODD_N[_ODD_N >= 13] ** 5))
 
 
 def _out(x):
@@ -120,8 +124,8 @@ def fRe_rectangular_Shah_London(alpha):
     safe = np.where(a > 0, a, 1.0)
     # tanh(n pi / (2 alpha)) -> 1 as alpha -> 0; the series term is multiplied
     # by alpha anyway, so alpha = 0 needs no special case beyond avoiding 1/0.
-    t = np.where(a > 0, np.tanh(_ODD_N * math.pi / (2.0 * safe)), 1.0)
-    series = np.sum(t / _ODD_N**5, axis=-1)
+    t = np.where(a > 0, np.tanh(_HEAD_N * math.pi / (2.0 * safe)), 1.0)
+    series = np.sum(t / _HEAD_N**5, axis=-1) + _TAIL_SUM
     fanning = 24.0 / ((1.0 + alpha) ** 2 * (1.0 - 192.0 * alpha / math.pi**5 * series))
     return _out(4.0 * fanning)
 

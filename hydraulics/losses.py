@@ -11,9 +11,9 @@ Resistance*, for the sudden expansion (Borda-Carnot).
 """
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
+import numpy as np
 from fluids.fittings import bend_rounded, contraction_sharp, diffuser_sharp, exit_normal
 
 
@@ -30,30 +30,39 @@ class MinorLoss:
         return self.K * 0.5 * rho * self.velocity**2
 
 
-def _equivalent_diameter(area: float) -> float:
-    return math.sqrt(4.0 * area / math.pi)
+def _equivalent_diameter(area):
+    return np.sqrt(4.0 * np.asarray(area, dtype=float) / np.pi)
 
 
-def K_sudden_contraction(area_upstream: float, area_downstream: float) -> float:
+def _out(x):
+    x = np.asarray(x, dtype=float)
+    return float(x) if x.ndim == 0 else x
+
+
+def K_sudden_contraction(area_upstream, area_downstream):
     """Sharp-edged contraction, K on the downstream (small) velocity [-].
 
     Calls ``fluids.fittings.contraction_sharp`` (Rennels method) with the
-    equivalent round diameters of the two areas.
+    equivalent round diameters of the two areas; 0 where there is no
+    contraction.  Floats or numpy arrays (the Rennels formula is plain arithmetic).
     """
-    if area_downstream >= area_upstream:
-        return 0.0
-    return float(contraction_sharp(_equivalent_diameter(area_upstream), _equivalent_diameter(area_downstream)))
+    up = np.asarray(area_upstream, dtype=float)
+    down = np.minimum(np.asarray(area_downstream, dtype=float), up)
+    K = contraction_sharp(_equivalent_diameter(up), _equivalent_diameter(down))
+    return _out(np.where(down >= up, 0.0, K))
 
 
-def K_sudden_expansion(area_upstream: float, area_downstream: float) -> float:
+def K_sudden_expansion(area_upstream, area_downstream):
     """Sharp-edged expansion, K on the upstream (small) velocity [-].
 
     Calls ``fluids.fittings.diffuser_sharp`` (Rennels method); for a large area
-    ratio this is the Borda-Carnot value (1 − A1/A2)^2.
+    ratio this is the Borda-Carnot value (1 − A1/A2)^2; 0 where there is no
+    expansion.  Floats or numpy arrays.
     """
-    if area_downstream <= area_upstream:
-        return 0.0
-    return float(diffuser_sharp(_equivalent_diameter(area_upstream), _equivalent_diameter(area_downstream)))
+    down = np.asarray(area_downstream, dtype=float)
+    up = np.minimum(np.asarray(area_upstream, dtype=float), down)
+    K = diffuser_sharp(_equivalent_diameter(up), _equivalent_diameter(down))
+    return _out(np.where(up >= down, 0.0, K))
 
 
 def K_exit() -> float:
@@ -61,9 +70,11 @@ def K_exit() -> float:
     return float(exit_normal())
 
 
-def K_return_bend(D_i: float, bend_radius: float, fd: float, Re: float) -> float:
-    """180-degree return bend, K on the tube velocity (``fluids.fittings.bend_rounded``, Rennels)."""
-    return float(bend_rounded(Di=D_i, angle=180.0, fd=fd, rc=bend_radius, Re=Re, method="Rennels"))
+def K_return_bend(D_i: float, bend_radius: float, fd, Re):
+    """180-degree return bend, K on the tube velocity (``fluids.fittings.bend_rounded``, Rennels).  ``fd`` and
+    ``Re`` may be numpy arrays (Rennels' formula is plain arithmetic in fd)."""
+    return _out(bend_rounded(Di=D_i, angle=180.0, fd=np.asarray(fd, dtype=float), rc=bend_radius, Re=Re,
+                             method="Rennels"))
 
 
 def total_pressure_drop(losses: tuple[MinorLoss, ...], rho: float) -> float:

@@ -10,57 +10,11 @@ from __future__ import annotations
 import dataclasses
 import hashlib
 import math
-from dataclasses import dataclass, field
-
 from .display_units import DisplayUnits, annotate, format_number
+from .optional_sections import circuit_section, module_inputs, module_section, planning_section
 
 
-@dataclass(frozen=True)
-class Row:
-    label: str
-    value: str
-    unit: str = ""
-    key: str = ""  #: the matching key of ``coldplate check --format json`` (for tracing and tests)
-
-
-@dataclass(frozen=True)
-class Figure:
-    name: str  #: also the SVG file stem in the Markdown layout
-    caption: str
-    svg: str
-
-
-@dataclass(frozen=True)
-class Section:
-    id: str
-    title: str
-    paragraphs: tuple[str, ...] = ()
-    rows: tuple[Row, ...] = ()
-    table: tuple[tuple[str, ...], ...] = ()  #: a free table: the first tuple is the header
-    figures: tuple[Figure, ...] = ()
-
-
-@dataclass(frozen=True)
-class Finding:
-    severity: str
-    id: str
-    message: str
-    action: str
-
-
-@dataclass(frozen=True)
-class Report:
-    title: str
-    job: str
-    units: str
-    version: str
-    source_name: str
-    source_sha256: str
-    source_text: str
-    headline: tuple[Row, ...]
-    findings: tuple[Finding, ...]
-    sections: tuple[Section, ...] = field(default=())
-
+from .report_model import Figure, Finding, Report, Row, Section  # noqa: F401 (re-exported)
 
 STANDING_CAUTION = (
     "This report gives engineering estimates, not approval. Water near mains-powered electronics, a connection "
@@ -132,11 +86,12 @@ def _inputs(r, u: DisplayUnits) -> Section:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", u.fmt("length", v, 3), u.label("length")))
         else:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", str(v), ""))
-    rows += _module_inputs(getattr(d, "module", None), u)
+    rows += module_inputs(getattr(d, "module", None), u)
     rows += [
         Row("coolant", d.coolant.label(), ""),
         Row("inlet temperature", u.fmt("temperature", d.inlet_temperature), u.label("temperature")),
-        Row("flow", u.fmt("flow", d.flow), u.label("flow")),
+        Row("flow", u.fmt("flow", d.flow), u.label("flow")) if d.flow is not None
+        else Row("flow", "set by the supply circuit", ""),
         Row("supply source / discharge", f"{d.supply.source} / {d.supply.discharge}", ""),
         Row("hours a day / days a year", f"{d.supply.hours_per_day:g} / {d.supply.days_per_year:g}", ""),
     ]
@@ -151,23 +106,6 @@ def _inputs(r, u: DisplayUnits) -> Section:
         Row("segments along the flow", str(d.model.segments), ""),
     ]
     return Section("inputs", "Inputs", rows=tuple(rows))
-
-
-def _module_inputs(m, u: DisplayUnits) -> list[Row]:
-    """The [module] table as read (field names of coldplate.module_design.Module)."""
-    if m is None:
-        return []
-    rows = [Row("modules", annotate(m.described_as, u), ""),
-            Row("module count / wiring", f"{m.count} / {m.wiring}", ""),
-            Row("cold-side load (array)", u.fmt("power", m.cold_load), u.label("power"))]
-    if m.current is not None:
-        rows.append(Row("drive current per module", format_number(m.current), "A"))
-    if m.cold_face_target is not None:
-        rows.append(Row("target cold face", u.fmt("temperature", m.cold_face_target), u.label("temperature")))
-    rows += [Row("cold-side resistance (stage)", u.fmt("thermal_resistance", m.cold_side_resistance),
-                 u.label("thermal_resistance")),
-             Row("hot-face limit", u.fmt("temperature", m.hot_side_limit), u.label("temperature"))]
-    return rows
 
 
 def _headline(r, u: DisplayUnits) -> tuple[Row, ...]:
@@ -245,78 +183,6 @@ def _methods(r) -> Section:
     return Section("methods", "Methods and their validity ranges", tuple(paras), table=(head, *body))
 
 
-def _module(m, u: DisplayUnits, figures) -> Section:
-    def num(x, unit_note=""):
-        return format_number(x) if math.isfinite(x) else "not defined" + unit_note
-
-    rows = [
-        Row("modules / wiring", f"{m.count} / {m.wiring}", ""),
-        Row("current per module", num(m.current), "A", "module_current_A"),
-        Row("voltage per module", num(m.voltage), "V", "module_voltage_V"),
-        Row("power supply must deliver", f"{num(m.array_current)} A at {num(m.array_voltage)}", "V"),
-        Row("cold face", u.fmt("temperature", m.T_cold), u.label("temperature"), "cold_face_temperature_C"),
-        Row("hot face", u.fmt("temperature", m.T_hot), u.label("temperature"), "hot_face_temperature_C"),
-        Row("heat pumped (cold side, array)", u.fmt("power", m.Q_cold), u.label("power"), "module.cold_load_W"),
-        Row("heat into the plate (hot side, array)", u.fmt("power", m.Q_hot), u.label("power"), "heat_into_plate_W"),
-        Row("electrical power (array)", u.fmt("power", m.power), u.label("power"), "electrical_power_W"),
-        Row("coefficient of performance", num(m.cop, " (no power drawn)"), "-", "cop"),
-        Row("coldest current", num(m.coldest_current), "A per module", "coldest_current_A"),
-        Row("best-COP current", num(m.best_cop_current), "A per module", "module.best_cop_current_A"),
-        Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature"), "module.dew_point_C"),
-        Row("dew margin (cold face − room dew/frost point)", u.fmt("temperature_difference", m.dew_margin),
-            u.label("temperature_difference"), "module.dew_margin_K"),
-    ]
-    paras = []
-    T_coldest = getattr(m, "T_cold_coldest", 0.0)
-    if T_coldest:
-        rows.insert(11, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
-                            u.label("temperature"), "module.coldest_cold_face_temperature_C"))
-    limit = getattr(m, "hot_side_limit", 0.0)
-    if limit:
-        rows.insert(6, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature"),
-                           "module.hot_side_limit_C"))
-    for note in (getattr(m, "shortfall", ""), getattr(m.sweep, "stopped", "")):
-        if note:
-            paras.append(annotate(note[0].upper() + note[1:], u))
-    return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
-
-
-def _circuit(c, u: DisplayUnits, figures) -> Section:
-    rows = [Row("drive", c.drive, ""), Row("operating flow", u.fmt("flow", c.V_dot), u.label("flow"))]
-    if c.supply_pressure is not None:
-        rows.append(Row("supply pressure used (gauge)", u.fmt("pressure", c.supply_pressure), u.label("pressure")))
-    rows.append(Row("plate inlet pressure (gauge)", u.fmt("pressure", c.plate_inlet_pressure), u.label("pressure")))
-    table = (("after part", f"gauge pressure [{u.label('pressure')}]"),
-             *((name, u.fmt("pressure", p)) for name, p in c.points))
-    return Section("circuit", "Supply circuit", ("Gauge pressure after each part, in flow order.",),
-                   rows=tuple(rows), table=table, figures=figures)
-
-
-def _planning(p, u: DisplayUnits, figures) -> Section:
-    rows = [Row("least flow meeting the limits", u.fmt("flow", p.V_dot_min), u.label("flow")),
-            Row("limit that binds", p.binding, ""),
-            Row("water use", u.fmt("volume_per_day", p.water_L_per_day), u.label("volume_per_day")),
-            Row("water use a year", u.fmt("volume_per_year", p.water_m3_per_year), u.label("volume_per_year"))]
-    if p.cost_per_year is not None:
-        rows.append(Row("water cost a year", f"{p.cost_per_year:,.2f}", p.currency or ""))
-    breakeven = getattr(p, "breakeven", None)
-    if breakeven is not None:
-        rows.append(Row("break-even", _plain(breakeven), ""))
-    return Section("water", "Water use and planning", rows=tuple(rows), figures=figures)
-
-
-def _plain(value) -> str:
-    """A short text for a value whose shape belongs to another part of the program."""
-    if dataclasses.is_dataclass(value):
-        return "; ".join(f"{f.name.replace('_', ' ')} {_plain(getattr(value, f.name))}"
-                         for f in dataclasses.fields(value))
-    if isinstance(value, float):
-        return format_number(value)
-    if isinstance(value, (tuple, list)):
-        return ", ".join(_plain(v) for v in value)
-    return str(value)
-
-
 def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: str = "",
                  source_name: str = "", source_bytes: bytes = b"") -> Report:
     """Gather a report.  ``figures`` maps names (breakdown, profile, flow, water, module, circuit) to SVG text."""
@@ -338,14 +204,14 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     ]
     module = getattr(r, "module", None)
     if module is not None:
-        sections.append(_module(module, u, fig("module", "Thermoelectric current sweep; coldest current marked.")))
+        sections.append(module_section(module, u, fig("module", "Thermoelectric current sweep; coldest current marked.")))
     circuit = getattr(r, "circuit", None)
     if circuit is not None:
-        sections.append(_circuit(circuit, u, fig("circuit", "System and supply curves with the operating point.")))
+        sections.append(circuit_section(circuit, u, fig("circuit", "System and supply curves with the operating point.")))
     planning = getattr(r, "planning", None)
-    water_fig = fig("water", "Water use against the hottest mounting-face temperature; design point marked.")
+    water_fig = fig("water", "Water use against the hottest mounting-face temperature; operating point marked.")
     if planning is not None:
-        sections.append(_planning(planning, u, water_fig))
+        sections.append(planning_section(planning, u, water_fig))
     elif r.design.supply.once_through:
         sections.append(Section("water", "Water use", (
             f"Once-through at {r.design.supply.hours_per_day:g} h a day and {r.design.supply.days_per_year:g} days "

@@ -23,6 +23,7 @@ KINDS = {
     "flow": ("m**3/s", {"si": ("L/min", "L/min"), "us": ("gallon/minute", "gpm")}),
     "pressure": ("Pa", {"si": ("kPa", "kPa"), "us": ("psi", "psi")}),
     "length": ("m", {"si": ("mm", "mm"), "us": ("inch", "in")}),
+    "length_m": ("m", {"si": ("m", "m"), "us": ("ft", "ft")}),
     "power": ("W", {"si": ("W", "W"), "us": ("Btu_it/hour", "BTU/h")}),
     "thermal_resistance": ("K/W", {"si": ("K/W", "K/W"), "us": ("delta_degF/(Btu_it/hour)", "°F·h/BTU")}),
     "velocity": ("m/s", {"si": ("m/s", "m/s"), "us": ("ft/s", "ft/s")}),

@@ -48,13 +48,22 @@ def _rows(rows) -> str:
     return "\n".join(out)
 
 
+def _cell(text: str) -> str:
+    if text.startswith("OUTSIDE"):
+        return f"<td><strong>{escape(text)}</strong></td>"
+    try:
+        float(text.replace(",", ""))
+    except ValueError:
+        return f"<td>{escape(text)}</td>"
+    return f'<td class="num">{escape(text)}</td>'
+
+
 def _table(table, css="") -> str:
     head, *body = table
     cls = f' class="{css}"' if css else ""
     out = [f"<table{cls}><thead><tr>" + "".join(f"<th>{escape(h)}</th>" for h in head) + "</tr></thead><tbody>"]
     for row in body:
-        out.append("<tr>" + "".join(f"<td><strong>{escape(c)}</strong></td>" if c.startswith("OUTSIDE")
-                                    else f"<td>{escape(c)}</td>" for c in row) + "</tr>")
+        out.append("<tr>" + "".join(_cell(c) for c in row) + "</tr>")
     out.append("</tbody></table>")
     return "\n".join(out)
 

@@ -6,6 +6,9 @@ from __future__ import annotations
 
 import json
 
+from .module_report import module_to_dict
+from .supply import supply_dict
+
 
 def _c(T: float) -> float:
     return T - 273.15
@@ -54,8 +57,11 @@ def result_to_dict(r, version: str = "") -> dict:
         "assumptions": list(r.assumptions),
         "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
                      for f in r.findings],
+        **supply_dict(r),
     }
 
 
 def render_json(r, version: str = "") -> str:
-    return json.dumps(result_to_dict(r, version), indent=2, ensure_ascii=False)
+    out = result_to_dict(r, version)
+    out.update(module_to_dict(getattr(r, "module", None)))
+    return json.dumps(out, indent=2, ensure_ascii=False)

@@ -35,9 +35,12 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
         "flow": plots.draw(plots.flow_curves, curve, fit, u, name="flow"),
     }
     planning = getattr(r, "planning", None)
-    if planning is not None:
+    if planning is not None and len(planning.use_curve.T_face):
+        T_min, use_min = getattr(planning, "T_face_at_min", None), getattr(planning, "water_m3_per_year_min", None)
+        least = (T_min, use_min) if T_min is not None and use_min is not None else None
         figs["water"] = plots.draw(plots.water_use, planning.use_curve.T_face, planning.use_curve.m3_per_year,
-                                   r.T_face_max, planning.water_m3_per_year, u, name="water")
+                                   r.T_face_max, planning.water_m3_per_year, u, least,
+                                   getattr(planning, "face_limit", None), name="water")
     elif r.design.supply.once_through:
         figs["water"] = plots.draw(plots.water_use, curve.T_face, curve.water_m3_per_year, r.T_face_max,
                                    r.water_use_m3_per_year, u, name="water")

@@ -147,13 +147,19 @@ def flow_curves(curve, fit, u: DisplayUnits) -> Figure:
     return fig
 
 
-def water_use(T_face, m3_per_year, design_T, design_use, u: DisplayUnits) -> Figure:
-    """Once-through water use against the hottest mounting-face temperature, the design point marked."""
+def water_use(T_face, m3_per_year, design_T, design_use, u: DisplayUnits, least=None, face_limit=None) -> Figure:
+    """Once-through water use against the hottest mounting-face temperature, the operating point marked;
+    ``least`` = (T_face, m3/year) at the least flow meeting the limits, ``face_limit`` the limit [K]."""
     fig, (ax,) = _figure(3.0)
     ax.plot(u.value("temperature", T_face), u.value("volume_per_year", m3_per_year), color=GREEN, marker="o",
             markersize=3, label="over the flow range")
     ax.plot([u.value("temperature", design_T)], [u.value("volume_per_year", design_use)], marker="D",
-            color=VERMILION, markersize=7, linestyle="none", label="design point")
+            color=VERMILION, markersize=7, linestyle="none", label="operating point")
+    if least is not None:
+        ax.plot([u.value("temperature", least[0])], [u.value("volume_per_year", least[1])], marker="s",
+                color=BLUE, markersize=7, linestyle="none", label="least flow meeting the limits")
+    if face_limit is not None:
+        ax.axvline(u.value("temperature", face_limit), color=BLACK, linestyle=":", label="mounting-face limit")
     ax.set_yscale("log")
     _plain_log(ax.yaxis)
     ax.set_xlabel(f"hottest mounting face [{u.label('temperature')}]")

@@ -7,6 +7,8 @@ from __future__ import annotations
 import textwrap
 
 from .display_units import DisplayUnits, annotate
+from .module_report import module_text
+from .supply import supply_lines
 
 WIDTH = 92
 
@@ -70,6 +72,8 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     parts.append(("total", v("thermal_resistance", r.R_th, ".4g"), R_unit))
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
+    out += module_text(getattr(r, "module", None))
+    out += supply_lines(r, _table)
     out.append("Correlations used")
     out.append("-----------------")
     wr = max(len(m.role) for m in r.methods)

@@ -26,12 +26,21 @@ def _value(v) -> str:
     raise TypeError(v)
 
 
+def _is_tables(v) -> bool:
+    return isinstance(v, list) and bool(v) and all(isinstance(x, dict) for x in v)
+
+
 def to_toml(data: dict) -> str:
     lines = [f"{k} = {_value(v)}" for k, v in data.items() if not isinstance(v, dict)]
     for k, v in data.items():
         if isinstance(v, dict):
             lines.append(f"\n[{k}]")
-            lines += [f"{kk} = {_value(vv)}" for kk, vv in v.items()]
+            lines += [f"{kk} = {_value(vv)}" for kk, vv in v.items() if not _is_tables(vv)]
+            for kk, vv in v.items():  # arrays of tables, e.g. [[circuit.part]]
+                if _is_tables(vv):
+                    for item in vv:
+                        lines.append(f"\n[[{k}.{kk}]]")
+                        lines += [f"{kkk} = {_value(x)}" for kkk, x in item.items()]
     return "\n".join(lines) + "\n"
 
 
@@ -54,3 +63,18 @@ def write(tmp_path, data: dict, name="design.toml") -> Path:
     path = tmp_path / name
     path.write_text(to_toml(data))
     return path
+
+
+def solved_or_refused(data: dict):
+    """(design, result) for a design dict, or None when it is refused with a one-line DesignError."""
+    from coldplate.design import design_from_dict
+    from coldplate.errors import DesignError
+    from coldplate.solve import solve
+
+    try:
+        d = design_from_dict(data)
+        return d, solve(d)
+    except DesignError as exc:
+        assert exc.field or "design" in str(exc)
+        assert "\n" not in str(exc)
+        return None

@@ -78,14 +78,14 @@ def test_fit_keeps_constants_physical():
 
 def test_boiling_flows_are_skipped_and_said():
     d = design_from_dict(example_dict("laser-mount-tube"))
-    c = flow_curve(d, [0.0005 / 6e4, 0.001 / 6e4, *default_flows(d)])
+    c = flow_curve(d, [0.0005 / 6e4, 0.001 / 6e4, *default_flows(d.flow)])
     assert len(c.skipped) == 2
     assert all("boiling" in why or "too small" in why for _, why in c.skipped)
     assert min(c.V_dot) > 0.001 / 6e4
     with pytest.raises(DesignError):
         flow_curve(d, [0.0005 / 6e4])
     with pytest.raises(DesignError):
-        fit_compact(flow_curve(d, default_flows(d, points=3)[:3]))
+        fit_compact(flow_curve(d, default_flows(d.flow, points=3)[:3]))
     with pytest.raises(DesignError):
         flow_curve(d, [-1.0])
 

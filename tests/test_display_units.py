@@ -28,6 +28,7 @@ EXACT_US = {
     "flow": (60.0 / GALLON, 0.0),  # m^3/s -> gallon/minute
     "pressure": (INCH**2 / (POUND * G_N), 0.0),  # Pa -> psi
     "length": (1.0 / INCH, 0.0),
+    "length_m": (1.0 / FOOT, 0.0),
     "power": (HOUR / BTU_IT, 0.0),  # W -> Btu/h
     "thermal_resistance": (1.8 * BTU_IT / HOUR, 0.0),  # K/W -> degF h/Btu
     "velocity": (1.0 / FOOT, 0.0),

@@ -20,7 +20,7 @@ from coldplate.curves import fit_compact, flow_curve
 from coldplate.design import load_design
 from coldplate.findings import DEFER
 from coldplate.solve import check_file
-from reports.jsonout import result_to_dict
+from reports.jsonout import render_json, result_to_dict
 
 from .helpers import EXAMPLES, ROOT, example_dict, modified, write
 
@@ -85,13 +85,17 @@ def parse(html_text: str) -> Page:
     return p
 
 
+#: Examples also reported in US units: a plain plate, a supply circuit and a thermoelectric stage.
+US_TOO = ("detector-cavity-glycol", "tap-to-drain-circuit", "sample-stage-thermoelectric")
+
+
 @pytest.fixture(scope="module")
 def reports(tmp_path_factory):
     """Each example as an SI report, and the first one in US units too (through the CLI)."""
     out = {}
     d = tmp_path_factory.mktemp("reports")
     for path in EXAMPLES:
-        for units in ("si", "us") if path == EXAMPLES[0] else ("si",):
+        for units in ("si", "us") if path.stem in US_TOO else ("si",):
             target = d / f"{path.stem}-{units}.html"
             assert main(["report", str(path), "-o", str(target), "--units", units]) == 0
             out[(path.stem, units)] = (path, target.read_text(encoding="utf-8"))
@@ -109,9 +113,16 @@ def test_html_parses_and_has_every_section(reports):
                     "trace"):
             assert sec in page.sections, (name, sec)
         expected = {"fig-breakdown", "fig-profile", "fig-flow"}
-        if load_design(path).supply.once_through:
+        r = check_file(path)
+        if r.design.supply.once_through or r.planning is not None:
             expected.add("fig-water")
             assert "water" in page.sections
+        for part in ("module", "circuit"):
+            if getattr(r, part) is not None:
+                expected.add(f"fig-{part}")
+                assert part in page.sections
+            else:
+                assert part not in page.sections
         assert set(page.figures) == expected, name
         assert text.startswith("<!DOCTYPE html>")
 
@@ -159,7 +170,53 @@ JSON_UNITS = {
     "heat_transfer_coefficient_W_per_m2K": ("W/(m**2*K)", "W/(m**2*K)", "Btu_it/(hour*ft**2*delta_degF)"),
     "water_use_L_per_day": ("L/day", "L/day", "gallon/day"),
     "water_use_m3_per_year": ("m**3/year", "m**3/year", "gallon/year"),
+    # thermoelectric modules (result.module)
+    "module_current_A": ("A", "A", "A"),
+    "module_voltage_V": ("V", "V", "V"),
+    "cold_face_temperature_C": ("degC", "degC", "degF"),
+    "hot_face_temperature_C": ("degC", "degC", "degF"),
+    "module.cold_load_W": ("W", "W", "Btu_it/hour"),
+    "heat_into_plate_W": ("W", "W", "Btu_it/hour"),
+    "electrical_power_W": ("W", "W", "Btu_it/hour"),
+    "cop": ("dimensionless", "dimensionless", "dimensionless"),
+    "coldest_current_A": ("A", "A", "A"),
+    "module.best_cop_current_A": ("A", "A", "A"),
+    "module.coldest_cold_face_temperature_C": ("degC", "degC", "degF"),
+    "module.hot_side_limit_C": ("degC", "degC", "degF"),
+    "module.dew_point_C": ("degC", "degC", "degF"),
+    "module.dew_margin_K": ("K", "K", "delta_degF"),
+    # supply circuit and planning (result.circuit, result.planning)
+    "operating_flow_m3_per_s": ("m**3/s", "L/min", "gallon/minute"),
+    "supply_pressure_used_Pa": ("Pa", "kPa", "psi"),
+    "circuit.needed_supply_pressure_Pa": ("Pa", "kPa", "psi"),
+    "circuit.plate_inlet_pressure_Pa": ("Pa", "kPa", "psi"),
+    "circuit.plate_outlet_pressure_Pa": ("Pa", "kPa", "psi"),
+    "circuit.plate_pressure_rating_Pa": ("Pa", "kPa", "psi"),
+    "minimum_flow_m3_per_s": ("m**3/s", "L/min", "gallon/minute"),
+    "planning.face_limit_C": ("degC", "degC", "degF"),
+    "planning.discharge_limit_C": ("degC", "degC", "degF"),
+    "planning.surface_temperature_at_minimum_C": ("degC", "degC", "degF"),
+    "planning.outlet_temperature_at_minimum_C": ("degC", "degC", "degF"),
+    "planning.water_L_per_day": ("L/day", "L/day", "gallon/day"),
+    "planning.water_m3_per_year": ("m**3/year", "m**3/year", "gallon/year"),
+    "planning.water_m3_per_year_at_minimum": ("m**3/year", "m**3/year", "gallon/year"),
+    "planning.flow_over_minimum": ("dimensionless", "dimensionless", "dimensionless"),
+    "water_cost_per_year": ("dimensionless", "dimensionless", "dimensionless"),  # money, as given
+    "planning.water_cost_per_year_at_minimum": ("dimensionless", "dimensionless", "dimensionless"),
+    "planning.chiller.power_W": ("W", "W", "Btu_it/hour"),
+    "planning.chiller.electricity_cost_per_year": ("dimensionless", "dimensionless", "dimensionless"),
+    "planning.chiller.saving_per_year": ("dimensionless", "dimensionless", "dimensionless"),
+    "planning.chiller.breakeven_flow_m3_per_s": ("m**3/s", "L/min", "gallon/minute"),
+    "planning.chiller.breakeven_water_tariff_per_m3": ("dimensionless", "dimensionless", "dimensionless"),
+    "planning.chiller.payback_years": ("dimensionless", "dimensionless", "dimensionless"),
 }
+TEXT_KEYS = {"planning.binding_limit"}
+
+
+def _json_value(data, key):
+    for part in key.split("."):
+        data = data[part]
+    return data
 
 
 def _half_last_digit(shown: str) -> float:
@@ -170,20 +227,29 @@ def _half_last_digit(shown: str) -> float:
 
 def test_numbers_equal_the_json_result(reports):
     ureg = pint.UnitRegistry()
-    checked = 0
+    checked = set()
     for (name, units), (path, text) in reports.items():
-        data = result_to_dict(check_file(path))
+        data = json.loads(render_json(check_file(path)))
         rows = parse(text).rows
-        for key, (json_unit, si_unit, us_unit) in JSON_UNITS.items():
-            if key not in rows:
-                assert key.startswith("water_use") and not data["once_through"], (name, key)
+        for key, cells in rows.items():
+            assert key in JSON_UNITS or key in TEXT_KEYS, f"row {key!r} is not checked against the JSON"
+            shown, value = cells[1], _json_value(data, key)
+            if key in TEXT_KEYS:
+                assert shown == value
                 continue
-            shown = rows[key][1]
-            expected = ureg.Quantity(data[key], json_unit).to(si_unit if units == "si" else us_unit).magnitude
+            if value is None:
+                assert shown.startswith(("not defined", "none")), (name, key, shown)
+                continue
+            json_unit, si_unit, us_unit = JSON_UNITS[key]
+            expected = ureg.Quantity(value, json_unit).to(si_unit if units == "si" else us_unit).magnitude
             assert float(shown.replace(",", "")) == pytest.approx(expected, abs=_half_last_digit(shown) * 1.0001), \
                 (name, units, key, shown, expected)
-            checked += 1
-    assert checked >= 4 * 12
+            checked.add(key)
+        for key in ("thermal_resistance_K_per_W", "surface_temperature_max_C", "pressure_drop_Pa"):
+            assert key in rows, (name, key)
+    # every kind of row was met in the examples: plate, modules, circuit and planning
+    assert {"water_use_L_per_day", "cold_face_temperature_C", "supply_pressure_used_Pa",
+            "minimum_flow_m3_per_s", "planning.chiller.saving_per_year"} <= checked
 
 
 def test_findings_in_order_with_their_actions(reports):

@@ -51,7 +51,8 @@ def test_console_check_catches_errors(tmp_path):
     assert any("deliberate" in line for line in console), console
 
 
-@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-tube"])
+@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-tube", "sample-stage-thermoelectric",
+                                  "tap-to-drain-circuit"])
 def test_report_renders_in_chromium(tmp_path, name):
     page = tmp_path / f"{name}.html"
     assert main(["report", str(ROOT / "examples" / f"{name}.toml"), "-o", str(page)]) == 0

@@ -7,14 +7,17 @@ is tested with numbers of the right shape; the real parts are tested with the ex
 """
 from __future__ import annotations
 
+import dataclasses
+import math
 import re
-from dataclasses import dataclass
 
 import numpy as np
 import pytest
 
 from coldplate.curves import fit_compact, flow_curve, mounting_face_profile
 from coldplate.solve import check_file
+from coldplate.supply_result import Breakeven, CircuitResult, PlanningResult, PumpCurve, SystemCurve, UseCurve
+from coldplate.thermoelectric_result import ModuleResult, ModuleSweep
 from reports.display_units import DisplayUnits
 from reports.html import render_html
 from reports.make import make_report
@@ -35,84 +38,6 @@ class With:
         return getattr(self._base, name)
 
 
-@dataclass(frozen=True)
-class Sweep:
-    current: tuple
-    T_cold: tuple
-    T_hot: tuple
-    cop: tuple
-    power: tuple
-    Q_hot: tuple
-
-
-@dataclass(frozen=True)
-class Module:
-    count: int
-    wiring: str
-    current: float
-    voltage: float
-    array_current: float
-    array_voltage: float
-    T_cold: float
-    T_hot: float
-    Q_cold: float
-    Q_hot: float
-    power: float
-    cop: float
-    coldest_current: float
-    best_cop_current: float
-    sweep: Sweep
-    T_dew: float
-    dew_margin: float
-
-
-@dataclass(frozen=True)
-class Curve:
-    V_dot: tuple
-    dp_circuit: tuple
-    dp_plate: tuple
-
-
-@dataclass(frozen=True)
-class Pump:
-    V_dot: tuple
-    dp: tuple
-
-
-@dataclass(frozen=True)
-class Circuit:
-    drive: str
-    V_dot: float
-    supply_pressure: float | None
-    plate_inlet_pressure: float
-    points: tuple
-    curve: Curve
-    pump: Pump | None
-
-
-@dataclass(frozen=True)
-class UseCurve:
-    T_face: tuple
-    m3_per_year: tuple
-
-
-@dataclass(frozen=True)
-class Breakeven:
-    years: float
-
-
-@dataclass(frozen=True)
-class Planning:
-    V_dot_min: float
-    binding: str
-    water_L_per_day: float
-    water_m3_per_year: float
-    cost_per_year: float | None
-    currency: str | None
-    use_curve: UseCurve
-    breakeven: Breakeven
-
-
 def module_demo(T_dew):
     # standard thermoelectric model, reference values' check constants (computed): S 0.05 V/K, R 1.91667 ohm,
     # K 0.492857 W/K; hot face held at 300 K, 10 W pumped per module, two modules in series
@@ -123,11 +48,11 @@ def module_demo(T_dew):
     cop = Qc / P
     k, j = int(np.argmin(Tc)), int(np.argmax(cop))
     i = 20
-    sweep = Sweep(tuple(I), tuple(Tc), (Th,) * len(I), tuple(cop), tuple(n * P), tuple(n * (Qc + P)))
+    sweep = ModuleSweep(tuple(I), tuple(Tc), (Th,) * len(I), tuple(cop), tuple(n * P), tuple(n * (Qc + P)))
     V = S * (Th - Tc[i]) + I[i] * R
-    return Module(n, "series", float(I[i]), float(V), float(I[i]), float(n * V), float(Tc[i]), Th, n * Qc,
-                  float(n * (Qc + P[i])), float(n * P[i]), float(cop[i]), float(I[k]), float(I[j]), sweep, T_dew,
-                  float(Tc[i] - T_dew))
+    return ModuleResult(n, "series", float(I[i]), float(V), float(I[i]), float(n * V), float(Tc[i]), Th, n * Qc,
+                        float(n * (Qc + P[i])), float(n * P[i]), float(cop[i]), float(I[k]), float(I[j]), sweep,
+                        T_dew, float(Tc[i] - T_dew), hot_side_limit=353.15, T_cold_coldest=float(Tc[k]))
 
 
 def circuit_demo(curve):
@@ -140,13 +65,19 @@ def circuit_demo(curve):
     pump = p0 * (1 - (V / Vmax) ** 2)
     k = int(np.argmin(np.abs(pump - system)))
     points = (("supply", float(pump[k])), ("hose", float(pump[k] - hose[k])), ("plate", 0.0))
-    return Circuit("pump", float(V[k]), float(pump[k]), float(pump[k] - hose[k]), points,
-                   Curve(tuple(V), tuple(system), tuple(dp_plate)), Pump(tuple(V), tuple(pump)))
+    return CircuitResult("pump", float(V[k]), float(pump[k]), float(pump[k] - hose[k]), points,
+                         SystemCurve(tuple(V), tuple(system), tuple(dp_plate)), PumpCurve(tuple(V), tuple(pump)),
+                         needed_pressure=float(system[k]), plate_outlet_pressure=0.0,
+                         heights=(("hose", -0.5), ("plate", -0.5)), surges=(("needle valve", 2.0e5),),
+                         m_dot=float(V[k]) * 998.0, plate_rating=5e5)
 
 
-def planning_demo(curve):
-    return Planning(curve.V_dot[3], "hottest mounting face", 512.0, 186.9, 412.5, "EUR",
-                    UseCurve(curve.T_face, curve.water_m3_per_year), Breakeven(2.5))
+def planning_demo(curve, cost=412.5, currency="EUR"):
+    V = curve.V_dot
+    return PlanningResult(V[3], "mounting face", 303.15, 333.15, curve.T_face[3], curve.T_out[3], 512.0, 186.9,
+                          curve.water_m3_per_year[3], cost, None if cost is None else 100.0, currency, 2.5,
+                          UseCurve(V, curve.T_face, curve.T_out, curve.water_m3_per_year),
+                          Breakeven(900.0, 630.0, 412.5, 1.7e-5, 1.13, -217.5, None))
 
 
 @pytest.fixture(scope="module")
@@ -203,7 +134,9 @@ def test_planning_numbers_as_given(built):
     assert _row(rep, "water", "limit that binds").value == p.binding
     assert _row(rep, "water", "water cost a year").value == "412.50"
     assert _row(rep, "water", "water cost a year").unit == "EUR"
-    assert "years 2.5" in _row(rep, "water", "break-even").value
+    assert _row(rep, "water", "chiller saving a year (water cost − electricity)").value == "-217.50"
+    assert float(_row(rep, "water", "least flow meeting the limits").value) == pytest.approx(p.V_dot_min * 6e4,
+                                                                                            rel=1e-3)
 
 
 def test_flow_drive_without_pump_and_no_cost(built):
@@ -211,14 +144,14 @@ def test_flow_drive_without_pump_and_no_cost(built):
     r = full._base
     curve = flow_curve(r.design)
     c = circuit_demo(curve)
-    flow_driven = Circuit("flow", c.V_dot, None, c.plate_inlet_pressure, c.points, c.curve, None)
-    plan = planning_demo(curve)
-    plan = Planning(plan.V_dot_min, plan.binding, plan.water_L_per_day, plan.water_m3_per_year, None, None,
-                    plan.use_curve, plan.breakeven)
+    flow_driven = dataclasses.replace(c, drive="flow", supply_pressure=None, pump=None)
+    plan = dataclasses.replace(planning_demo(curve, cost=None, currency=None), V_dot_min=math.inf,
+                               binding="unreachable", T_face_at_min=None, T_out_at_min=None, breakeven=None)
     rep = make_report(With(r, circuit=flow_driven, planning=plan, module=None), curve, fit_compact(curve),
                       mounting_face_profile(r))
     page = parse(render_html(rep))
     assert "circuit" in page.sections and "module" not in page.sections
     labels = [row.label for s in rep.sections for row in s.rows]
     assert "supply pressure used (gauge)" not in labels and "water cost a year" not in labels
+    assert _row(rep, "water", "least flow meeting the limits").value == "none"
     assert re.search(r'id="fig-circuit"', render_html(rep))

@@ -77,8 +77,8 @@ def test_water_use_arithmetic(results):
         if not d.supply.once_through:
             assert r.water_use_L_per_day == 0.0
             continue
-        assert r.water_use_L_per_day == pytest.approx(d.flow * 1000 * 3600 * d.supply.hours_per_day, rel=1e-12)
-        assert r.water_use_m3_per_year == pytest.approx(r.water_use_L_per_day * 365 / 1000, rel=1e-12)
+        assert r.water_use_L_per_day == pytest.approx(r.V_dot * 1000 * 3600 * d.supply.hours_per_day, rel=1e-12)
+        assert r.water_use_m3_per_year == pytest.approx(r.water_use_L_per_day * d.supply.days_per_year / 1000, rel=1e-12)
 
 
 def test_room_dew_point_against_psychrolib(results):

@@ -12,6 +12,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
 
@@ -28,6 +30,13 @@ def channel_length(passage, plate) -> float:
     return plate.length - 2 * passage.plenum_length
 
 
+def heated_walls(width, depth):
+    """Heated-wall arrangement for the laminar Nu: floor and both side walls heated, the lid not.  A channel at
+    least as deep as it is wide has its two long walls and one short wall heated ("3L"), a wide shallow one
+    its two short walls and one long wall ("3S").  Floats or numpy arrays."""
+    return np.where(np.asarray(depth) >= np.asarray(width), "3L", "3S")
+
+
 def geometry(passage, plate) -> Geometry:
     w, d = passage.width, passage.depth
     L = channel_length(passage, plate)
@@ -41,20 +50,31 @@ def geometry(passage, plate) -> Geometry:
         alpha=aspect_ratio(w, d),
         path_length=L,
         heated_length=L,
-        heated="3L" if d >= w else "3S",  # floor and side walls heated, lid not
+        heated=str(heated_walls(w, d)),  # floor and side walls heated, lid not
         roughness=passage.roughness,
         description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
                      f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),
     )
 
 
+def fin_areas(count, width, depth, length, wall, k, h):
+    """Wetted and fin-effective heat-transfer areas of a channel field [m^2], the walls' fin parameter m
+    [1/m] and fin efficiency [-].  Floats or numpy arrays (the sizing search evaluates many fields at once).
+
+    wetted = n L (w + 2 d); effective = n L (w + 2 d eta), eta = tanh(m d)/(m d), m = sqrt(2 h / (k t_wall)).
+    """
+    m = fin_m(h, k, wall)
+    eta = fin_efficiency_straight(m, depth)
+    wetted = count * length * (width + 2 * depth)
+    effective = count * length * (width + 2 * depth * eta)
+    return wetted, effective, m, eta
+
+
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     t_w = wall_thickness(passage, plate)
-    m = fin_m(h, plate.conductivity, t_w)
-    eta = float(fin_efficiency_straight(m, passage.depth))
-    L = geom.path_length
-    area = passage.count * L * (passage.width + 2 * passage.depth)
-    effective = passage.count * L * (passage.width + 2 * passage.depth * eta)
+    area, effective, m, eta = fin_areas(passage.count, passage.width, passage.depth, geom.path_length, t_w,
+                                        plate.conductivity, h)
+    eta = float(eta)
     checks = (("fin efficiency", fin_efficiency_straight,
                {"mL": float(m) * passage.depth, "Bi": h * (t_w / 2) / plate.conductivity}),)
     return BackSide(parts=(("convection", 1.0 / (h * effective)),), wetted_area=area, eta_fin=eta,
@@ -63,15 +83,22 @@ def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
 
 def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:
     """Plenum-to-channel contraction and channel-to-plenum expansion; port losses if ports are given."""
-    plenum_face = plate.width * passage.depth
-    channels = passage.count * geom.flow_area
-    losses = [
-        MinorLoss("contraction into channels", K_sudden_contraction(plenum_face, channels), V),
-        MinorLoss("expansion out of channels", K_sudden_expansion(channels, plenum_face), V),
-    ]
-    if passage.port_diameter:
-        port_area = math.pi * passage.port_diameter**2 / 4
-        V_port = V * channels / port_area
-        losses.insert(0, MinorLoss("inlet port into plenum", K_sudden_expansion(port_area, plenum_face), V_port))
-        losses.append(MinorLoss("plenum into outlet port", K_sudden_contraction(plenum_face, port_area), V_port))
-    return tuple(losses)
+    return tuple(MinorLoss(name, K, V * ratio)
+                 for name, K, ratio in loss_coefficients(passage.count, passage.width, passage.depth, plate.width,
+                                                         passage.port_diameter))
+
+
+def loss_coefficients(count, width, depth, plate_width, port_diameter):
+    """The channel field's minor losses in flow order as (name, K, velocity ratio) [-]: K refers to the
+    channel velocity times the ratio.  Floats or numpy arrays for the sizes; ports only when a diameter is
+    given (``None`` or 0: none)."""
+    plenum_face = plate_width * depth
+    channels = count * width * depth
+    out = [("contraction into channels", K_sudden_contraction(plenum_face, channels), 1.0),
+           ("expansion out of channels", K_sudden_expansion(channels, plenum_face), 1.0)]
+    if port_diameter:
+        port_area = math.pi * port_diameter**2 / 4
+        ratio = channels / port_area
+        out.insert(0, ("inlet port into plenum", K_sudden_expansion(port_area, plenum_face), ratio))
+        out.append(("plenum into outlet port", K_sudden_contraction(plenum_face, port_area), ratio))
+    return tuple(out)

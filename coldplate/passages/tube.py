@@ -12,6 +12,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from hydraulics.losses import MinorLoss, K_return_bend
 
 from .. import materials
@@ -61,32 +63,62 @@ def strips(passage, plate) -> tuple[tuple[float, float], ...]:
     return tuple((w, l) for w, l in out if w > 0)
 
 
-def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
+def conduction_parts(passage, plate, geom: Geometry) -> tuple[tuple[str, float], ...]:
+    """The back side's parts that do not depend on the coolant: the plate between and beside the passes, the
+    bond and the tube wall [K/W]."""
     L = geom.heated_length
     do, di = passage.outer_diameter, passage.inner_diameter
     area_plate = plate.length * plate.width
     # The plate between and beside the passes: the area mean of the 1-D strip rises, each strip weighted by
     # its share of the width (the plate over a groove has no lateral rise).
-    parts_lat = strips(passage, plate)
     r_lat = sum(w / plate.width * float(R_strip_lateral(l, plate.conductivity, plate.base, area_plate))
-                for w, l in parts_lat)
+                for w, l in strips(passage, plate))
     r_bond = materials.bond(passage.bond).value / (CONTACT_ARC * math.pi * do * L)
     k_tube = materials.material(passage.material).conductivity
     r_wall = float(R_cylinder_wall(di, do, k_tube, L, CONTACT_ARC))
-    # Heat reaches the unbonded half of the tube by conduction round the wall: two curved fins of a quarter
-    # of the mean circumference each, wetted on one face (m = sqrt(h/(k t)), i.e. fin_m with 2t).
-    t_wall = (do - di) / 2
-    m = fin_m(h, k_tube, 2 * t_wall)
+    return (("plate between passes", r_lat), ("bond", r_bond), ("tube wall", r_wall))
+
+
+def convection(passage, geom: Geometry, h):
+    """Convection inside the tube [K/W], the wall's fin parameter m [1/m], the arc length s [m] and the arc's
+    fin efficiency [-].  ``h`` a float or a numpy array (the sizing search passes many flows at once).
+
+    Heat reaches the unbonded half of the tube by conduction round the wall: two curved fins of a quarter of
+    the mean circumference each, wetted on one face (m = sqrt(h/(k t)), i.e. fin_m with 2t):
+    R = 1 / (h π D_i L (f + (1 − f) η_arc)), f the bonded share of the circumference.
+    """
+    do, di = passage.outer_diameter, passage.inner_diameter
+    k_tube = materials.material(passage.material).conductivity
+    m = fin_m(h, k_tube, do - di)
     s = math.pi * (do + di) / 8
-    eta_arc = float(fin_efficiency_straight(m, s))
-    wetted = math.pi * di * L
-    r_conv = 1.0 / (h * wetted * (CONTACT_ARC + (1 - CONTACT_ARC) * eta_arc))
+    eta_arc = fin_efficiency_straight(m, s)
+    wetted = math.pi * di * geom.heated_length
+    return 1.0 / (h * wetted * (CONTACT_ARC + (1 - CONTACT_ARC) * eta_arc)), m, s, eta_arc
+
+
+def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
+    do, di = passage.outer_diameter, passage.inner_diameter
+    k_tube = materials.material(passage.material).conductivity
+    t_wall = (do - di) / 2
+    r_conv, m, s, _ = convection(passage, geom, h)
     checks = [("tube wall as fin", fin_efficiency_straight, {"mL": float(m) * s, "Bi": h * t_wall / k_tube})]
+    parts_lat = strips(passage, plate)
     if parts_lat:
         checks.append(("plate between passes", R_strip_lateral,
                        {"thickness/half_width": plate.base / max(l for _, l in parts_lat)}))
-    return BackSide(parts=(("plate between passes", r_lat), ("bond", r_bond), ("tube wall", r_wall),
-                           ("convection", r_conv)), wetted_area=wetted, methods=tuple(checks))
+    return BackSide(parts=conduction_parts(passage, plate, geom) + (("convection", float(r_conv)),),
+                    wetted_area=math.pi * di * geom.heated_length, methods=tuple(checks))
+
+
+def bend_loss_coefficient(passage, fd, Re):
+    """All return bends together, K on the tube velocity [-], less the arc friction the straight-tube friction
+    already counts.  ``fd``, ``Re`` floats or numpy arrays."""
+    bends = passage.passes - 1
+    if bends <= 0:
+        return np.zeros_like(np.asarray(fd, dtype=float))
+    K = K_return_bend(passage.inner_diameter, passage.bend_radius, fd, Re)
+    K_arc = np.asarray(fd) * math.pi * passage.bend_radius / passage.inner_diameter
+    return bends * np.maximum(K - K_arc, 0.0)
 
 
 def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float) -> tuple[MinorLoss, ...]:
@@ -95,6 +127,5 @@ def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float)
     bends = passage.passes - 1
     if bends <= 0:
         return ()
-    K = K_return_bend(passage.inner_diameter, passage.bend_radius, fd, Re)
-    K_arc = fd * math.pi * passage.bend_radius / passage.inner_diameter
-    return (MinorLoss(f"{bends} return bends (less arc friction)", bends * max(K - K_arc, 0.0), V),)
+    K = float(bend_loss_coefficient(passage, fd, Re))
+    return (MinorLoss(f"{bends} return bends (less arc friction)", K, V),)

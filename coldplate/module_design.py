@@ -1,0 +1,119 @@
+"""Read the design file's ``[module]`` table: thermoelectric modules on the plate.
+
+The module is given either by its datasheet maxima (``max_current``, ``max_voltage``,
+``max_temperature_difference`` at ``rated_hot_side``), from which S, R and K follow by Luo's
+derivation at that rated temperature, or directly by ``seebeck``, ``resistance`` and ``conductance``
+(with ``max_current``).  Every problem is a :class:`DesignError` naming ``[module] key``.
+"""
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+
+from . import thermoelectric as te
+from .errors import DesignError
+from .fields import Table
+
+WIRINGS = ("series", "parallel", "series-parallel")
+#: Hot-side temperature a standard module may run at when the datasheet gives none: 80 degC
+#: (common practice for modules assembled with ordinary low-temperature solder).
+DEFAULT_HOT_SIDE_LIMIT = 353.15
+_DATASHEET_KEYS = ("max_voltage", "max_temperature_difference", "rated_hot_side", "max_heat")
+_DIRECT_KEYS = ("seebeck", "resistance", "conductance")
+
+
+@dataclass(frozen=True)
+class Module:
+    """N identical modules between the cold stage and the plate, in SI units (kelvin)."""
+
+    S: float  #: Seebeck coefficient of one module [V/K]
+    R: float  #: electrical resistance of one module [ohm]
+    K: float  #: thermal conductance of one module [W/K]
+    max_current: float  #: [A]
+    count: int
+    wiring: str  #: "series", "parallel" or "series-parallel"
+    strings: int  #: parallel strings (1 = all in series, count = all in parallel)
+    cold_load: float  #: heat the whole array pumps from the cold stage [W]
+    current: float | None  #: drive current per module [A], or None when a target is given
+    cold_face_target: float | None  #: target cold-face temperature [K], or None when a current is given
+    cold_side_resistance: float  #: cold faces to the load, the whole stage [K/W] (0 = none given)
+    hot_side_limit: float  #: rated maximum hot-face temperature [K]
+    max_voltage: float | None = None  #: datasheet values, when given [V]
+    max_temperature_difference: float | None = None  #: [K]
+    rated_hot_side: float | None = None  #: [K]
+    max_heat: float | None = None  #: datasheet Q_max at I_max and no temperature difference [W]
+
+    @property
+    def described_as(self) -> str:
+        if self.max_voltage is not None:
+            return (f"datasheet I_max {self.max_current:g} A, V_max {self.max_voltage:g} V, dT_max "
+                    f"{self.max_temperature_difference:g} K at {self.rated_hot_side - 273.15:g} degC (Luo 2008)")
+        return f"S {self.S:.4g} V/K, R {self.R:.4g} ohm, K {self.K:.4g} W/K"
+
+
+def read_module(data) -> Module:
+    """The ``[module]`` table as a :class:`Module`."""
+    t = Table(data, "module")
+    direct = any(t.has(k) for k in _DIRECT_KEYS)
+    if direct and any(t.has(k) for k in _DATASHEET_KEYS):
+        raise DesignError("[module]", "give either the datasheet maxima (max_voltage, max_temperature_difference, "
+                                      "rated_hot_side) or seebeck, resistance and conductance, not both")
+    I_max = t.value("max_current", "current", low=0, high=1000)
+    extra = {}
+    if direct:
+        S = t.value("seebeck", "seebeck", low=0, high=10)
+        R = t.value("resistance", "electrical_resistance", low=0, high=1e4)
+        K = t.value("conductance", "thermal_conductance", low=0, high=1e3)
+    else:
+        V_max = t.value("max_voltage", "voltage", low=0, high=1000)
+        T_rated = t.value("rated_hot_side", "temperature", low=173.15, high=473.15)
+        dT_max = _difference(t, "max_temperature_difference")
+        if dT_max >= T_rated:
+            raise DesignError(t.field("max_temperature_difference"),
+                              f"{dT_max:g} K is not below the rated hot-side temperature "
+                              f"({T_rated:g} K): the cold side would be at or below absolute zero")
+        S, R, K = te.luo_parameters(I_max, V_max, dT_max, T_rated)
+        q_max = t.value("max_heat", "power", required=False, low=0, high=1e5)
+        extra = dict(max_voltage=V_max, max_temperature_difference=dT_max, rated_hot_side=T_rated, max_heat=q_max)
+
+    count = t.integer("count", 1, 500) if t.has("count") else 1
+    wiring = t.choice("wiring", WIRINGS, default="series")
+    strings = _strings(t, wiring, count)
+    Q_c = t.value("cold_load", "power", low=0, low_inclusive=True, high=1e5)
+    which = t.exactly_one("current", "cold_face_temperature")
+    current = target = None
+    if which == "current":
+        current = t.value("current", "current", low=0, low_inclusive=True, high=1000)
+        if current > I_max:
+            raise DesignError(t.field("current"), f"{current:g} A is above the module's max_current {I_max:g} A")
+        if current == 0 and Q_c == 0:
+            raise DesignError(t.field("current"), "with no cold-side load and no current there is nothing to solve")
+    else:
+        target = t.value("cold_face_temperature", "temperature", low=173.15, high=473.15)
+    R_cold = t.value("cold_side_resistance", "thermal_resistance", required=False, low=0, low_inclusive=True,
+                     high=100, default=0.0)
+    limit = t.value("hot_side_limit", "temperature", required=False, low=273.15, high=573.15,
+                    default=DEFAULT_HOT_SIDE_LIMIT)
+    t.finish()
+    return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra)
+
+
+def _difference(t: Table, key: str) -> float:
+    """A temperature difference: kelvin or delta_degC; degC/degF would be read as absolute temperatures."""
+    raw = t.raw(key)
+    if isinstance(raw, str) and re.search(r"(?<!delta_)(deg[CF]|celsius|fahrenheit)", raw):
+        raise DesignError(t.field(key), f"{raw!r} is a temperature, not a difference: write it in K or delta_degC")
+    v = t.value(key, "temperature", low=0, high=400)
+    return v
+
+
+def _strings(t: Table, wiring: str, count: int) -> int:
+    if wiring == "series-parallel":
+        strings = t.integer("strings", 2, 500)
+        if strings >= count or count % strings:
+            raise DesignError(t.field("strings"), f"{count} modules cannot form {strings} equal strings of two or "
+                                                  "more modules in series")
+        return strings
+    if t.has("strings"):
+        raise DesignError(t.field("strings"), f"only for wiring = \"series-parallel\" (wiring is {wiring!r})")
+    return 1 if wiring == "series" else count

@@ -1,0 +1,133 @@
+"""Planning once-through water: the least flow that keeps the limits, water and money per year, and the
+break-even against a recirculating chiller.
+
+The least flow is solved, not scanned: the excess over the limits,
+``m(Q) = max(T_face(Q) - face_limit, T_out(Q) - discharge_limit)``, falls with flow, and its root is bracketed
+(doubling or halving from the operating flow) and found with Brent's method (scipy.optimize.brentq).  Every
+temperature comes from :func:`coldplate.solve.solve_plate` at the trial flow.  Flows where the plate cannot
+run (the coolant would boil) count as above the limits.
+"""
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from .operating import FLOW_MAX, PlateAt
+from .supply_result import Breakeven, PlanningResult, UseCurve
+
+#: Points of the water-use curve.
+USE_POINTS = 12
+#: Relative tolerance of the least flow.
+RTOL = 1e-7
+
+
+def wants_planning(design) -> bool:
+    """Planning runs for once-through supplies that give a planning key or a circuit."""
+    s = design.supply
+    return s.once_through and (design.circuit is not None or s.face_limit is not None or s.tariff is not None)
+
+
+def seconds_per_year(supply) -> float:
+    return 3600.0 * supply.hours_per_day * supply.days_per_year
+
+
+def _excess(r, s) -> float:
+    """How far the plate at one flow is above its limits [K] (positive: a limit is broken)."""
+    if r is None:
+        return math.inf
+    e = r.T_out - s.discharge_limit
+    if s.face_limit is not None:
+        e = max(e, r.T_face_max - s.face_limit)
+    return e
+
+
+def least_flow(plate: PlateAt, start: float) -> float:
+    """The least flow [m^3/s] meeting the limits, or math.inf when none up to FLOW_MAX does."""
+    s = plate.design.supply
+    m = lambda q: _excess(plate(q), s)  # noqa: E731
+    q = start
+    if m(q) > 0:
+        while m(q) > 0:
+            lo, q = q, 2.0 * q
+            if q > FLOW_MAX:
+                return math.inf if m(FLOW_MAX) > 0 else _root(m, lo, FLOW_MAX)
+        hi = q
+    else:
+        while m(q) <= 0:
+            hi, q = q, 0.5 * q
+        lo = q
+    return _root(m, lo, hi)
+
+
+def _root(m, lo, hi) -> float:
+    from scipy.optimize import brentq
+
+    if not math.isfinite(m(lo)):  # narrow the side where the plate cannot run to a finite value
+        for _ in range(60):
+            mid = 0.5 * (lo + hi)
+            if math.isfinite(m(mid)) and m(mid) > 0:
+                lo = mid
+                break
+            if m(mid) > 0:
+                lo = mid
+            else:
+                hi = mid
+        else:  # pragma: no cover - the limits bind exactly where the plate stops running
+            return hi
+    return float(brentq(m, lo, hi, xtol=1e-14, rtol=RTOL))
+
+
+def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
+    """Planning at the operating flow V_op [m^3/s], with the plate at ``load`` [W] (the design's own if None)."""
+    s = design.supply
+    plate = PlateAt(design, load)
+    V_min = least_flow(plate, V_op)
+    per_year = seconds_per_year(s)
+    m3 = V_op * per_year
+    if math.isfinite(V_min):
+        r = plate(V_min)
+        face = None if s.face_limit is None else r.T_face_max - s.face_limit
+        binding = "mounting face" if face is not None and face >= r.T_out - s.discharge_limit else "discharge"
+        T_face_min, T_out_min, m3_min = r.T_face_max, r.T_out, V_min * per_year
+    else:
+        binding, T_face_min, T_out_min, m3_min = "unreachable", None, None, None
+    cost = None if s.tariff is None else m3 * s.tariff
+    cost_min = None if s.tariff is None or m3_min is None else m3_min * s.tariff
+    return PlanningResult(
+        V_dot_min=V_min, binding=binding, face_limit=s.face_limit, discharge_limit=s.discharge_limit,
+        T_face_at_min=T_face_min, T_out_at_min=T_out_min, water_L_per_day=V_op * 1000.0 * 3600.0 * s.hours_per_day,
+        water_m3_per_year=m3, water_m3_per_year_min=m3_min, cost_per_year=cost, cost_per_year_min=cost_min,
+        currency=s.currency, waste_ratio=V_op / V_min if math.isfinite(V_min) else None,
+        use_curve=use_curve(plate, V_op, V_min), breakeven=breakeven(s, m3))
+
+
+def use_curve(plate: PlateAt, V_op: float, V_min: float, n: int = USE_POINTS) -> UseCurve:
+    """Water per year against the hottest mounting face, from half the smaller to twice the larger of the two
+    flows (geometric steps; flows where the plate cannot run are left out)."""
+    low = min(V_op, V_min) if math.isfinite(V_min) else V_op
+    high = max(V_op, V_min) if math.isfinite(V_min) else V_op
+    per_year = seconds_per_year(plate.design.supply)
+    rows = []
+    for q in np.geomspace(0.5 * low, min(2.0 * high, FLOW_MAX), n):
+        r = plate(float(q))
+        if r is not None:
+            rows.append((float(q), r.T_face_max, r.T_out, float(q) * per_year))
+    V, T_face, T_out, m3 = zip(*rows) if rows else ((), (), (), ())
+    return UseCurve(V, T_face, T_out, m3)
+
+
+def breakeven(s, m3_per_year: float) -> Breakeven | None:
+    """Once-through water at the operating flow against a chiller's electricity over the same hours."""
+    if s.chiller_power is None:
+        return None
+    per_year = seconds_per_year(s)
+    electricity = s.chiller_power * per_year * s.electricity_tariff
+    water = m3_per_year * s.tariff
+    saving = water - electricity
+    payback = s.chiller_price / saving if s.chiller_price is not None and saving > 0 else None
+    return Breakeven(
+        chiller_power=s.chiller_power, electricity_cost_per_year=electricity, water_cost_per_year=water,
+        breakeven_flow=electricity / (s.tariff * per_year) if s.tariff > 0 else math.inf,
+        breakeven_tariff=electricity / m3_per_year if m3_per_year > 0 else math.inf,
+        saving_per_year=saving, payback_years=payback)

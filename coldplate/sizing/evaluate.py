@@ -1,0 +1,190 @@
+"""The design check's physics over arrays of candidate plates at once (numpy).
+
+One physics, two evaluation modes.  Every step calls the same function the one-design check
+(:func:`coldplate.solve.solve_plate`) calls, with arrays instead of floats:
+
+* coolant outlet from the enthalpy balance H(T_out) = H(T_in) + Q/ṁ and properties at the bulk mean
+  temperature: :class:`~coldplate.sizing.proptable.PropertyTable` (CoolProp, tabulated once per run);
+* channel geometry: :func:`coldplate.passages.channels.wall_thickness`, ``channel_length``,
+  :func:`hydraulics.ducts.hydraulic_diameter_rectangle`, :func:`~hydraulics.ducts.aspect_ratio`;
+* velocity, Reynolds number, friction and Nusselt number: :func:`coldplate.solve.passage_flow` (the check's
+  own step: :func:`hydraulics.friction.darcy_friction`, :func:`coldplate.convection.nusselt`), and
+  :func:`coldplate.solve.friction_pressure_drop`;
+* back side: :func:`coldplate.passages.channels.fin_areas` (fin efficiency of the walls);
+* spreading and the march for the hottest point: :class:`~coldplate.sizing.platetable.PlateTable`
+  (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the check's march points);
+* minor losses: :func:`coldplate.passages.channels.loss_coefficients` (fluids' Rennels formulas).
+* tubes: the tube module's ``geometry``, ``conduction_parts`` (per base thickness), ``convection`` and
+  ``bend_loss_coefficient`` (arrays over flows), the same functions its ``back_side`` and ``minor_losses``
+  use.
+
+Candidates are given as axes that broadcast: geometry arrays of length G (count, width, depth — or
+inner diameter and passes for a tube), base thicknesses (Nt) and flows (Nq); the result arrays have shape
+(G, Nt, Nq).  Work that depends on fewer axes is done on fewer elements (friction and Nusselt on G × Nq,
+the spreading series per base thickness and h_eff node), which is what makes a million candidates a
+second possible.  Tubes loop over geometries and base thicknesses in Python (tube searches are small) and
+are vectorised over flows.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+from types import SimpleNamespace
+
+import numpy as np
+
+from hydraulics.coolant import enthalpy
+from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+
+from .. import conduction
+from ..design import Design
+from ..errors import DesignError
+from ..passages import channels as channel_passage
+from ..passages import tube as tube_passage
+from ..solve import friction_pressure_drop, passage_flow
+from .platetable import PlateTable
+from .proptable import PropertyTable
+
+#: Keep the bulk outlet this far below the boiling point / end of the property data [K].
+TOP_MARGIN_K = 0.5
+
+
+@dataclass(frozen=True)
+class Evaluation:
+    """Arrays of shape (G, Nt, Nq) (SI, kelvin), one element per candidate."""
+
+    R_th: np.ndarray  #: (hottest mounting face − inlet) / load [K/W]; NaN where the coolant would boil
+    T_face: np.ndarray  #: hottest mounting face [K]
+    dp: np.ndarray  #: plate pressure drop [Pa]
+    T_out: np.ndarray  #: outlet [K]
+    velocity: np.ndarray  #: mean velocity in the passage [m/s]
+    Re: np.ndarray
+    flow: np.ndarray  #: volumetric flow at the inlet [m^3/s]
+    solvable: np.ndarray  #: False where the coolant would boil or leave the property data
+
+
+class Evaluator:
+    """Everything fixed during a search (plate outline, footprint, load, coolant, inlet), built once.
+
+    ``design`` is the design file's design; the candidates replace its passage sizes, base and flow.
+    """
+
+    def __init__(self, design: Design):
+        d = self.design = design
+        if d.model.laminar == "sieder-tate":
+            raise DesignError("[correlations] laminar", "sieder-tate needs each candidate's wall temperature; "
+                                                        "size with another laminar model")
+        if d.passage.kind not in ("channels", "tube"):
+            raise DesignError("[passage] kind", f"sizing covers channels and tube passages, not {d.passage.kind}")
+        self.Q = d.heat.load
+        self.T_in = d.inlet_temperature
+        self.p = d.supply.line_pressure
+        c = d.coolant
+        self.T_top = c.upper_limit(self.p) - TOP_MARGIN_K
+        if self.T_top <= self.T_in + TOP_MARGIN_K:
+            raise DesignError("[coolant] inlet_temperature", "is within a kelvin of boiling or of the end of the "
+                                                             "property data: no flow can carry heat away")
+        self.rho_in = c.props(self.T_in, self.p).rho
+        self.H_in = enthalpy(c, self.T_in, self.p)
+        self.props = PropertyTable(c, self.p, self.T_in, self.T_top)
+        self.plate = PlateTable.for_design(d)
+        self.A_plate = d.plate.length * d.plate.width
+        self.R_int = conduction.R_interface(d.interface.resistance_area,
+                                            d.heat.footprint_length * d.heat.footprint_width)
+
+    # ---------------------------------------------------------------- shared stages
+
+    def coolant(self, flow):
+        """Outlet, bulk-mean properties and the coolant's rise per watt for flows [m^3/s] (any shape)."""
+        flow = np.asarray(flow, dtype=float)
+        m_dot = self.rho_in * flow  # the volumetric flow is taken at inlet conditions
+        T_out = self.props.temperature(self.H_in + self.Q / m_dot)
+        solvable = np.isfinite(T_out) & (T_out < self.T_top)
+        T_out = np.where(solvable, T_out, np.nan)
+        pr = self.props.at(np.where(solvable, 0.5 * (self.T_in + T_out), self.T_in))
+        return SimpleNamespace(m_dot=m_dot, T_out=T_out, pr=pr, s=(T_out - self.T_in) / self.Q, ok=solvable)
+
+    def _finish(self, R_plate, dp, st, V, Re, shape):
+        R_th = R_plate + self.R_int
+        full = lambda a: np.broadcast_to(a, shape)  # noqa: E731
+        ok = full(st.ok) & np.isfinite(R_th)
+        dp = np.where(st.ok, dp, np.nan)
+        return Evaluation(R_th=full(R_th), T_face=full(self.T_in + self.Q * R_th), dp=full(dp),
+                          T_out=full(st.T_out), velocity=full(V), Re=full(Re), flow=full(st.flow), solvable=ok)
+
+    # ---------------------------------------------------------------- channels
+
+    def channels(self, count, width, depth, base, flow) -> Evaluation:
+        """Channel plates: ``count``, ``width``, ``depth`` 1-D of length G; ``base`` (Nt,), ``flow`` (Nq,)."""
+        d = self.design
+        n = np.asarray(count, dtype=float).reshape(-1, 1, 1)
+        w = np.asarray(width, dtype=float).reshape(-1, 1, 1)
+        dep = np.asarray(depth, dtype=float).reshape(-1, 1, 1)
+        base = np.atleast_1d(np.asarray(base, dtype=float))
+        flow = np.atleast_1d(np.asarray(flow, dtype=float))
+        st = self.coolant(flow.reshape(1, 1, -1))
+        st.flow = flow.reshape(1, 1, -1)
+        pr = st.pr
+        passage = SimpleNamespace(count=n, width=w, depth=dep, plenum_length=d.passage.plenum_length)
+        wall = channel_passage.wall_thickness(passage, d.plate)
+        L = channel_passage.channel_length(passage, d.plate)
+        D_h = hydraulic_diameter_rectangle(w, dep)
+        alpha = aspect_ratio(w, dep)
+        area = n * w * dep
+        shape = (n.shape[0], 1, flow.size)
+        V, Re, f, h = (np.empty(shape) for _ in range(4))
+        # the heated-wall arrangement follows each channel's shape: one call per arrangement
+        heated = channel_passage.heated_walls(w, dep).ravel()
+        for kind in np.unique(heated):
+            rows = heated == kind
+            V[rows], Re[rows], fr, _, h[rows] = passage_flow(
+                st.m_dot, pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
+                d.passage.roughness / D_h[rows], d.model)
+            f[rows] = fr.f
+        _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
+        h_eff = effective * h / self.A_plate  # 1 / (A_plate R_below), R_below = 1 / (h A_effective)
+        R_plate = np.stack([self.plate.rise(float(t), h_eff[:, 0, :], st.s.ravel()) for t in base], axis=1)
+        dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
+        dyn = 0.5 * pr.rho * V**2
+        for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
+            dp = dp + K * ratio**2 * dyn
+        return self._finish(R_plate, dp, st, V, Re, (n.shape[0], base.size, flow.size))
+
+    # ---------------------------------------------------------------- tubes
+
+    def tubes(self, inner_diameter, passes, base, flow) -> Evaluation:
+        """Serpentine tube plates: ``inner_diameter``, ``passes`` 1-D of length G; ``base`` (Nt,), ``flow`` (Nq,).
+
+        The tube's wall thickness, bend radius, material and bond stay those of the design file.
+        """
+        d = self.design
+        di_all = np.atleast_1d(np.asarray(inner_diameter, dtype=float))
+        np_all = np.atleast_1d(np.asarray(passes)).astype(int)
+        base = np.atleast_1d(np.asarray(base, dtype=float))
+        flow = np.atleast_1d(np.asarray(flow, dtype=float))
+        G, Nt, Nq = di_all.size, base.size, flow.size
+        st = self.coolant(flow)
+        st.flow = flow.reshape(1, 1, -1)
+        pr = st.pr
+        wall = 0.5 * (d.passage.outer_diameter - d.passage.inner_diameter)
+        R_plate = np.full((G, Nt, Nq), np.nan)
+        dp = np.full((G, 1, Nq), np.nan)
+        V_all = np.full((G, 1, Nq), np.nan)
+        Re_all = np.full((G, 1, Nq), np.nan)
+        for g in range(G):
+            passage = replace(d.passage, inner_diameter=float(di_all[g]), outer_diameter=float(di_all[g] + 2 * wall),
+                              passes=int(np_all[g]))
+            geom = tube_passage.geometry(passage, d.plate)
+            V, Re, fr, _, h = passage_flow(st.m_dot, pr, geom.n_parallel * geom.flow_area, geom.D_h, geom.alpha,
+                                           geom.shape, geom.path_length, geom.heated_length, geom.heated,
+                                           geom.rel_roughness, d.model)
+            f = np.asarray(fr.f)
+            dp[g, 0] = (friction_pressure_drop(f, geom.path_length, geom.D_h, pr.rho, V)
+                        + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
+            V_all[g, 0], Re_all[g, 0] = V, Re
+            r_conv = tube_passage.convection(passage, geom, h)[0]
+            for b, t in enumerate(base):
+                fixed = tube_passage.conduction_parts(passage, replace(d.plate, base=float(t)), geom)
+                R_below = sum(r for _, r in fixed) + r_conv
+                R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_plate * R_below), st.s,
+                                                single_pass=geom.single_pass)
+        return self._finish(R_plate, dp, st, V_all, Re_all, (G, Nt, Nq))

@@ -1,0 +1,219 @@
+"""Reading the ``[search]`` table: the free variables' ranges and the limits a design must meet.
+
+A free variable is given as one value (``"3 mm"``), a list (``["2 mm", "3 mm"]``) or an evenly spaced range
+``{ from = "1 mm", to = "3 mm", steps = 9 }`` (add ``spacing = "log"`` for geometric spacing).  Whole-number
+variables (``count``, ``passes``) take whole numbers: ``8``, ``[6, 8, 12]`` or ``{ from = 4, to = 30 }``
+(every whole number, or ``steps`` of them).  Variables not given keep the design file's value.
+
+Every error is a one-line :class:`~coldplate.errors.DesignError` naming ``[search] key``.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..design import Design
+from ..errors import DesignError
+from ..fields import Table
+from ..units import parse_value
+
+#: Free variables by passage kind: name -> (unit kind, whole number?, plausible low, high in SI).
+VARIABLES = {
+    "channels": {
+        "count": ("count", True, 1, 2000),
+        "width": ("length", False, 1e-5, 0.5),
+        "depth": ("length", False, 1e-5, 0.1),
+        "base": ("length", False, 1e-5, 0.2),
+        "flow": ("flow", False, 1e-9, 0.01),
+    },
+    "tube": {
+        "inner_diameter": ("length", False, 1e-4, 0.1),
+        "passes": ("count", True, 1, 200),
+        "base": ("length", False, 1e-5, 0.2),
+        "flow": ("flow", False, 1e-9, 0.01),
+    },
+}
+#: Limits: name -> unit kind.
+LIMITS = {
+    "face_limit": "temperature",
+    "pressure_drop_limit": "pressure",
+    "discharge_limit": "temperature",
+    "min_width": "length",
+    "min_wall": "length",
+    "max_thickness": "length",
+    "max_water": "flow",
+}
+#: The most candidates one search may hold (memory for the axes is small; this guards against typos).
+MAX_CANDIDATES = 200_000_000
+MAX_STEPS = 100_000
+
+
+@dataclass(frozen=True)
+class Limits:
+    """What every candidate must meet (SI, kelvin); None where the design file sets no such limit."""
+
+    face: float  #: hottest mounting face [K]
+    pressure_drop: float | None  #: plate pressure drop [Pa]: the smaller of the stated limit and the static pressure
+    pressure_source: str  #: where the pressure limit comes from, for the report
+    discharge: float | None  #: outlet [K] (once-through: [supply] discharge_limit unless [search] sets one)
+    min_width: float | None  #: narrowest channel the shop can cut [m]
+    min_wall: float | None  #: thinnest wall between channels [m]
+    max_thickness: float | None  #: plate stock: base + channel depth (or base + tube radius) at most [m]
+    max_water: float | None  #: once-through water per day, as an average flow [m^3/s]
+
+
+@dataclass(frozen=True)
+class SearchSpec:
+    """A parsed ``[search]`` table: axes of the free variables (SI arrays) and the limits."""
+
+    kind: str  #: "channels" or "tube"
+    axes: dict  #: variable name -> 1-D numpy array of values (SI; whole numbers as integers)
+    limits: Limits
+    given: tuple[str, ...]  #: the variables the table lists (the others keep the design's value)
+
+    @property
+    def size(self) -> int:
+        return int(np.prod([v.size for v in self.axes.values()]))
+
+
+def design_values(design: Design) -> dict:
+    """The design file's own values of the free variables (SI)."""
+    p = design.passage
+    base = {"base": design.plate.base, "flow": design.flow}
+    if p.kind == "channels":
+        return {"count": p.count, "width": p.width, "depth": p.depth, **base}
+    return {"inner_diameter": p.inner_diameter, "passes": p.passes, **base}
+
+
+def read_search(data: dict, design: Design) -> SearchSpec:
+    """Read the ``[search]`` table of a design file's data (the dict from TOML) for ``design``."""
+    if "search" not in data:
+        raise DesignError("[search]", "table is missing: give the ranges to search and the limits to meet")
+    kind = design.passage.kind
+    if kind not in VARIABLES:
+        raise DesignError("[passage] kind", f"sizing covers channels and tube passages, not {kind}")
+    if design.supply.drive == "pump":
+        raise DesignError("[supply] drive", "sizing searches the flow itself: size with drive = \"flow\" or "
+                                            "\"pressure\", then check the pump on the result with coldplate check")
+    if design.flow is None and not (isinstance(data["search"], dict) and "flow" in data["search"]):
+        raise DesignError("[search] flow", "is needed: the supply sets this design's flow, so give the flows to search")
+    t = Table(data["search"], "search")
+    own = design_values(design)
+    axes, given = {}, []
+    for name, (unit, whole, low, high) in VARIABLES[kind].items():
+        if t.has(name):
+            given.append(name)
+            axes[name] = _axis(t, name, unit, whole, low, high)
+        else:
+            axes[name] = np.array([own[name]], dtype=int if whole else float)
+    limits = _limits(t, design)
+    t.finish()
+    if not given:
+        raise DesignError("[search]", f"gives no variable to search; give one or more of: "
+                                      f"{', '.join(VARIABLES[kind])}")
+    spec = SearchSpec(kind, axes, limits, tuple(given))
+    if spec.size > MAX_CANDIDATES:
+        raise DesignError("[search]", f"{spec.size:,} candidates is more than the {MAX_CANDIDATES:,} one search "
+                                      "may hold; use fewer steps")
+    return spec
+
+
+def _limits(t: Table, design: Design) -> Limits:
+    face = t.value("face_limit", "temperature", low=200.0, high=600.0)
+    if face <= design.inlet_temperature:
+        raise DesignError(t.field("face_limit"), "is not above the inlet temperature: no plate can meet it")
+    dp_given = t.value("pressure_drop_limit", "pressure", required=False, low=0, high=1e8)
+    static = design.supply.static_pressure
+    if dp_given is not None and (static is None or dp_given <= static):
+        dp, source = dp_given, "[search] pressure_drop_limit, for the plate alone"
+    elif static is not None:
+        dp, source = static, "[supply] static_pressure, all of it across the plate"
+    else:
+        dp, source = None, "none given"
+    if dp is not None:
+        source += " (fittings, hose and valves are not counted: leave them their share)"
+    once = design.supply.once_through
+    discharge = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15)
+    if discharge is None and once:
+        discharge = design.supply.discharge_limit
+    kind = design.passage.kind
+    min_width = t.value("min_width", "length", required=False, low=0, high=0.1)
+    min_wall = t.value("min_wall", "length", required=False, low=0, high=0.1)
+    if kind != "channels":
+        for key in ("min_width", "min_wall"):
+            if t.has(key):
+                raise DesignError(t.field(key), "applies to channel plates only")
+    max_thickness = t.value("max_thickness", "length", required=False, low=0, high=0.5)
+    max_water = t.value("max_water", "flow", required=False, low=0, high=1.0)
+    if max_water is not None and not once:
+        raise DesignError(t.field("max_water"), "the water returns to its loop, so it uses none; "
+                                                "bound the flow's range instead")
+    return Limits(face, dp, source, discharge, min_width, min_wall, max_thickness, max_water)
+
+
+def _axis(t: Table, name: str, unit: str, whole: bool, low: float, high: float) -> np.ndarray:
+    field = t.field(name)
+    raw = t.raw(name)
+    if isinstance(raw, list):
+        if not raw:
+            raise DesignError(field, "is an empty list; give at least one value")
+        if len(raw) > MAX_STEPS:
+            raise DesignError(field, f"lists more than {MAX_STEPS:,} values")
+        values = np.array([_one(v, unit, whole, field) for v in raw])
+    elif isinstance(raw, dict):
+        values = _range(raw, unit, whole, field)
+    else:
+        values = np.array([_one(raw, unit, whole, field)])
+    bad = values[(values < low) | (values > high)]
+    if bad.size:
+        v = float(bad[0])
+        shown = f"{v:g}" if whole else f"{v:.4g} (SI)"
+        raise DesignError(field, f"value {shown} is outside the plausible range {low:g} to {high:g} "
+                                 f"({'a whole number' if whole else 'SI units'})")
+    values = np.unique(values)
+    return values.astype(int) if whole else values.astype(float)
+
+
+def _one(v, unit, whole, field):
+    if whole:
+        if isinstance(v, bool) or not isinstance(v, int):
+            raise DesignError(field, f"must be whole numbers, got {v!r}")
+        return v
+    return parse_value(v, unit, field)
+
+
+def _range(raw: dict, unit: str, whole: bool, field: str) -> np.ndarray:
+    unknown = sorted(set(raw) - {"from", "to", "steps", "spacing"})
+    if unknown:
+        raise DesignError(field, f"unknown key {unknown[0]!r} in a range (known: from, to, steps, spacing)")
+    for key in ("from", "to"):
+        if key not in raw:
+            raise DesignError(field, f"a range needs 'from' and 'to' (missing {key!r})")
+    lo, hi = _one(raw["from"], unit, whole, field), _one(raw["to"], unit, whole, field)
+    if hi < lo:
+        raise DesignError(field, "the range runs backwards: 'to' is below 'from'")
+    steps = raw.get("steps")
+    if steps is None:
+        if not whole:
+            raise DesignError(field, "a range of lengths or flows needs 'steps' (how many values)")
+        steps = hi - lo + 1
+    if isinstance(steps, bool) or not isinstance(steps, int) or not (1 <= steps <= MAX_STEPS):
+        raise DesignError(field, f"steps must be a whole number from 1 to {MAX_STEPS:,}, got {steps!r}")
+    if steps == 1 and hi != lo:
+        raise DesignError(field, "one step cannot span a range; give steps of 2 or more, or one value")
+    spacing = raw.get("spacing", "linear")
+    if spacing not in ("linear", "log"):
+        raise DesignError(field, f"spacing must be 'linear' or 'log', not {spacing!r}")
+    if spacing == "log":
+        if lo <= 0:
+            raise DesignError(field, "log spacing needs a range above zero")
+        values = np.geomspace(lo, hi, steps)
+    else:
+        values = np.linspace(lo, hi, steps)
+    if whole:
+        values = np.unique(np.rint(values).astype(int))
+    if not np.all(np.isfinite(values)):
+        raise DesignError(field, "the range is not finite")
+    return values
+

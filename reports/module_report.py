@@ -1,0 +1,97 @@
+"""The thermoelectric stage in the reports: JSON keys and the text section with the current sweep.
+
+Only formatting: every number comes from ``Result.module``.
+"""
+from __future__ import annotations
+
+import math
+
+
+def _c(T: float) -> float:
+    return T - 273.15
+
+
+def _num(x: float):
+    """JSON has no NaN or infinity: undefined values (COP with no power drawn) become null."""
+    return x if math.isfinite(x) else None
+
+
+def module_to_dict(m) -> dict:
+    """The module's keys for the JSON object (empty when there are no modules)."""
+    if m is None:
+        return {}
+    s = m.sweep
+    return {
+        "cold_face_temperature_C": _c(m.T_cold),
+        "hot_face_temperature_C": _c(m.T_hot),
+        "module_current_A": m.current,
+        "module_voltage_V": m.voltage,
+        "electrical_power_W": m.power,
+        "cop": _num(m.cop),
+        "heat_into_plate_W": m.Q_hot,
+        "coldest_current_A": m.coldest_current,
+        "module": {
+            "count": m.count, "wiring": m.wiring, "strings": m.strings, "mode": m.mode,
+            "array_current_A": m.array_current, "array_voltage_V": m.array_voltage,
+            "cold_load_W": m.Q_cold, "load_temperature_C": _c(m.T_load),
+            "coldest_cold_face_temperature_C": _c(m.T_cold_coldest), "best_cop_current_A": m.best_cop_current,
+            "max_current_A": m.max_current, "hot_side_limit_C": _c(m.hot_side_limit),
+            "dew_point_C": _c(m.T_dew), "dew_margin_K": m.dew_margin,
+            "plate_resistance_K_per_W": m.R_plate, "runaway_slope": m.runaway_slope,
+            "seebeck_V_per_K": m.parameters[0], "resistance_ohm": m.parameters[1],
+            "conductance_W_per_K": m.parameters[2], "max_heat_model_W": m.max_heat_model,
+            "sweep": {"current_A": list(s.current), "cold_face_temperature_C": [_c(t) for t in s.T_cold],
+                      "hot_face_temperature_C": [_c(t) for t in s.T_hot], "cop": [_num(x) for x in s.cop],
+                      "electrical_power_W": list(s.power), "heat_into_plate_W": list(s.Q_hot),
+                      "stopped": s.stopped or None},
+        },
+    }
+
+
+#: Rows of the text sweep table (of the sweep's points, evenly spaced).
+TEXT_ROWS = 11
+
+
+def module_text(m) -> list[str]:
+    """The text section: the operating point and a small table of the current sweep."""
+    if m is None:
+        return []
+    wiring = m.wiring if m.wiring != "series-parallel" else f"{m.strings} strings of {m.count // m.strings}"
+    cop = f"{m.cop:.3f}" if math.isfinite(m.cop) else "-"
+    rows = [
+        ("modules", f"{m.count}", f"wired {wiring}; S {m.parameters[0]:.4g} V/K, R {m.parameters[1]:.4g} ohm, "
+                                  f"K {m.parameters[2]:.4g} W/K each"),
+        ("current / voltage per module", f"{m.current:.3f} / {m.voltage:.3f}",
+         "A / V" + ("  (set to reach the target cold face)" if m.mode == "target" else "")),
+        ("supply current / voltage", f"{m.array_current:.3f} / {m.array_voltage:.3f}", "A / V"),
+        ("cold face / hot face", f"{_c(m.T_cold):.2f} / {_c(m.T_hot):.2f}",
+         f"degC  (hot-face limit {_c(m.hot_side_limit):.0f} degC)"),
+        ("load temperature", f"{_c(m.T_load):.2f}", "degC  (beyond the cold-side path)"),
+        ("cold load / electrical power", f"{m.Q_cold:.4g} / {m.power:.4g}", "W"),
+        ("heat into the plate", f"{m.Q_hot:.4g}", "W"),
+        ("COP", cop, "-"),
+        ("coldest current", f"{m.coldest_current:.3f}", f"A per module  (cold face {_c(m.T_cold_coldest):.2f} degC)"),
+        ("best-COP current", f"{m.best_cop_current:.3f}", "A per module  (least current reaching this cold face)"),
+        ("cold face - room dew/frost point", f"{m.dew_margin:+.1f}", "K"),
+    ]
+    wq = max(len(q) for q, _, _ in rows)
+    wv = max(len(v) for _, v, _ in rows)
+    out = ["Thermoelectric modules", "----------------------"]
+    out += [f"  {q:<{wq}}  {v:>{wv}}  {u}" for q, v, u in rows]
+    s = m.sweep
+    n = len(s.current)
+    idx = sorted({round(i * (n - 1) / (TEXT_ROWS - 1)) for i in range(TEXT_ROWS)}) if n > 1 else [0]
+    out += ["", "  current sweep (per module; power and heat for the whole array)",
+            f"  {'A':>6}  {'cold degC':>9}  {'hot degC':>8}  {'COP':>6}  {'power W':>8}  {'to plate W':>10}"]
+    for i in idx:
+        c = f"{s.cop[i]:.3f}" if math.isfinite(s.cop[i]) else "-"
+        out.append(f"  {s.current[i]:6.2f}  {_c(s.T_cold[i]):9.2f}  {_c(s.T_hot[i]):8.2f}  {c:>6}  "
+                   f"{abs(s.power[i]) if s.power[i] == 0 else s.power[i]:8.1f}  {s.Q_hot[i]:10.1f}")
+    if s.stopped:
+        out.append(f"  (stops: {s.stopped})")
+    if m.coldest_current < m.max_current * (1 - 1e-6):
+        out.append(f"  coldest cold face at {m.coldest_current:.2f} A; more current makes it warmer")
+    else:
+        out.append("  the cold face is still cooling at I_max: no turning point within the module's rating")
+    out.append("")
+    return out
