@@ -395,3 +395,22 @@ def test_report_says_which_flows_were_left_out(tmp_path):
     assert main(["report", str(path), "-o", str(out)]) == 0
     body = "".join(parse(out.read_text(encoding="utf-8")).text)
     assert re.search(r"Left out \d+ flows? at or below [\d.]+ L/min, where the flow is too small for the load", body)
+
+
+def test_check_text_sections_in_us_units(capsys):
+    # library: a fresh pint registry converts the solved SI values; the text must show them
+    ureg = pint.UnitRegistry()
+    circuit = ROOT / "examples" / "tap-to-drain-circuit.toml"
+    assert main(["check", str(circuit), "--units", "us"]) == 0
+    text = capsys.readouterr().out
+    c = check_file(circuit).circuit
+    assert f"{ureg.Quantity(c.supply_pressure, 'Pa').to('psi').magnitude:.3f}  psi (gauge)" in text
+    assert f"{ureg.Quantity(c.V_dot, 'm**3/s').to('gallon/minute').magnitude:.4g}  gpm" in text
+    assert not re.search(r"\d bar\b", text) and "L/min" not in text.split("Findings")[0]
+    stage = ROOT / "examples" / "sample-stage-thermoelectric.toml"
+    assert main(["check", str(stage), "--units", "us"]) == 0
+    text = capsys.readouterr().out
+    m = check_file(stage).module
+    assert f"{ureg.Quantity(m.Q_hot, 'W').to('Btu_it/hour').magnitude:.4g}  BTU/h" in text
+    assert f"{ureg.Quantity(m.T_cold, 'K').to('degF').magnitude:.2f} / " in text
+    assert "degC" not in text.split("Thermoelectric modules")[1].split("Correlations used")[0]
