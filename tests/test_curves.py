@@ -109,3 +109,18 @@ def test_compact_fit_evaluates_arrays():
     fit = CompactFit(1.0, 2.0, 0.1, 0.01, 0.5, 0.0, 0.0, 1e-6, 1e-4)
     assert np.allclose(fit.dp([1.0, 2.0]), [3.0, 10.0])
     assert fit.R_th(4.0) == pytest.approx(0.1 + 0.01 / 2)
+
+
+@pytest.mark.parametrize("name", ["tap-to-drain-circuit", "sample-stage-thermoelectric"])
+def test_curve_at_the_solved_operating_point(name):
+    # computed: a circuit sets the flow and modules set the plate's load; the curve's design point is that
+    # operating point, the same plate solve the design check reports
+    d = design_from_dict(example_dict(name))
+    r = solve(d)
+    c = flow_curve(d, load=r.load, flow=r.V_dot)
+    assert c.design_V_dot == r.V_dot and c.load == pytest.approx(r.load, rel=1e-12)
+    assert c.design_R_th == pytest.approx(r.R_th, rel=1e-9) and c.design_dp == pytest.approx(r.dp, rel=1e-9)
+    assert min(c.V_dot) == pytest.approx(r.V_dot / 4) and r.V_dot in c.V_dot
+    if d.flow is None:
+        with pytest.raises(DesignError, match="operating flow"):
+            flow_curve(d)
