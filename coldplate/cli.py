@@ -41,8 +41,8 @@ def _parser() -> argparse.ArgumentParser:
 
 
 def _flow_range_options(p) -> None:
-    p.add_argument("--min-flow", help="lowest flow of the curves, e.g. '0.3 L/min' (default: design flow / 4)")
-    p.add_argument("--max-flow", help="highest flow of the curves (default: design flow x 4)")
+    p.add_argument("--min-flow", help="lowest flow of the curves, e.g. '0.3 L/min' (default: operating flow / 4)")
+    p.add_argument("--max-flow", help="highest flow of the curves (default: operating flow x 4)")
     p.add_argument("--points", type=int, default=25, help="flows on the curves (default: 25)")
 
 
