@@ -1,4 +1,6 @@
-"""Command line: ``coldplate check FILE [--format text|json]`` and ``coldplate size FILE`` (coldplate.sizing).
+"""Command line: ``coldplate check FILE [--format text|json] [--units si|us]``,
+``coldplate report FILE -o OUT.html|OUT.md``, ``coldplate curves FILE [-o OUT.csv|OUT.json]`` and
+``coldplate size FILE`` (coldplate.sizing).
 
 Only wiring: read the file, solve, format, set the exit status.  Bad input prints
 one line on stderr and exits with status 2; nothing is written half-way.
@@ -18,10 +20,104 @@ def _parser() -> argparse.ArgumentParser:
     c = sub.add_parser("check", help="solve a design file and print the design check")
     c.add_argument("file", help="design file (TOML)")
     c.add_argument("--format", choices=("text", "json"), default="text", help="output format (default: text)")
+    c.add_argument("--units", choices=("si", "us"), default="si",
+                   help="display units of the text summary (default: si; JSON is always SI)")
+    r = sub.add_parser("report", help="write a design report: one self-contained HTML file, or Markdown")
+    r.add_argument("file", help="design file (TOML)")
+    r.add_argument("-o", "--output", required=True, help="report file: NAME.html, or NAME.md (figures beside it)")
+    r.add_argument("--units", choices=("si", "us"), default="si", help="display units (default: si)")
+    _flow_range_options(r)
+    r.add_argument("--force", action="store_true", help="replace existing files")
+    k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with a compact fit")
+    k.add_argument("file", help="design file (TOML)")
+    k.add_argument("-o", "--output", help="file to write (NAME.csv or NAME.json); standard output when absent")
+    k.add_argument("--format", choices=("csv", "json"), help="output format (default: from the file name, else csv)")
+    _flow_range_options(k)
+    k.add_argument("--force", action="store_true", help="replace an existing file")
     from .sizing.command import add_parser as add_size_parser
 
     add_size_parser(sub)
     return p
+
+
+def _flow_range_options(p) -> None:
+    p.add_argument("--min-flow", help="lowest flow of the curves, e.g. '0.3 L/min' (default: operating flow / 4)")
+    p.add_argument("--max-flow", help="highest flow of the curves (default: operating flow x 4)")
+    p.add_argument("--points", type=int, default=25, help="flows on the curves (default: 25)")
+
+
+def _flows(args, flow):
+    """The flows for the curves: log-spaced over the asked range, with the operating flow [m^3/s]."""
+    from .curves import DEFAULT_SPAN, MIN_POINTS, default_flows
+    from .units import parse_value
+
+    if not MIN_POINTS <= args.points <= 500:
+        raise DesignError("--points", f"must be between {MIN_POINTS} and 500")
+    lo = parse_value(args.min_flow, "flow", "--min-flow") if args.min_flow else flow * DEFAULT_SPAN[0]
+    hi = parse_value(args.max_flow, "flow", "--max-flow") if args.max_flow else flow * DEFAULT_SPAN[1]
+    if not 0 < lo < hi:
+        raise DesignError("--min-flow", "must be positive and below --max-flow")
+    return default_flows(flow, (lo / flow, hi / flow), args.points)
+
+
+def _report(args, version) -> str:
+    from pathlib import Path
+
+    from .curves import fit_compact, flow_curve, mounting_face_profile
+    from .design import parse_design
+    from .solve import solve
+
+    from reports.make import check_targets, make_report, report_format, write_report
+
+    report_format(args.output)
+    if not args.force:
+        check_targets([args.output], False)
+    try:
+        raw = Path(args.file).read_bytes()
+    except OSError as exc:
+        raise DesignError("", f"cannot read design file {args.file!r}: {exc.strerror or exc}") from None
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError:
+        raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
+    result = solve(parse_design(text))
+    curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
+    rep = make_report(result, curve, fit_compact(curve), mounting_face_profile(result), units=args.units,
+                      version=version, source_name=Path(args.file).name, source_bytes=raw)
+    written = write_report(rep, args.output, args.force)
+    return "wrote " + ", ".join(str(p) for p in written)
+
+
+def _curves(args, version) -> str:
+    from .curves import fit_compact, flow_curve
+    from .design import load_design
+    from .solve import solve
+
+    fmt = args.format
+    if fmt is None:
+        fmt = "json" if (args.output or "").lower().endswith(".json") else "csv"
+    if args.output:
+        from reports.make import check_targets
+
+        check_targets([args.output], args.force)
+    design = load_design(args.file)
+    here = solve(design)  # the operating point: modules set the plate's load, a supply circuit its flow
+    curve = flow_curve(design, _flows(args, here.V_dot), load=here.load, flow=here.V_dot)
+    fit = fit_compact(curve)
+    if fmt == "json":
+        from reports.curves_out import render_curves_json
+
+        text = render_curves_json(curve, fit, design.title, version)
+    else:
+        from reports.curves_out import render_csv
+
+        text = render_csv(curve, fit)
+    if args.output:
+        from reports.make import write_atomic
+
+        write_atomic(args.output, text if text.endswith("\n") else text + "\n")
+        return f"wrote {args.output}"
+    return text
 
 
 def main(argv=None) -> int:
@@ -32,17 +128,23 @@ def main(argv=None) -> int:
 
             return run_size(args)
         from . import __version__
-        from .solve import check_file
 
-        result = check_file(args.file)
-        if args.format == "json":
-            from reports.jsonout import render_json
-
-            text = render_json(result, __version__)
+        if args.command == "report":
+            text = _report(args, __version__)
+        elif args.command == "curves":
+            text = _curves(args, __version__)
         else:
-            from reports.text import render_text
+            from .solve import check_file
 
-            text = render_text(result, __version__)
+            result = check_file(args.file)
+            if args.format == "json":
+                from reports.jsonout import render_json
+
+                text = render_json(result, __version__)
+            else:
+                from reports.text import render_text
+
+                text = render_text(result, __version__, units=args.units)
     except DesignError as exc:
         print(f"coldplate: error: {exc}", file=sys.stderr)
         return 2

@@ -245,6 +245,9 @@ def solve_with_module(design, plate_solver):
     else:
         raise SolveError(f"the water would boil with {max(N * q, 1e-3):.4g} W from the modules: raise the flow")
     rows, stopped = _sweep(design, line)
+    if not rows:  # even with no current the modules' passive heat would boil the water
+        raise DesignError("[coolant] flow", "is too small for the modules: the water would boil even with no "
+                                            "current through them; raise the flow")
     I_s = [r[0] for r in rows]
     T_c_s = [r[2] for r in rows]
 

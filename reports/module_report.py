@@ -52,10 +52,33 @@ def module_to_dict(m) -> dict:
 TEXT_ROWS = 11
 
 
-def module_text(m) -> list[str]:
-    """The text section: the operating point and a small table of the current sweep."""
+def module_text(m, units: str = "si") -> list[str]:
+    """The text section: the operating point and a small table of the current sweep.
+
+    ``units="us"`` shows temperatures in degF and heat in BTU/h (reports.display_units); the default is SI.
+    """
     if m is None:
         return []
+    if units == "us":
+        from .display_units import DisplayUnits
+
+        du = DisplayUnits("us")
+        deg, heat, diff = "degF", "BTU/h", "degF"
+
+        def _t(T):
+            return du.value("temperature", T)
+
+        def _w(Q):
+            return du.value("power", Q)
+
+        def _d(dT):
+            return du.value("temperature_difference", dT)
+    else:
+        deg, heat, diff = "degC", "W", "K"
+        _t, _w = _c, (lambda Q: Q)
+
+        def _d(dT):
+            return dT
     wiring = m.wiring if m.wiring != "series-parallel" else f"{m.strings} strings of {m.count // m.strings}"
     cop = f"{m.cop:.3f}" if math.isfinite(m.cop) else "-"
     rows = [
@@ -64,15 +87,15 @@ def module_text(m) -> list[str]:
         ("current / voltage per module", f"{m.current:.3f} / {m.voltage:.3f}",
          "A / V" + ("  (set to reach the target cold face)" if m.mode == "target" else "")),
         ("supply current / voltage", f"{m.array_current:.3f} / {m.array_voltage:.3f}", "A / V"),
-        ("cold face / hot face", f"{_c(m.T_cold):.2f} / {_c(m.T_hot):.2f}",
-         f"degC  (hot-face limit {_c(m.hot_side_limit):.0f} degC)"),
-        ("load temperature", f"{_c(m.T_load):.2f}", "degC  (beyond the cold-side path)"),
-        ("cold load / electrical power", f"{m.Q_cold:.4g} / {m.power:.4g}", "W"),
-        ("heat into the plate", f"{m.Q_hot:.4g}", "W"),
+        ("cold face / hot face", f"{_t(m.T_cold):.2f} / {_t(m.T_hot):.2f}",
+         f"{deg}  (hot-face limit {_t(m.hot_side_limit):.0f} {deg})"),
+        ("load temperature", f"{_t(m.T_load):.2f}", f"{deg}  (beyond the cold-side path)"),
+        ("cold load / electrical power", f"{_w(m.Q_cold):.4g} / {_w(m.power):.4g}", heat),
+        ("heat into the plate", f"{_w(m.Q_hot):.4g}", heat),
         ("COP", cop, "-"),
-        ("coldest current", f"{m.coldest_current:.3f}", f"A per module  (cold face {_c(m.T_cold_coldest):.2f} degC)"),
+        ("coldest current", f"{m.coldest_current:.3f}", f"A per module  (cold face {_t(m.T_cold_coldest):.2f} {deg})"),
         ("best-COP current", f"{m.best_cop_current:.3f}", "A per module  (least current reaching this cold face)"),
-        ("cold face - room dew/frost point", f"{m.dew_margin:+.1f}", "K"),
+        ("cold face - room dew/frost point", f"{_d(m.dew_margin):+.1f}", diff),
     ]
     wq = max(len(q) for q, _, _ in rows)
     wv = max(len(v) for _, v, _ in rows)
@@ -82,11 +105,12 @@ def module_text(m) -> list[str]:
     n = len(s.current)
     idx = sorted({round(i * (n - 1) / (TEXT_ROWS - 1)) for i in range(TEXT_ROWS)}) if n > 1 else [0]
     out += ["", "  current sweep (per module; power and heat for the whole array)",
-            f"  {'A':>6}  {'cold degC':>9}  {'hot degC':>8}  {'COP':>6}  {'power W':>8}  {'to plate W':>10}"]
+            f"  {'A':>6}  {'cold ' + deg:>9}  {'hot ' + deg:>8}  {'COP':>6}  {'power ' + heat:>8}  "
+            f"{'to plate ' + heat:>10}"]
     for i in idx:
         c = f"{s.cop[i]:.3f}" if math.isfinite(s.cop[i]) else "-"
-        out.append(f"  {s.current[i]:6.2f}  {_c(s.T_cold[i]):9.2f}  {_c(s.T_hot[i]):8.2f}  {c:>6}  "
-                   f"{abs(s.power[i]) if s.power[i] == 0 else s.power[i]:8.1f}  {s.Q_hot[i]:10.1f}")
+        out.append(f"  {s.current[i]:6.2f}  {_t(s.T_cold[i]):9.2f}  {_t(s.T_hot[i]):8.2f}  {c:>6}  "
+                   f"{abs(_w(s.power[i])) if s.power[i] == 0 else _w(s.power[i]):8.1f}  {_w(s.Q_hot[i]):10.1f}")
     if s.stopped:
         out.append(f"  (stops: {s.stopped})")
     if m.coldest_current < m.max_current * (1 - 1e-6):

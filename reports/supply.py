@@ -66,43 +66,69 @@ def supply_dict(r) -> dict:
     return out
 
 
-def supply_lines(r, table) -> list[str]:
-    """Text sections for the supply side; ``table(rows, title)`` is the report's table formatter."""
+def supply_lines(r, table, units: str = "si") -> list[str]:
+    """Text sections for the supply side; ``table(rows, title)`` is the report's table formatter.
+
+    ``units="us"`` shows gpm, psi, gallons and BTU/h (reports.display_units); the default is the SI text.
+    """
     c, p = r.circuit, r.planning
+    us = units == "us"
+    if us:
+        from .display_units import DisplayUnits
+
+        u = DisplayUnits("us")
+
+    def flow(x, spec=".4g"):
+        return (f"{u.value('flow', x):{spec}}", "gpm") if us else (f"{x * 6e4:{spec}}", "L/min")
+
+    def pres(x, spec=".3f"):
+        return (f"{u.value('pressure', x):{spec}}", "psi") if us else (f"{x / 1e5:{spec}}", "bar")
+
+    def day(x):
+        return (f"{u.value('volume_per_day', x):,.0f}", "gal/day") if us else (f"{x:,.0f}", "L/day")
+
+    def year(x):
+        return (f"{u.value('volume_per_year', x):,.1f}", "gal/year") if us else (f"{x:,.1f}", "m³/year")
+
     out: list[str] = []
     if c is not None:
         how = {"flow": "flow given", "pressure": "set by the static supply pressure",
                "pump": "where the pump curve meets the system curve"}[c.drive]
-        rows = [("operating flow", f"{c.V_dot * 6e4:.4g}", f"L/min  ({how})")]
+        v, f_unit = flow(c.V_dot)
+        rows = [("operating flow", v, f"{f_unit}  ({how})")]
+        p_unit = pres(0.0)[1]
         if c.supply_pressure is not None:
-            rows.append(("supply pressure used", f"{c.supply_pressure / 1e5:.3f}", "bar (gauge)"))
-        rows.append(("pressure the circuit needs", f"{c.needed_pressure / 1e5:.3f}", "bar (gauge) at the supply"))
-        rows.append(("plate inlet / outlet", f"{c.plate_inlet_pressure / 1e5:.3f} / {c.plate_outlet_pressure / 1e5:.3f}",
-                     f"bar (gauge) while flowing; plate rated {c.plate_rating / 1e5:.2f} bar"))
+            rows.append(("supply pressure used", pres(c.supply_pressure)[0], f"{p_unit} (gauge)"))
+        rows.append(("pressure the circuit needs", pres(c.needed_pressure)[0], f"{p_unit} (gauge) at the supply"))
+        rows.append(("plate inlet / outlet", f"{pres(c.plate_inlet_pressure)[0]} / {pres(c.plate_outlet_pressure)[0]}",
+                     f"{p_unit} (gauge) while flowing; plate rated {pres(c.plate_rating, '.2f')[0]} {p_unit}"))
         out += table(rows, "Supply circuit")
         out.append("")
-        out += table([(name, f"{value / 1e5:.3f}", "bar") for name, value in c.points],
+        out += table([(name, pres(value)[0], p_unit) for name, value in c.points],
                      "Pressure after each part (gauge)")
         out.append("")
     if p is not None:
         cur = p.currency or ""
         rows = []
         if math.isfinite(p.V_dot_min):
-            rows.append(("least flow meeting the limits", f"{p.V_dot_min * 6e4:.4g}", f"L/min  (set by the {p.binding})"))
+            v, f_unit = flow(p.V_dot_min)
+            rows.append(("least flow meeting the limits", v, f"{f_unit}  (set by the {p.binding})"))
         else:
             rows.append(("least flow meeting the limits", "none", "no flow keeps the mounting face within its limit"))
-        rows.append(("water use", f"{p.water_L_per_day:,.0f}", f"L/day  ({p.water_m3_per_year:,.1f} m³/year)"))
+        (d_v, d_u), (y_v, y_u) = day(p.water_L_per_day), year(p.water_m3_per_year)
+        rows.append(("water use", d_v, f"{d_u}  ({y_v} {y_u})"))
         if p.water_m3_per_year_min is not None:
-            rows.append(("water use at the least flow", f"{p.water_m3_per_year_min:,.1f}", "m³/year"))
+            rows.append(("water use at the least flow", *year(p.water_m3_per_year_min)))
         if p.cost_per_year is not None:
             rows.append(("water cost", f"{p.cost_per_year:,.0f}", f"{cur}/year"))
         if p.cost_per_year_min is not None:
             rows.append(("water cost at the least flow", f"{p.cost_per_year_min:,.0f}", f"{cur}/year"))
         b = p.breakeven
         if b is not None:
-            rows.append(("chiller electricity", f"{b.electricity_cost_per_year:,.0f}",
-                         f"{cur}/year  ({b.chiller_power / 1e3:.3g} kW)"))
-            rows.append(("break-even flow", f"{b.breakeven_flow * 6e4:.3g}", "L/min  (water bill = chiller electricity)"))
+            power = f"{u.value('power', b.chiller_power):,.0f} BTU/h" if us else f"{b.chiller_power / 1e3:.3g} kW"
+            rows.append(("chiller electricity", f"{b.electricity_cost_per_year:,.0f}", f"{cur}/year  ({power})"))
+            v, f_unit = flow(b.breakeven_flow, ".3g")
+            rows.append(("break-even flow", v, f"{f_unit}  (water bill = chiller electricity)"))
             if b.payback_years is not None:
                 rows.append(("chiller payback", f"{b.payback_years:.1f}", "years"))
         out += table(rows, "Water planning (once-through)")

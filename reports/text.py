@@ -6,14 +6,11 @@ from __future__ import annotations
 
 import textwrap
 
+from .display_units import DisplayUnits, annotate
 from .module_report import module_text
 from .supply import supply_lines
 
 WIDTH = 92
-
-
-def _c(T: float) -> str:
-    return f"{T - 273.15:.2f}"
 
 
 def _table(rows, title):
@@ -25,42 +22,58 @@ def _table(rows, title):
     return lines
 
 
-def render_text(r, version: str = "") -> str:
+def render_text(r, version: str = "", units: str = "si") -> str:
     d = r.design
+    u = DisplayUnits(units)
+
+    def v(kind, x, spec=".4g"):
+        return format(u.value(kind, x), spec)
+
+    def t(x):
+        return v("temperature", x, ".2f")
+
+    deg = u.label("temperature")
     rows = [
-        ("heat load", f"{r.load:.4g}", "W"),
-        ("coolant flow", f"{r.V_dot * 6e4:.4g}", "L/min"),
-        ("thermal resistance", f"{r.R_th:.4f}", "K/W  (hottest mounting face - inlet) / load"),
-        ("mounting face, hottest", _c(r.T_face_max), f"degC  at {r.x_hot * 1e3:.1f} mm from the inlet edge"),
-        ("plate top, hottest", _c(r.T_plate_max), "degC"),
-        ("inlet / outlet water", f"{_c(r.T_in)} / {_c(r.T_out)}", "degC"),
-        ("pressure drop (plate)", f"{r.dp / 1e3:.3f}", f"kPa  (friction {r.dp_friction / 1e3:.3f} kPa)"),
-        ("velocity in passage", f"{r.velocity:.3f}", "m/s"),
+        ("heat load", v("power", r.load), u.label("power")),
+        ("coolant flow", v("flow", r.V_dot), u.label("flow")),
+        ("thermal resistance", v("thermal_resistance", r.R_th, ".4g"),
+         f"{u.label('thermal_resistance')}  (hottest mounting face - inlet) / load"),
+        ("mounting face, hottest", t(r.T_face_max),
+         f"{deg}  at {v('length', r.x_hot, '.3g')} {u.label('length')} from the inlet edge"),
+        ("plate top, hottest", t(r.T_plate_max), deg),
+        ("inlet / outlet water", f"{t(r.T_in)} / {t(r.T_out)}", deg),
+        ("pressure drop (plate)", v("pressure", r.dp),
+         f"{u.label('pressure')}  (friction {v('pressure', r.dp_friction)} {u.label('pressure')})"),
+        ("velocity in passage", v("velocity", r.velocity, ".3f"), u.label("velocity")),
         ("Reynolds / Prandtl", f"{r.Re:.0f} / {r.Pr:.2f}", r.regime),
-        ("Nusselt / heat transfer coeff.", f"{r.Nu:.2f} / {r.h:.0f}", "- / W/(m² K)"),
+        ("Nusselt / heat transfer coeff.", f"{r.Nu:.2f} / {v('heat_transfer_coefficient', r.h)}",
+         f"- / {u.label('heat_transfer_coefficient')}"),
     ]
     if r.eta_fin is not None:
         rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", "-"))
     if d.supply.once_through:
-        rows.append(("water use (once-through)", f"{r.water_use_L_per_day:,.0f}",
-                     f"L/day at {d.supply.hours_per_day:g} h/day  ({r.water_use_m3_per_year:,.1f} m³/year)"))
+        rows.append(("water use (once-through)", v("volume_per_day", r.water_use_L_per_day, ",.0f"),
+                     f"{u.label('volume_per_day')} at {d.supply.hours_per_day:g} h/day  "
+                     f"({v('volume_per_year', r.water_use_m3_per_year, ',.1f')} {u.label('volume_per_year')})"))
     else:
         rows.append(("water use", "none", "the water returns to its loop"))
     rows += [
-        (f"room {r.dew_kind}", _c(r.T_dew),
-         f"degC  (room {_c(d.room.temperature)} degC, {d.room.relative_humidity * 100:.0f} % RH)"),
+        (f"room {r.dew_kind}", t(r.T_dew),
+         f"{deg}  (room {t(d.room.temperature)} {deg}, {d.room.relative_humidity * 100:.0f} % RH)"),
     ]
     out = [f"{d.title}", "=" * min(len(d.title), WIDTH),
            f"passage: {r.geometry.description}",
            f"coolant: {d.coolant.label()}; supply: {d.supply.source}", ""]
     out += _table(rows, "Result")
     out.append("")
-    parts = [(name, f"{value:.4f}", f"K/W  {100 * value / r.R_th:5.1f} %") for name, value in r.resistances]
-    parts.append(("total", f"{r.R_th:.4f}", "K/W"))
+    R_unit = u.label("thermal_resistance")
+    parts = [(name, v("thermal_resistance", value, ".4g"), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
+             for name, value in r.resistances]
+    parts.append(("total", v("thermal_resistance", r.R_th, ".4g"), R_unit))
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
-    out += module_text(getattr(r, "module", None))
-    out += supply_lines(r, _table)
+    out += module_text(getattr(r, "module", None), units)
+    out += supply_lines(r, _table, units)
     out.append("Correlations used")
     out.append("-----------------")
     wr = max(len(m.role) for m in r.methods)
@@ -73,8 +86,8 @@ def render_text(r, version: str = "") -> str:
     out.append("-" * len(out[-1]))
     for f in r.findings:
         head = f"[{f.severity.upper()}] {f.id}: "
-        out += textwrap.wrap(head + f.message, WIDTH, subsequent_indent="    ")
-        out += textwrap.wrap("What to do: " + f.action, WIDTH, initial_indent="    ", subsequent_indent="    ")
+        out += textwrap.wrap(head + annotate(f.message, u), WIDTH, subsequent_indent="    ")
+        out += textwrap.wrap("What to do: " + annotate(f.action, u), WIDTH, initial_indent="    ", subsequent_indent="    ")
     if version:
         out += ["", f"coldplate {version}"]
     return "\n".join(out) + "\n"

@@ -1,0 +1,154 @@
+"""Report sections for the optional parts of a result: thermoelectric modules (``result.module``), the supply
+circuit (``result.circuit``) and water planning (``result.planning``), and the ``[module]`` inputs.
+
+Formatting only, against the field names of coldplate.thermoelectric_result and coldplate.supply_result.
+"""
+from __future__ import annotations
+
+import math
+
+from .display_units import DisplayUnits, annotate, format_number
+from .report_model import Row, Section
+
+
+def module_inputs(m, u: DisplayUnits) -> list[Row]:
+    """The [module] table as read (field names of coldplate.module_design.Module)."""
+    if m is None:
+        return []
+    rows = [Row("modules", annotate(m.described_as, u), ""),
+            Row("module count / wiring", f"{m.count} / {m.wiring}", ""),
+            Row("cold-side load (array)", u.fmt("power", m.cold_load), u.label("power"))]
+    if m.current is not None:
+        rows.append(Row("drive current per module", format_number(m.current), "A"))
+    if m.cold_face_target is not None:
+        rows.append(Row("target cold face", u.fmt("temperature", m.cold_face_target), u.label("temperature")))
+    rows += [Row("cold-side resistance (stage)", u.fmt("thermal_resistance", m.cold_side_resistance),
+                 u.label("thermal_resistance")),
+             Row("hot-face limit", u.fmt("temperature", m.hot_side_limit), u.label("temperature"))]
+    return rows
+
+
+def module_section(m, u: DisplayUnits, figures) -> Section:
+    def num(x, unit_note=""):
+        return format_number(x) if math.isfinite(x) else "not defined" + unit_note
+
+    rows = [
+        Row("modules / wiring", f"{m.count} / {m.wiring}", ""),
+        Row("current per module", num(m.current), "A", "module_current_A"),
+        Row("voltage per module", num(m.voltage), "V", "module_voltage_V"),
+        Row("power supply must deliver", f"{num(m.array_current)} A at {num(m.array_voltage)}", "V"),
+        Row("cold face", u.fmt("temperature", m.T_cold), u.label("temperature"), "cold_face_temperature_C"),
+        Row("hot face", u.fmt("temperature", m.T_hot), u.label("temperature"), "hot_face_temperature_C"),
+        Row("heat pumped (cold side, array)", u.fmt("power", m.Q_cold), u.label("power"), "module.cold_load_W"),
+        Row("heat into the plate (hot side, array)", u.fmt("power", m.Q_hot), u.label("power"), "heat_into_plate_W"),
+        Row("electrical power (array)", u.fmt("power", m.power), u.label("power"), "electrical_power_W"),
+        Row("coefficient of performance", num(m.cop, " (no power drawn)"), "-", "cop"),
+        Row("coldest current", num(m.coldest_current), "A per module", "coldest_current_A"),
+        Row("best-COP current", num(m.best_cop_current), "A per module", "module.best_cop_current_A"),
+        Row("room dew/frost point", u.fmt("temperature", m.T_dew), u.label("temperature"), "module.dew_point_C"),
+        Row("dew margin (cold face − room dew/frost point)", u.fmt("temperature_difference", m.dew_margin),
+            u.label("temperature_difference"), "module.dew_margin_K"),
+    ]
+    paras = []
+    T_coldest = getattr(m, "T_cold_coldest", 0.0)
+    if T_coldest:
+        rows.insert(11, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
+                            u.label("temperature"), "module.coldest_cold_face_temperature_C"))
+    limit = getattr(m, "hot_side_limit", 0.0)
+    if limit:
+        rows.insert(6, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature"),
+                           "module.hot_side_limit_C"))
+    for note in (getattr(m, "shortfall", ""), getattr(m.sweep, "stopped", "")):
+        if note:
+            paras.append(annotate(note[0].upper() + note[1:], u))
+    return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
+
+
+def circuit_section(c, u: DisplayUnits, figures) -> Section:
+    how = {"flow": "the flow is given", "pressure": "the static supply pressure sets the flow",
+           "pump": "the pump curve meets the system curve"}.get(c.drive, c.drive)
+    P, lab = (lambda x: u.fmt("pressure", x)), u.label("pressure")
+    rows = [Row("drive", f"{c.drive} ({how})", ""),
+            Row("operating flow", u.fmt("flow", c.V_dot), u.label("flow"), "operating_flow_m3_per_s")]
+    if c.supply_pressure is not None:
+        rows.append(Row("supply pressure used (gauge)", P(c.supply_pressure), lab, "supply_pressure_used_Pa"))
+    needed = getattr(c, "needed_pressure", None)
+    if needed is not None:
+        rows.append(Row("pressure the circuit needs at the supply (gauge)", P(needed), lab,
+                        "circuit.needed_supply_pressure_Pa"))
+    rows.append(Row("plate inlet pressure (gauge)", P(c.plate_inlet_pressure), lab, "circuit.plate_inlet_pressure_Pa"))
+    for name, key, label in (("plate_outlet_pressure", "circuit.plate_outlet_pressure_Pa",
+                              "plate outlet pressure (gauge)"),
+                             ("plate_rating", "circuit.plate_pressure_rating_Pa", "plate pressure rating (gauge)")):
+        value = getattr(c, name, None)
+        if value is not None:
+            rows.append(Row(label, P(value), lab, key))
+    heights = dict(getattr(c, "heights", ()))
+    head = ("after part", f"gauge pressure [{lab}]") + ((f"height above the supply [{u.label('length_m')}]",)
+                                                      if heights else ())
+    scale = max((abs(p) for _, p in c.points), default=0.0)
+
+    def P0(p):  # a gauge pressure that is zero to the solver's tolerance (the open outlet) shows as 0
+        return "0" if abs(p) < 1e-9 * scale else P(p)
+
+    body = [(name, P0(p)) + ((u.fmt("length_m", heights[name], 3) if name in heights else "",) if heights else ())
+            for name, p in c.points]
+    paras = ["Gauge pressure after each part, in flow order (negative: below atmospheric, a siphon)."]
+    for valve, rise in getattr(c, "surges", ()):
+        paras.append(f"Closing {valve} quickly raises the pressure by about {u.text('pressure', rise)} "
+                     "(Joukowsky): close it slowly.")
+    return Section("circuit", "Supply circuit", tuple(paras), rows=tuple(rows), table=(head, *body),
+                   figures=figures)
+
+
+def planning_section(p, u: DisplayUnits, figures) -> Section:
+    money = (lambda x: f"{x:,.2f}")
+    cur = p.currency or ""
+    if math.isfinite(p.V_dot_min):
+        rows = [Row("least flow meeting the limits", u.fmt("flow", p.V_dot_min), u.label("flow"),
+                    "minimum_flow_m3_per_s")]
+    else:
+        rows = [Row("least flow meeting the limits", "none", "no flow meets the limits")]
+    rows.append(Row("limit that binds", p.binding, "", "planning.binding_limit"))
+    for name, label, key in (("face_limit", "mounting-face limit", "planning.face_limit_C"),
+                             ("discharge_limit", "discharge limit", "planning.discharge_limit_C"),
+                             ("T_face_at_min", "hottest mounting face at the least flow",
+                              "planning.surface_temperature_at_minimum_C"),
+                             ("T_out_at_min", "discharge at the least flow", "planning.outlet_temperature_at_minimum_C")):
+        value = getattr(p, name, None)
+        if value is not None:
+            rows.append(Row(label, u.fmt("temperature", value), u.label("temperature"), key))
+    rows += [Row("water use at the operating flow", u.fmt("volume_per_day", p.water_L_per_day),
+                 u.label("volume_per_day"), "planning.water_L_per_day"),
+             Row("water use a year", u.fmt("volume_per_year", p.water_m3_per_year), u.label("volume_per_year"),
+                 "planning.water_m3_per_year")]
+    at_min = getattr(p, "water_m3_per_year_min", None)
+    if at_min is not None:
+        rows.append(Row("water use a year at the least flow", u.fmt("volume_per_year", at_min),
+                        u.label("volume_per_year"), "planning.water_m3_per_year_at_minimum"))
+    ratio = getattr(p, "waste_ratio", None)
+    if ratio is not None:
+        rows.append(Row("operating flow / least flow", format_number(ratio), "-", "planning.flow_over_minimum"))
+    if p.cost_per_year is not None:
+        rows.append(Row("water cost a year", money(p.cost_per_year), cur, "water_cost_per_year"))
+        cost_min = getattr(p, "cost_per_year_min", None)
+        if cost_min is not None:
+            rows.append(Row("water cost a year at the least flow", money(cost_min), cur,
+                            "planning.water_cost_per_year_at_minimum"))
+    b = getattr(p, "breakeven", None)
+    if b is not None:
+        rows += [Row("recirculating chiller, electrical input", u.fmt("power", b.chiller_power), u.label("power"),
+                     "planning.chiller.power_W"),
+                 Row("chiller electricity a year", money(b.electricity_cost_per_year), cur,
+                     "planning.chiller.electricity_cost_per_year"),
+                 Row("chiller saving a year (water cost − electricity)", money(b.saving_per_year), cur,
+                     "planning.chiller.saving_per_year")]
+        if math.isfinite(b.breakeven_flow):
+            rows.append(Row("flow whose water costs as much as the chiller", u.fmt("flow", b.breakeven_flow),
+                            u.label("flow"), "planning.chiller.breakeven_flow_m3_per_s"))
+        if math.isfinite(b.breakeven_tariff):
+            rows.append(Row("water price at which they cost the same", money(b.breakeven_tariff),
+                            f"{cur} per m³", "planning.chiller.breakeven_water_tariff_per_m3"))
+        if b.payback_years is not None:
+            rows.append(Row("chiller payback", format_number(b.payback_years), "years", "planning.chiller.payback_years"))
+    return Section("water", "Water use and planning", rows=tuple(rows), figures=figures)

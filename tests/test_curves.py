@@ -1,0 +1,126 @@
+"""The plate's flow curve and its compact fit (coldplate/curves.py)."""
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from coldplate.curves import (CompactFit, FlowCurve, default_flows, fit_compact, flow_curve,
+                              mounting_face_profile)
+from coldplate.design import design_from_dict
+from coldplate.errors import DesignError
+from coldplate.solve import solve, solve_plate
+
+from .helpers import example_dict, modified
+
+NAMES = ("reagent-block-channels", "laser-mount-tube", "detector-cavity-glycol")
+
+
+@pytest.fixture(scope="module", params=NAMES)
+def solved(request):
+    d = design_from_dict(example_dict(request.param))
+    return d, flow_curve(d)
+
+
+def test_points_come_from_solve_plate(solved):
+    # computed: each point is the plate solve at that flow; the design point is the design check's own
+    d, c = solved
+    for i in (0, len(c.V_dot) // 2, -1):
+        r = solve_plate(d, flow=c.V_dot[i])
+        assert c.R_th[i] == r.R_th and c.dp[i] == r.dp and c.T_face[i] == r.T_face_max
+    full = solve(d)
+    assert c.design_V_dot == d.flow and c.design_R_th == full.R_th and c.design_dp == full.dp
+    assert d.flow in c.V_dot
+    assert c.load == d.heat.load
+
+
+def test_default_span_and_shape(solved):
+    d, c = solved
+    assert min(c.V_dot) == pytest.approx(d.flow / 4) and max(c.V_dot) == pytest.approx(d.flow * 4)
+    assert len(c.V_dot) == 25  # 25 log-spaced flows; the middle one is the design flow
+    # common practice (and every published duct correlation): more flow, lower resistance, more pressure drop
+    assert np.all(np.diff(c.R_th) < 0) and np.all(np.diff(c.dp) > 0)
+
+
+def test_fit_reports_its_own_largest_error(solved):
+    _, c = solved
+    fit = fit_compact(c)
+    V = np.asarray(c.V_dot)
+    assert fit.dp_max_error == pytest.approx(np.max(np.abs(fit.dp(V) / np.asarray(c.dp) - 1)), rel=1e-9)
+    assert fit.R_max_error == pytest.approx(np.max(np.abs(fit.R_th(V) / np.asarray(c.R_th) - 1)), rel=1e-9)
+    assert fit.a >= 0 and fit.b >= 0 and fit.R0 >= 0 and fit.c >= 0 and 0 <= fit.n <= 1.5
+    assert (fit.V_min, fit.V_max) == (min(c.V_dot), max(c.V_dot))
+
+
+def _curve(V, R, dp):
+    n = len(V)
+    return FlowCurve(tuple(V), tuple(R), tuple(dp), (300.0,) * n, (300.0,) * n, (0.0,) * n, 10.0,
+                     V[0], R[0], dp[0], ())
+
+
+def test_fit_recovers_exact_forms():
+    # computed: data built from the compact forms themselves must come back to the constants
+    V = np.geomspace(1e-6, 1e-4, 20)
+    a, b, R0, c, n = 3.0e6, 8.0e11, 0.05, 0.002, 0.6
+    fit = fit_compact(_curve(V, R0 + c * V ** (-n), a * V + b * V**2))
+    assert fit.a == pytest.approx(a, rel=1e-6) and fit.b == pytest.approx(b, rel=1e-6)
+    assert fit.n == pytest.approx(n, abs=1e-5) and fit.R0 == pytest.approx(R0, rel=1e-4)
+    assert fit.c == pytest.approx(c, rel=1e-4)
+    assert fit.dp_max_error < 1e-9 and fit.R_max_error < 1e-6
+
+
+def test_fit_keeps_constants_physical():
+    # computed: a purely laminar (linear) dp must not be fitted with a negative quadratic term
+    V = np.geomspace(1e-6, 1e-4, 10)
+    fit = fit_compact(_curve(V, 0.1 + 0 * V, 5e6 * V - 1e9 * V**2))
+    assert fit.a > 0 and fit.b == 0.0
+    assert fit.c == pytest.approx(0.0, abs=1e-12) and fit.R0 == pytest.approx(0.1)
+
+
+def test_boiling_flows_are_skipped_and_said():
+    d = design_from_dict(example_dict("laser-mount-tube"))
+    c = flow_curve(d, [0.0005 / 6e4, 0.001 / 6e4, *default_flows(d.flow)])
+    assert len(c.skipped) == 2
+    assert all("boiling" in why or "too small" in why for _, why in c.skipped)
+    assert min(c.V_dot) > 0.001 / 6e4
+    with pytest.raises(DesignError):
+        flow_curve(d, [0.0005 / 6e4])
+    with pytest.raises(DesignError):
+        fit_compact(flow_curve(d, default_flows(d.flow, points=3)[:3]))
+    with pytest.raises(DesignError):
+        flow_curve(d, [-1.0])
+
+
+def test_mounting_face_profile():
+    # computed: the mounting face is the plate top plus load x interface resistance within the footprint
+    r = solve(design_from_dict(modified(example_dict(), heat__footprint=["30 mm", "30 mm"])))
+    x, T = mounting_face_profile(r)
+    d = r.design
+    x0 = 0.5 * (d.plate.length - d.heat.footprint_length)
+    assert x[0] == pytest.approx(x0) and x[-1] == pytest.approx(x0 + d.heat.footprint_length)
+    assert max(T) == r.T_face_max and x[int(np.argmax(T))] == r.x_hot
+    rise = r.load * dict(r.resistances)["interface"]
+    for xi, Ti in zip(x, T):
+        k = np.flatnonzero(np.isclose(r.profile.x, xi))
+        if k.size:
+            assert Ti == pytest.approx(r.profile.T_top[k[0]] + rise, abs=1e-9)
+
+
+def test_compact_fit_evaluates_arrays():
+    fit = CompactFit(1.0, 2.0, 0.1, 0.01, 0.5, 0.0, 0.0, 1e-6, 1e-4)
+    assert np.allclose(fit.dp([1.0, 2.0]), [3.0, 10.0])
+    assert fit.R_th(4.0) == pytest.approx(0.1 + 0.01 / 2)
+
+
+@pytest.mark.parametrize("name", ["tap-to-drain-circuit", "sample-stage-thermoelectric"])
+def test_curve_at_the_solved_operating_point(name):
+    # computed: a circuit sets the flow and modules set the plate's load; the curve's design point is that
+    # operating point, the same plate solve the design check reports
+    d = design_from_dict(example_dict(name))
+    r = solve(d)
+    c = flow_curve(d, load=r.load, flow=r.V_dot)
+    assert c.design_V_dot == r.V_dot and c.load == pytest.approx(r.load, rel=1e-12)
+    assert c.design_R_th == pytest.approx(r.R_th, rel=1e-9) and c.design_dp == pytest.approx(r.dp, rel=1e-9)
+    assert min(c.V_dot) == pytest.approx(r.V_dot / 4) and r.V_dot in c.V_dot
+    if d.flow is None:
+        with pytest.raises(DesignError, match="operating flow"):
+            flow_curve(d)
