@@ -122,6 +122,13 @@ def test_write_best_refuses_to_overwrite_without_force(tmp_path, capsys):
     assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".coldplate-")] == []
 
 
+def test_write_best_into_a_missing_directory_is_refused_before_the_search(tmp_path, capsys):
+    out = tmp_path / "no-such-dir" / "best.toml"
+    assert main(["size", str(_file(tmp_path)), "--write-best", str(out)]) == 2
+    captured = capsys.readouterr()
+    assert captured.out == "" and "does not exist" in captured.err and len(captured.err.strip().splitlines()) == 1
+
+
 def test_infeasible_search_exits_1_and_names_the_binding_limit(tmp_path, capsys):
     out = tmp_path / "best.toml"
     assert main(["size", str(_file(tmp_path, dict(SEARCH, face_limit="15.2 degC"))), "--write-best", str(out)]) == 1

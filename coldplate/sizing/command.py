@@ -59,6 +59,8 @@ def run(args) -> int:
     out_path = Path(args.write_best) if args.write_best else None
     if out_path is not None and out_path.exists() and not args.force:
         raise DesignError("--write-best", f"{str(out_path)!r} exists; add --force to replace it")
+    if out_path is not None and not out_path.resolve().parent.is_dir():  # say so before a long search
+        raise DesignError("--write-best", f"directory {str(out_path.parent)!r} does not exist")
     data, design, spec = read_file(args.file)
     bar = None if args.quiet or not sys.stderr.isatty() else ProgressBar(sys.stderr)
     try:
