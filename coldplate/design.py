@@ -101,6 +101,16 @@ class Supply:
     chiller_price: float | None = None  #: [currency]
 
     @property
+    def seconds_per_day(self) -> float:
+        """Running time a day [s]: water use per day is the flow times this."""
+        return 3600.0 * self.hours_per_day
+
+    @property
+    def seconds_per_year(self) -> float:
+        """Running time a year [s]."""
+        return self.seconds_per_day * self.days_per_year
+
+    @property
     def once_through(self) -> bool:
         return self.discharge == "drain"
 

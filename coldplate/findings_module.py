@@ -5,7 +5,7 @@ live parts ends with :data:`coldplate.findings.DEFER`.
 """
 from __future__ import annotations
 
-from .findings import DEFER, DEW_MARGIN
+from .findings import DEFER, DEW_MARGIN, _c
 from .result import Finding
 
 #: Current past the coldest point that counts as "past it": 2 % of I_max and 0.05 K colder there
@@ -15,10 +15,6 @@ PAST_COLDEST_K = 0.05
 #: Datasheet Q_max and the model's differ by more than this fraction: the datasheet set is not consistent
 #: with the ideal model at its rated temperature (common practice: about 10 % is the usual spread).
 QMAX_MISMATCH = 0.10
-
-
-def _c(T: float) -> str:
-    return f"{T - 273.15:.1f} degC"
 
 
 def past_coldest(r):

@@ -28,10 +28,6 @@ def wants_planning(design) -> bool:
     return s.once_through and (design.circuit is not None or s.face_limit is not None or s.tariff is not None)
 
 
-def seconds_per_year(supply) -> float:
-    return 3600.0 * supply.hours_per_day * supply.days_per_year
-
-
 def _excess(r, s) -> float:
     """How far the plate at one flow is above its limits [K] (positive: a limit is broken)."""
     if r is None:
@@ -83,7 +79,7 @@ def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
     s = design.supply
     plate = PlateAt(design, load)
     V_min = least_flow(plate, V_op)
-    per_year = seconds_per_year(s)
+    per_year = s.seconds_per_year
     m3 = V_op * per_year
     if math.isfinite(V_min):
         r = plate(V_min)
@@ -96,7 +92,7 @@ def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
     cost_min = None if s.tariff is None or m3_min is None else m3_min * s.tariff
     return PlanningResult(
         V_dot_min=V_min, binding=binding, face_limit=s.face_limit, discharge_limit=s.discharge_limit,
-        T_face_at_min=T_face_min, T_out_at_min=T_out_min, water_L_per_day=V_op * 1000.0 * 3600.0 * s.hours_per_day,
+        T_face_at_min=T_face_min, T_out_at_min=T_out_min, water_L_per_day=V_op * 1000.0 * s.seconds_per_day,
         water_m3_per_year=m3, water_m3_per_year_min=m3_min, cost_per_year=cost, cost_per_year_min=cost_min,
         currency=s.currency, waste_ratio=V_op / V_min if math.isfinite(V_min) else None,
         use_curve=use_curve(plate, V_op, V_min), breakeven=breakeven(s, m3))
@@ -107,7 +103,7 @@ def use_curve(plate: PlateAt, V_op: float, V_min: float, n: int = USE_POINTS) ->
     flows (geometric steps; flows where the plate cannot run are left out)."""
     low = min(V_op, V_min) if math.isfinite(V_min) else V_op
     high = max(V_op, V_min) if math.isfinite(V_min) else V_op
-    per_year = seconds_per_year(plate.design.supply)
+    per_year = plate.design.supply.seconds_per_year
     rows = []
     for q in np.geomspace(0.5 * low, min(2.0 * high, FLOW_MAX), n):
         r = plate(float(q))
@@ -121,7 +117,7 @@ def breakeven(s, m3_per_year: float) -> Breakeven | None:
     """Once-through water at the operating flow against a chiller's electricity over the same hours."""
     if s.chiller_power is None:
         return None
-    per_year = seconds_per_year(s)
+    per_year = s.seconds_per_year
     electricity = s.chiller_power * per_year * s.electricity_tariff
     water = m3_per_year * s.tariff
     saving = water - electricity

@@ -176,7 +176,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
 
-    litres_per_day = flow * 1000.0 * 3600.0 * d.supply.hours_per_day if d.supply.once_through else 0.0
+    litres_per_day = flow * 1000.0 * d.supply.seconds_per_day if d.supply.once_through else 0.0
     methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
     methods += (_use("spreading", conduction.spreading_MCY,

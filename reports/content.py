@@ -86,7 +86,7 @@ def _inputs(r, u: DisplayUnits) -> Section:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", u.fmt("length", v, 3), u.label("length")))
         else:
             rows.append(Row(f"passage {f.name.replace('_', ' ')}", str(v), ""))
-    rows += module_inputs(getattr(d, "module", None), u)
+    rows += module_inputs(d.module, u)
     rows += [
         Row("coolant", d.coolant.label(), ""),
         Row("inlet temperature", u.fmt("temperature", d.inlet_temperature), u.label("temperature")),
@@ -200,15 +200,15 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
                  "water along the centre line; the hottest point of the mounting face is marked.",),
                 figures=fig("profile", "Temperatures along the flow path.")),
         _flow(curve, fit, u, fig("flow", "Thermal resistance and pressure drop against flow; design point marked."),
-              getattr(r, "module", None) is not None),
+              r.module is not None),
     ]
-    module = getattr(r, "module", None)
+    module = r.module
     if module is not None:
         sections.append(module_section(module, u, fig("module", "Thermoelectric current sweep; coldest current marked.")))
-    circuit = getattr(r, "circuit", None)
+    circuit = r.circuit
     if circuit is not None:
         sections.append(circuit_section(circuit, u, fig("circuit", "System and supply curves with the operating point.")))
-    planning = getattr(r, "planning", None)
+    planning = r.planning
     water_fig = fig("water", "Water use against the hottest mounting-face temperature; operating point marked.")
     if planning is not None:
         sections.append(planning_section(planning, u, water_fig))

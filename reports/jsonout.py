@@ -63,5 +63,5 @@ def result_to_dict(r, version: str = "") -> dict:
 
 def render_json(r, version: str = "") -> str:
     out = result_to_dict(r, version)
-    out.update(module_to_dict(getattr(r, "module", None)))
+    out.update(module_to_dict(r.module))
     return json.dumps(out, indent=2, ensure_ascii=False)

@@ -34,20 +34,20 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
         "profile": plots.draw(plots.profile, r, face, u, name="profile"),
         "flow": plots.draw(plots.flow_curves, curve, fit, u, name="flow"),
     }
-    planning = getattr(r, "planning", None)
+    planning = r.planning
     if planning is not None and len(planning.use_curve.T_face):
-        T_min, use_min = getattr(planning, "T_face_at_min", None), getattr(planning, "water_m3_per_year_min", None)
+        T_min, use_min = planning.T_face_at_min, planning.water_m3_per_year_min
         least = (T_min, use_min) if T_min is not None and use_min is not None else None
         figs["water"] = plots.draw(plots.water_use, planning.use_curve.T_face, planning.use_curve.m3_per_year,
                                    r.T_face_max, planning.water_m3_per_year, u, least,
-                                   getattr(planning, "face_limit", None), name="water")
+                                   planning.face_limit, name="water")
     elif r.design.supply.once_through:
         figs["water"] = plots.draw(plots.water_use, curve.T_face, curve.water_m3_per_year, r.T_face_max,
                                    r.water_use_m3_per_year, u, name="water")
-    module = getattr(r, "module", None)
+    module = r.module
     if module is not None:
         figs["module"] = plots.draw(plots.module_sweep, module, u, name="module")
-    circuit = getattr(r, "circuit", None)
+    circuit = r.circuit
     if circuit is not None:
         figs["circuit"] = plots.draw(plots.system_curve, circuit, u, name="circuit")
     return figs

@@ -50,15 +50,15 @@ def module_section(m, u: DisplayUnits, figures) -> Section:
             u.label("temperature_difference"), "module.dew_margin_K"),
     ]
     paras = []
-    T_coldest = getattr(m, "T_cold_coldest", 0.0)
+    T_coldest = m.T_cold_coldest
     if T_coldest:
         rows.insert(11, Row("cold face at the coldest current", u.fmt("temperature", T_coldest),
                             u.label("temperature"), "module.coldest_cold_face_temperature_C"))
-    limit = getattr(m, "hot_side_limit", 0.0)
+    limit = m.hot_side_limit
     if limit:
         rows.insert(6, Row("hot-face limit", u.fmt("temperature", limit), u.label("temperature"),
                            "module.hot_side_limit_C"))
-    for note in (getattr(m, "shortfall", ""), getattr(m.sweep, "stopped", "")):
+    for note in (m.shortfall, m.sweep.stopped):
         if note:
             paras.append(annotate(note[0].upper() + note[1:], u))
     return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
@@ -72,7 +72,7 @@ def circuit_section(c, u: DisplayUnits, figures) -> Section:
             Row("operating flow", u.fmt("flow", c.V_dot), u.label("flow"), "operating_flow_m3_per_s")]
     if c.supply_pressure is not None:
         rows.append(Row("supply pressure used (gauge)", P(c.supply_pressure), lab, "supply_pressure_used_Pa"))
-    needed = getattr(c, "needed_pressure", None)
+    needed = c.needed_pressure
     if needed is not None:
         rows.append(Row("pressure the circuit needs at the supply (gauge)", P(needed), lab,
                         "circuit.needed_supply_pressure_Pa"))
@@ -80,10 +80,10 @@ def circuit_section(c, u: DisplayUnits, figures) -> Section:
     for name, key, label in (("plate_outlet_pressure", "circuit.plate_outlet_pressure_Pa",
                               "plate outlet pressure (gauge)"),
                              ("plate_rating", "circuit.plate_pressure_rating_Pa", "plate pressure rating (gauge)")):
-        value = getattr(c, name, None)
+        value = getattr(c, name)
         if value is not None:
             rows.append(Row(label, P(value), lab, key))
-    heights = dict(getattr(c, "heights", ()))
+    heights = dict(c.heights)
     head = ("after part", f"gauge pressure [{lab}]") + ((f"height above the supply [{u.label('length_m')}]",)
                                                       if heights else ())
     scale = max((abs(p) for _, p in c.points), default=0.0)
@@ -94,7 +94,7 @@ def circuit_section(c, u: DisplayUnits, figures) -> Section:
     body = [(name, P0(p)) + ((u.fmt("length_m", heights[name], 3) if name in heights else "",) if heights else ())
             for name, p in c.points]
     paras = ["Gauge pressure after each part, in flow order (negative: below atmospheric, a siphon)."]
-    for valve, rise in getattr(c, "surges", ()):
+    for valve, rise in c.surges:
         paras.append(f"Closing {valve} quickly raises the pressure by about {u.text('pressure', rise)} "
                      "(Joukowsky): close it slowly.")
     return Section("circuit", "Supply circuit", tuple(paras), rows=tuple(rows), table=(head, *body),
@@ -115,27 +115,27 @@ def planning_section(p, u: DisplayUnits, figures) -> Section:
                              ("T_face_at_min", "hottest mounting face at the least flow",
                               "planning.surface_temperature_at_minimum_C"),
                              ("T_out_at_min", "discharge at the least flow", "planning.outlet_temperature_at_minimum_C")):
-        value = getattr(p, name, None)
+        value = getattr(p, name)
         if value is not None:
             rows.append(Row(label, u.fmt("temperature", value), u.label("temperature"), key))
     rows += [Row("water use at the operating flow", u.fmt("volume_per_day", p.water_L_per_day),
                  u.label("volume_per_day"), "planning.water_L_per_day"),
              Row("water use a year", u.fmt("volume_per_year", p.water_m3_per_year), u.label("volume_per_year"),
                  "planning.water_m3_per_year")]
-    at_min = getattr(p, "water_m3_per_year_min", None)
+    at_min = p.water_m3_per_year_min
     if at_min is not None:
         rows.append(Row("water use a year at the least flow", u.fmt("volume_per_year", at_min),
                         u.label("volume_per_year"), "planning.water_m3_per_year_at_minimum"))
-    ratio = getattr(p, "waste_ratio", None)
+    ratio = p.waste_ratio
     if ratio is not None:
         rows.append(Row("operating flow / least flow", format_number(ratio), "-", "planning.flow_over_minimum"))
     if p.cost_per_year is not None:
         rows.append(Row("water cost a year", money(p.cost_per_year), cur, "water_cost_per_year"))
-        cost_min = getattr(p, "cost_per_year_min", None)
+        cost_min = p.cost_per_year_min
         if cost_min is not None:
             rows.append(Row("water cost a year at the least flow", money(cost_min), cur,
                             "planning.water_cost_per_year_at_minimum"))
-    b = getattr(p, "breakeven", None)
+    b = p.breakeven
     if b is not None:
         rows += [Row("recirculating chiller, electrical input", u.fmt("power", b.chiller_power), u.label("power"),
                      "planning.chiller.power_W"),

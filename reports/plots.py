@@ -179,7 +179,7 @@ def module_sweep(module, u: DisplayUnits) -> Figure:
     ax1.plot([module.current], [u.value("temperature", module.T_cold)], marker="D", color=BLACK,
              linestyle="none", label="operating point")
     ax1.axhline(u.value("temperature", module.T_dew), color=PURPLE, linestyle=":", label="room dew/frost point")
-    limit = getattr(module, "hot_side_limit", 0.0)
+    limit = module.hot_side_limit
     if limit:
         ax1.axhline(u.value("temperature", limit), color=VERMILION, linestyle=":", linewidth=1.0,
                     label="hot-face limit")

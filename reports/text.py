@@ -72,7 +72,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     parts.append(("total", v("thermal_resistance", r.R_th, ".4g"), R_unit))
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
-    out += module_text(getattr(r, "module", None), units)
+    out += module_text(r.module, units)
     out += supply_lines(r, _table, units)
     out.append("Correlations used")
     out.append("-----------------")

@@ -88,7 +88,7 @@ def size(data: dict, design: Design, spec: SearchSpec, progress=None, do_refine:
 
 def _water(flow: float, design: Design) -> str:
     if design.supply.once_through:
-        return (f"{flow * 1e3 * 3600 * design.supply.hours_per_day:,.0f} L/day "
+        return (f"{flow * 1e3 * design.supply.seconds_per_day:,.0f} L/day "
                 f"({flow * 6e4:.3g} L/min for {design.supply.hours_per_day:g} h a day)")
     return f"{flow * 6e4:.3g} L/min (the water returns to its loop)"
 
