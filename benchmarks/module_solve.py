@@ -17,8 +17,9 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
-from coldplate.design import load_design  # noqa: E402
-from coldplate.solve import solve, solve_plate  # noqa: E402
+from coldplate.design.reader import load_design  # noqa: E402
+from coldplate.check import solve  # noqa: E402
+from coldplate.plate.solve import solve_plate
 
 EXAMPLE = ROOT / "examples" / "sample-stage-thermoelectric.toml"
 

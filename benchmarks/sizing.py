@@ -26,11 +26,11 @@ import numpy as np
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
-from coldplate.design import load_data, design_from_dict  # noqa: E402
+from coldplate.design.reader import load_data, design_from_dict  # noqa: E402
 from coldplate.sizing.evaluate import Evaluator  # noqa: E402
 from coldplate.sizing.run import run_search  # noqa: E402
 from coldplate.sizing.search import read_search  # noqa: E402
-from coldplate.solve import solve_plate  # noqa: E402
+from coldplate.plate.solve import solve_plate  # noqa: E402
 
 EXAMPLE = ROOT / "examples" / "reagent-block-channels.toml"
 

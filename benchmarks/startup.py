@@ -21,7 +21,7 @@ EXAMPLE = ROOT / "examples" / "reagent-block-channels.toml"
 CASES = {
     "python -c pass": [sys.executable, "-c", "pass"],
     "import numpy": [sys.executable, "-c", "import numpy"],
-    "import pint + registry": [sys.executable, "-c", "import coldplate.units"],
+    "import pint + registry": [sys.executable, "-c", "import coldplate.design.units"],
     "import CoolProp": [sys.executable, "-c", "import CoolProp.CoolProp"],
     "import fluids.fittings": [sys.executable, "-c", "import fluids.fittings"],
     "coldplate check (text)": [sys.executable, "-m", "coldplate.cli", "check", str(EXAMPLE)],
@@ -57,7 +57,7 @@ def _in_process() -> None:
     """Import once, then time the solve alone: the first call and the median of repeated calls."""
     code = (
         "import time, statistics\n"
-        "from coldplate.solve import check_file\n"
+        "from coldplate.check import check_file\n"
         f"p = {str(EXAMPLE)!r}\n"
         "t = time.perf_counter(); check_file(p); first = time.perf_counter() - t\n"
         "runs = []\n"

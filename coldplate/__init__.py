@@ -14,15 +14,15 @@ __version__ = "0.1.0"
 
 
 def check_file(path):
-    """Read a design file and solve it; returns a frozen :class:`coldplate.result.Result`."""
-    from .solve import check_file as _check_file
+    """Read a design file and solve it; returns a frozen :class:`coldplate.plate.result.Result`."""
+    from coldplate.check import check_file as _check_file
 
     return _check_file(path)
 
 
 def solve(design):
-    """Solve an already-read :class:`coldplate.design.Design`."""
-    from .solve import solve as _solve
+    """Solve an already-read :class:`coldplate.design.reader.Design`."""
+    from coldplate.check import solve as _solve
 
     return _solve(design)
 
@@ -30,6 +30,6 @@ def solve(design):
 def size_file(path):
     """Read a design file with a ``[search]`` table, search it and recommend a plate (``coldplate size``);
     returns a frozen :class:`coldplate.sizing.recommend.SizingResult`."""
-    from .sizing.recommend import size_file as _size_file
+    from coldplate.sizing.recommend import size_file as _size_file
 
     return _size_file(path)

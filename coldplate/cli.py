@@ -11,7 +11,7 @@ import argparse
 import os
 import sys
 
-from .errors import ColdplateError, DesignError
+from coldplate.design.errors import ColdplateError, DesignError
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -34,7 +34,7 @@ def _parser() -> argparse.ArgumentParser:
     k.add_argument("--format", choices=("csv", "json"), help="output format (default: from the file name, else csv)")
     _flow_range_options(k)
     k.add_argument("--force", action="store_true", help="replace an existing file")
-    from .sizing.command import add_parser as add_size_parser
+    from coldplate.sizing.command import add_parser as add_size_parser
 
     add_size_parser(sub)
     return p
@@ -48,8 +48,8 @@ def _flow_range_options(p) -> None:
 
 def _flows(args, flow):
     """The flows for the curves: log-spaced over the asked range, with the operating flow [m^3/s]."""
-    from .curves import DEFAULT_SPAN, MIN_POINTS, default_flows
-    from .units import parse_value
+    from coldplate.plate.curves import DEFAULT_SPAN, MIN_POINTS, default_flows
+    from coldplate.design.units import parse_value
 
     if not MIN_POINTS <= args.points <= 500:
         raise DesignError("--points", f"must be between {MIN_POINTS} and 500")
@@ -63,9 +63,9 @@ def _flows(args, flow):
 def _report(args, version) -> str:
     from pathlib import Path
 
-    from .curves import fit_compact, flow_curve, mounting_face_profile
-    from .design import parse_design
-    from .solve import solve
+    from coldplate.plate.curves import fit_compact, flow_curve, mounting_face_profile
+    from coldplate.design.reader import parse_design
+    from coldplate.check import solve
 
     from reports.make import check_targets, make_report, report_format, write_report
 
@@ -89,9 +89,9 @@ def _report(args, version) -> str:
 
 
 def _curves(args, version) -> str:
-    from .curves import fit_compact, flow_curve
-    from .design import load_design
-    from .solve import solve
+    from coldplate.plate.curves import fit_compact, flow_curve
+    from coldplate.design.reader import load_design
+    from coldplate.check import solve
 
     fmt = args.format
     if fmt is None:
@@ -124,17 +124,17 @@ def main(argv=None) -> int:
     args = _parser().parse_args(argv)
     try:
         if args.command == "size":
-            from .sizing.command import run as run_size
+            from coldplate.sizing.command import run as run_size
 
             return run_size(args)
-        from . import __version__
+        from coldplate import __version__
 
         if args.command == "report":
             text = _report(args, __version__)
         elif args.command == "curves":
             text = _curves(args, __version__)
         else:
-            from .solve import check_file
+            from coldplate.check import check_file
 
             result = check_file(args.file)
             if args.format == "json":

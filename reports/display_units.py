@@ -41,7 +41,7 @@ KINDS = {
 @lru_cache(maxsize=None)
 def conversion(kind: str, system: str) -> tuple[float, float]:
     """(factor, offset) with display = factor * SI + offset, from the project's pint registry."""
-    from coldplate.units import Quantity
+    from coldplate.design.units import Quantity
 
     si, table = KINDS[kind]
     unit = table[system][0]

@@ -10,7 +10,7 @@ import os
 import tempfile
 from pathlib import Path
 
-from coldplate.errors import DesignError
+from coldplate.design.errors import DesignError
 
 from . import plots
 from .content import Report, build_report

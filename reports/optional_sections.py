@@ -1,7 +1,7 @@
 """Report sections for the optional parts of a result: thermoelectric modules (``result.module``), the supply
 circuit (``result.circuit``) and water planning (``result.planning``), and the ``[module]`` inputs.
 
-Formatting only, against the field names of coldplate.thermoelectric_result and coldplate.supply_result.
+Formatting only, against the field names of coldplate.modules.result and coldplate.supply.result.
 """
 from __future__ import annotations
 
@@ -12,7 +12,7 @@ from .report_model import Row, Section
 
 
 def module_inputs(m, u: DisplayUnits) -> list[Row]:
-    """The [module] table as read (field names of coldplate.module_design.Module)."""
+    """The [module] table as read (field names of coldplate.modules.reader.Module)."""
     if m is None:
         return []
     rows = [Row("modules", annotate(m.described_as, u), ""),

@@ -67,9 +67,9 @@ def write(tmp_path, data: dict, name="design.toml") -> Path:
 
 def solved_or_refused(data: dict):
     """(design, result) for a design dict, or None when it is refused with a one-line DesignError."""
-    from coldplate.design import design_from_dict
-    from coldplate.errors import DesignError
-    from coldplate.solve import solve
+    from coldplate.design.reader import design_from_dict
+    from coldplate.design.errors import DesignError
+    from coldplate.check import solve
 
     try:
         d = design_from_dict(data)

@@ -15,7 +15,7 @@ from scipy.sparse.linalg import spsolve
 
 import ht.conduction
 
-from coldplate import conduction as cd
+from coldplate.plate import conduction as cd
 
 
 # ---------------------------------------------------------------- simple resistances

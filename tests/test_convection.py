@@ -13,7 +13,7 @@ import scipy.sparse.linalg as spla
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from coldplate.convection import (
+from coldplate.plate.convection import (
     HEATED_ARRANGEMENTS,
     LAMINAR_MODELS,
     TURBULENT_MODELS,
@@ -159,7 +159,7 @@ def test_monotone_cubic_against_scipy():
     # scipy is not imported by the code under test) on the module's own nodes
     from scipy.interpolate import PchipInterpolator
 
-    from coldplate.convection import _FD_ALPHA, _FD_H1
+    from coldplate.plate.convection import _FD_ALPHA, _FD_H1
 
     a = np.linspace(0.0, 1.0, 201)
     for heated, nodes in _FD_H1.items():

@@ -14,8 +14,8 @@ from fluids.friction import Colebrook
 from ht.conv_internal import turbulent_Dittus_Boelter, turbulent_Gnielinski
 from iapws import IAPWS95
 
-from coldplate.design import design_from_dict
-from coldplate.solve import solve
+from coldplate.design.reader import design_from_dict
+from coldplate.check import solve
 
 from .helpers import example_dict, modified
 

@@ -4,11 +4,12 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from coldplate.curves import (CompactFit, FlowCurve, default_flows, fit_compact, flow_curve,
+from coldplate.plate.curves import (CompactFit, FlowCurve, default_flows, fit_compact, flow_curve,
                               mounting_face_profile)
-from coldplate.design import design_from_dict
-from coldplate.errors import DesignError
-from coldplate.solve import solve, solve_plate
+from coldplate.design.reader import design_from_dict
+from coldplate.design.errors import DesignError
+from coldplate.check import solve
+from coldplate.plate.solve import solve_plate
 
 from .helpers import example_dict, modified
 

@@ -7,7 +7,7 @@ not use it.
 import pytest
 import ht.insulation
 
-from coldplate import materials as mt
+from coldplate.plate import materials as mt
 
 REQUIRED = ("copper", "aluminium-6061", "aluminium-6063", "aluminium-1100", "brass",
             "stainless-304", "stainless-316", "silicon")

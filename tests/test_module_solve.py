@@ -20,10 +20,11 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from coldplate.cli import main
-from coldplate.design import design_from_dict
-from coldplate.errors import DesignError, SolveError
-from coldplate.module_solve import couple
-from coldplate.solve import solve, solve_plate
+from coldplate.design.reader import design_from_dict
+from coldplate.design.errors import DesignError, SolveError
+from coldplate.modules.solve import couple
+from coldplate.check import solve
+from coldplate.plate.solve import solve_plate
 from reports.jsonout import render_json
 from reports.text import render_text
 
@@ -229,7 +230,7 @@ def test_cold_face_dew_findings():
 
 
 def test_safety_wording_defers():
-    from coldplate.findings import DEFER
+    from coldplate.findings.base import DEFER
 
     for f in RESULT.findings:
         if f.id in ("module-supply-near-water", "module-cold-face-frost"):

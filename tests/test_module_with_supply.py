@@ -9,8 +9,9 @@ from __future__ import annotations
 
 import pytest
 
-from coldplate.design import design_from_dict
-from coldplate.solve import solve, solve_plate
+from coldplate.design.reader import design_from_dict
+from coldplate.check import solve
+from coldplate.plate.solve import solve_plate
 from tests.helpers import example_dict
 
 

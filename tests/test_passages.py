@@ -6,9 +6,9 @@ import math
 
 import pytest
 
-from coldplate import design as design_mod
-from coldplate.design import design_from_dict
-from coldplate.passages import PASSAGES
+from coldplate.design import reader as design_mod
+from coldplate.design.reader import design_from_dict
+from coldplate.plate.passages import PASSAGES
 from hydraulics.losses import K_exit, K_sudden_contraction, K_sudden_expansion
 
 from .helpers import example_dict

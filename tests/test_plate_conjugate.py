@@ -1,6 +1,6 @@
 """The smeared channel-plate model against a 3-D conduction solve with resolved fins.
 
-The solver's plate model (coldplate/solve.py) replaces the channel floors and
+The solver's plate model (coldplate/plate/solve.py) replaces the channel floors and
 walls with one coefficient spread over the plate's underside,
 
     h_eff = 1 / (A_plate R_conv),   R_conv = 1 / (h N L_ch (w + 2 depth eta_fin)),
@@ -27,9 +27,9 @@ import pytest
 from scipy.sparse import coo_matrix
 from scipy.sparse.linalg import spsolve
 
-from coldplate import conduction
-from coldplate.design import Channels, Plate
-from coldplate.passages import channels
+from coldplate.plate import conduction
+from coldplate.design.reader import Channels, Plate
+from coldplate.plate.passages import channels
 
 
 def _grid(breaks, size):

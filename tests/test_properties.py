@@ -12,8 +12,8 @@ import numpy as np
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from coldplate.design import design_from_dict
-from coldplate.solve import solve
+from coldplate.design.reader import design_from_dict
+from coldplate.check import solve
 
 from .helpers import example_dict, modified
 

@@ -13,7 +13,7 @@ import pytest
 from iapws._iapws import _Sublimation_Pressure
 from iapws.iapws97 import _PSat_T
 
-from coldplate import psychro
+from coldplate.plate import psychro
 
 psychrolib.SetUnitSystem(psychrolib.SI)
 K0 = 273.15
@@ -126,7 +126,7 @@ def test_phase_specific_ranges_raise():
 
 def test_import_does_not_pull_scipy():
     # source: project requirement (fast start-up); fails if scipy gets imported
-    code = "import sys; import coldplate.psychro; print('scipy' in sys.modules)"
+    code = "import sys; import coldplate.plate.psychro; print('scipy' in sys.modules)"
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          cwd=str(__import__("pathlib").Path(__file__).resolve().parents[1]))
     assert out.stdout.strip() == "False", out.stderr

@@ -16,10 +16,10 @@ import pint
 import pytest
 
 from coldplate.cli import main
-from coldplate.curves import fit_compact, flow_curve
-from coldplate.design import load_design
-from coldplate.findings import DEFER
-from coldplate.solve import check_file
+from coldplate.plate.curves import fit_compact, flow_curve
+from coldplate.design.reader import load_design
+from coldplate.findings.base import DEFER
+from coldplate.check import check_file
 from reports.jsonout import render_json, result_to_dict
 
 from .helpers import EXAMPLES, ROOT, example_dict, modified, write

@@ -14,10 +14,10 @@ import re
 import numpy as np
 import pytest
 
-from coldplate.curves import fit_compact, flow_curve, mounting_face_profile
-from coldplate.solve import check_file
-from coldplate.supply_result import Breakeven, CircuitResult, PlanningResult, PumpCurve, SystemCurve, UseCurve
-from coldplate.thermoelectric_result import ModuleResult, ModuleSweep
+from coldplate.plate.curves import fit_compact, flow_curve, mounting_face_profile
+from coldplate.check import check_file
+from coldplate.supply.result import Breakeven, CircuitResult, PlanningResult, PumpCurve, SystemCurve, UseCurve
+from coldplate.modules.result import ModuleResult, ModuleSweep
 from reports.display_units import DisplayUnits
 from reports.html import render_html
 from reports.make import make_report

@@ -7,7 +7,7 @@ import math
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from coldplate.design import LAMINAR_CHOICES, TURBULENT_CHOICES
+from coldplate.design.reader import LAMINAR_CHOICES, TURBULENT_CHOICES
 
 from .helpers import example_dict, modified, solved_or_refused
 

@@ -16,7 +16,7 @@ import tomllib
 import pytest
 
 from coldplate.cli import main
-from coldplate.design import load_design
+from coldplate.design.reader import load_design
 from coldplate.sizing import command
 from coldplate.sizing.writer import toml_text
 

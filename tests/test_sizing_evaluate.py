@@ -1,7 +1,7 @@
 """The many-candidate evaluator (coldplate.sizing.evaluate).
 
 1. Internal consistency check: the vectorised evaluator against the one-design path
-   (coldplate.solve.solve_plate) candidate by candidate, within 0.1 % on R_th and dp, over random samples that
+   (coldplate.plate.solve.solve_plate) candidate by candidate, within 0.1 % on R_th and dp, over random samples that
    span laminar, transitional and turbulent flow.  Both paths call the same correlation functions; this check
    guards the parts that differ (tabulated properties, tabulated spreading, array plumbing).
 2. The tabulated spreading and march against the series itself (computed).
@@ -21,8 +21,8 @@ from fluids.friction import Colebrook
 from ht.conv_internal import turbulent_Gnielinski
 from iapws import IAPWS95
 
-from coldplate.design import design_from_dict
-from coldplate.solve import solve_plate
+from coldplate.design.reader import design_from_dict
+from coldplate.plate.solve import solve_plate
 from coldplate.sizing.evaluate import Evaluator
 from coldplate.sizing.platetable import PlateTable
 

@@ -15,8 +15,8 @@ import tomllib
 import pytest
 
 from coldplate.cli import main
-from coldplate.design import load_design
-from coldplate.solve import solve
+from coldplate.design.reader import load_design
+from coldplate.check import solve
 from coldplate.sizing.writer import toml_text
 
 from .helpers import example_dict

@@ -2,7 +2,7 @@
 names the limit that binds, the [search] reader's ranges.
 
 Sources: the definition of Pareto dominance (brute force, computed in the test); the one-design check
-(coldplate.solve) for what a design achieves.
+(coldplate.check) for what a design achieves.
 """
 from __future__ import annotations
 
@@ -13,14 +13,14 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from coldplate.design import design_from_dict
-from coldplate.errors import DesignError
+from coldplate.design.reader import design_from_dict
+from coldplate.design.errors import DesignError
 from coldplate.sizing.evaluate import Evaluator
 from coldplate.sizing.pareto import pareto_mask, pareto_mask_brute_force
 from coldplate.sizing.recommend import size
 from coldplate.sizing.run import run_search
 from coldplate.sizing.search import read_search
-from coldplate.solve import solve_plate
+from coldplate.plate.solve import solve_plate
 
 from .helpers import example_dict
 

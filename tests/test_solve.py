@@ -13,8 +13,8 @@ import pytest
 
 from coldplate import check_file
 from coldplate.cli import main
-from coldplate.design import design_from_dict
-from coldplate.solve import solve
+from coldplate.design.reader import design_from_dict
+from coldplate.check import solve
 
 from .helpers import EXAMPLES, example_dict, modified
 
@@ -143,7 +143,7 @@ def test_hot_discharge_flagged():
 
 
 def test_findings_sorted_by_severity(results):
-    from coldplate.result import SEVERITIES
+    from coldplate.findings.base import SEVERITIES
     for r in results.values():
         ranks = [SEVERITIES.index(f.severity) for f in r.findings]
         assert ranks == sorted(ranks)
@@ -168,7 +168,7 @@ def test_closed_loop_uses_no_water_and_has_no_drain_findings(results):
 def test_tube_strips_by_hand():
     # Source: 1-D conduction with a uniform source (Fourier's law): a strip of width w draining over a length l
     # has a mean rise q'' l^2 / (3 k t); the plate's area-mean is the width-weighted sum.
-    from coldplate.passages import tube
+    from coldplate.plate.passages import tube
     d = design_from_dict(example_dict("laser-mount-tube"))
     p, pl = d.passage, d.plate
     gap = 2 * p.bend_radius - p.outer_diameter

@@ -14,9 +14,10 @@ import pytest
 from iapws import IAPWS97
 
 from coldplate.cli import main
-from coldplate.design import design_from_dict
-from coldplate.operating import PlateAt
-from coldplate.solve import solve, solve_plate
+from coldplate.design.reader import design_from_dict
+from coldplate.supply.operating import PlateAt
+from coldplate.check import solve
+from coldplate.plate.solve import solve_plate
 from hydraulics.circuit import G
 
 from .helpers import example_dict, write

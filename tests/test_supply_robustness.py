@@ -9,7 +9,7 @@ import math
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from coldplate.solve import solve_plate
+from coldplate.plate.solve import solve_plate
 
 from .helpers import example_dict, solved_or_refused
 

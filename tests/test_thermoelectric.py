@@ -18,7 +18,7 @@ import math
 import numpy as np
 import pytest
 
-from coldplate import thermoelectric as te
+from coldplate.modules import model as te
 
 # shared/reference-values.md, "Thermoelectric module (standard model)", label: computed
 TH, DTMAX, IMAX, VMAX = 300.0, 70.0, 6.0, 15.0

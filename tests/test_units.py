@@ -3,8 +3,8 @@ from __future__ import annotations
 
 import pytest
 
-from coldplate.errors import DesignError
-from coldplate.units import parse_value
+from coldplate.design.errors import DesignError
+from coldplate.design.units import parse_value
 
 
 @pytest.mark.parametrize("text,kind,si", [

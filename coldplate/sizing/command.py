@@ -12,7 +12,7 @@ import sys
 import time
 from pathlib import Path
 
-from ..errors import DesignError
+from coldplate.design.errors import DesignError
 
 EXIT_INTERRUPTED = 130
 
@@ -53,8 +53,8 @@ def add_parser(sub) -> None:
 
 
 def run(args) -> int:
-    from .. import __version__
-    from .recommend import read_file, size
+    from coldplate import __version__
+    from coldplate.sizing.recommend import read_file, size
 
     out_path = Path(args.write_best) if args.write_best else None
     if out_path is not None and out_path.exists() and not args.force:

@@ -35,14 +35,14 @@ import numpy as np
 from hydraulics.coolant import enthalpy
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 
-from .. import conduction
-from ..design import Design
-from ..errors import DesignError
-from ..passages import channels as channel_passage
-from ..passages import tube as tube_passage
-from ..solve import friction_pressure_drop, passage_flow
-from .platetable import PlateTable
-from .proptable import PropertyTable
+from coldplate.plate import conduction
+from coldplate.design.reader import Design
+from coldplate.design.errors import DesignError
+from coldplate.plate.passages import channels as channel_passage
+from coldplate.plate.passages import tube as tube_passage
+from coldplate.plate.solve import friction_pressure_drop, passage_flow
+from coldplate.sizing.platetable import PlateTable
+from coldplate.sizing.proptable import PropertyTable
 
 #: Keep the bulk outlet this far below the boiling point / end of the property data [K].
 TOP_MARGIN_K = 0.5

@@ -20,8 +20,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..conduction import spreading_MCY
-from ..solve import march_points
+from coldplate.plate.conduction import spreading_MCY
+from coldplate.plate.solve import march_points
 
 #: Nodes per decade of h_eff (see the module docstring for the error this gives).
 NODES_PER_DECADE = 16

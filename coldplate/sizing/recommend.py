@@ -8,14 +8,14 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
-from ..design import Design, design_from_dict, load_data, parse_design
-from ..result import Result
-from ..solve import solve
-from .evaluate import Evaluator
-from .refine import Refinement, refine
-from .run import Candidate, SearchOutcome, run_search
-from .search import SearchSpec, read_search
-from .writer import design_text
+from coldplate.design.reader import Design, design_from_dict, load_data, parse_design
+from coldplate.plate.result import Result
+from coldplate.check import solve
+from coldplate.sizing.evaluate import Evaluator
+from coldplate.sizing.refine import Refinement, refine
+from coldplate.sizing.run import Candidate, SearchOutcome, run_search
+from coldplate.sizing.search import SearchSpec, read_search
+from coldplate.sizing.writer import design_text
 
 
 @dataclass(frozen=True)

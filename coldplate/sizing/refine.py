@@ -16,8 +16,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .evaluate import Evaluator
-from .run import Candidate, SearchOutcome, candidate_from
+from coldplate.sizing.evaluate import Evaluator
+from coldplate.sizing.run import Candidate, SearchOutcome, candidate_from
 
 #: Rounding after refinement: lengths to 0.01 mm, flow up to the next 0.01 L/min.
 LENGTH_STEP = 1e-5

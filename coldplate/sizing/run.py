@@ -15,10 +15,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..design import Design
-from .evaluate import Evaluation, Evaluator
-from .pareto import pareto_mask
-from .search import SearchSpec
+from coldplate.design.reader import Design
+from coldplate.sizing.evaluate import Evaluation, Evaluator
+from coldplate.sizing.pareto import pareto_mask
+from coldplate.sizing.search import SearchSpec
 
 #: Candidates per chunk (about): big enough for numpy, small enough for the cache and a lively progress bar.
 CHUNK = 1 << 17

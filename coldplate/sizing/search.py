@@ -13,10 +13,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ..design import Design
-from ..errors import DesignError
-from ..fields import Table
-from ..units import parse_value
+from coldplate.design.reader import Design
+from coldplate.design.errors import DesignError
+from coldplate.design.fields import Table
+from coldplate.design.units import parse_value
 
 #: Free variables by passage kind: name -> (unit kind, whole number?, plausible low, high in SI).
 VARIABLES = {

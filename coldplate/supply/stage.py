@@ -26,12 +26,12 @@ def supply_stage(design, load: float | None = None):
 
     ``load`` is the heat into the plate [W] when it is not the design's own (thermoelectric modules).
     """
-    from .planning import wants_planning
+    from coldplate.supply.planning import wants_planning
 
     if design.circuit is None and not wants_planning(design):
         return None, lambda result: result
-    from .operating import circuit_methods, operate
-    from .planning import plan
+    from coldplate.supply.operating import circuit_methods, operate
+    from coldplate.supply.planning import plan
 
     circuit = operate(design, load) if design.circuit is not None else None
     flow = circuit.V_dot if circuit is not None else None

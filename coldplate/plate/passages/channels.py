@@ -17,8 +17,8 @@ import numpy as np
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
 
-from ..conduction import fin_efficiency_straight, fin_m
-from .base import BackSide, Geometry
+from coldplate.plate.conduction import fin_efficiency_straight, fin_m
+from coldplate.plate.passages.base import BackSide, Geometry
 
 
 def wall_thickness(passage, plate) -> float:

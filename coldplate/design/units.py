@@ -14,7 +14,7 @@ import re
 
 import pint
 
-from .errors import DesignError
+from coldplate.design.errors import DesignError
 
 
 def _make_registry() -> pint.UnitRegistry:

@@ -18,10 +18,11 @@ from hydraulics.circuit import (G, Fitting, Fluid, K_fitting, Line, Valve, dp_li
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.pump import PumpError, PumpTable, intersect, pump_curve
 
-from . import materials
-from .errors import DesignError
-from .result import MethodUse
-from .supply_result import CircuitResult, PumpCurve, SystemCurve
+from coldplate.plate import materials
+from coldplate.design.errors import DesignError
+from coldplate.plate.result import MethodUse
+from coldplate.plate.solve import solve_plate
+from coldplate.supply.result import CircuitResult, PumpCurve, SystemCurve
 
 #: Largest flow searched [m^3/s] (the design reader's own limit for a given flow).
 FLOW_MAX = 0.01
@@ -35,8 +36,6 @@ class PlateAt:
     """solve_plate at trial flows, remembered, with the coolant on each side of the plate."""
 
     def __init__(self, design, load: float | None = None):
-        from .solve import solve_plate  # solve imports this module for the supply stage
-
         self.design, self.load, self._solve, self._cache = design, load, solve_plate, {}
         d = design
         pr = d.coolant.props(d.inlet_temperature, d.supply.line_pressure)

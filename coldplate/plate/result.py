@@ -1,32 +1,23 @@
-"""The frozen result of one design check, in SI units (temperatures in kelvin)."""
+"""The frozen result of one design check, in SI units (temperatures in kelvin).
+
+The plate solve fills it; the check attaches the findings and, where the design has them, the modules' and the
+supply's own results (``coldplate.modules.result``, ``coldplate.supply.result``).
+"""
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
 
 from hydraulics.coolant import Props
 from hydraulics.losses import MinorLoss
 
-from .design import Design
-from .passages.base import Geometry
-from .thermoelectric_result import ModuleResult
-from .supply_result import CircuitResult, PlanningResult
+from coldplate.plate.passages.base import Geometry
 
-SEVERITIES = ("danger", "warning", "caution", "note")  #: most severe first
-
-
-@dataclass(frozen=True)
-class Finding:
-    """One finding: an id, a severity from :data:`SEVERITIES`, the message with its numbers, what to do."""
-
-    id: str
-    severity: str
-    message: str
-    action: str
-
-    def __post_init__(self):
-        if self.severity not in SEVERITIES:
-            raise ValueError(f"unknown severity {self.severity!r}")
-
+if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages' results by name
+    from coldplate.design.reader import Design
+    from coldplate.findings.base import Finding
+    from coldplate.modules.result import ModuleResult
+    from coldplate.supply.result import CircuitResult, PlanningResult
 
 @dataclass(frozen=True)
 class MethodUse:

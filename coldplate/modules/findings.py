@@ -1,12 +1,12 @@
 """Findings for thermoelectric modules on the plate (read ``Result.module``; nothing when it is None).
 
-Appended to :data:`coldplate.findings.RULES`.  Wording that touches electrical safety or condensation on
-live parts ends with :data:`coldplate.findings.DEFER`.
+Run by :mod:`coldplate.check` after the plate's rules.  Wording that touches electrical safety or condensation on
+live parts ends with :data:`coldplate.findings.base.DEFER`.
 """
 from __future__ import annotations
 
-from .findings import DEFER, DEW_MARGIN, _c
-from .result import Finding
+from coldplate.findings.base import DEFER, DEW_MARGIN, degc
+from coldplate.findings.base import Finding
 
 #: Current past the coldest point that counts as "past it": 2 % of I_max and 0.05 K colder there
 #: (common practice: inside this the curve is flat and the difference is below what a sensor resolves).
@@ -27,8 +27,8 @@ def past_coldest(r):
                 "with no current at all the cold face would be colder than this")
         yield Finding(
             "module-past-coldest-current", "warning",
-            f"At {m.current:.3g} A per module the cold face sits at {_c(m.T_cold)}, but this plate and flow give "
-            f"the coldest cold face, {_c(m.T_cold_coldest)}, at {m.coldest_current:.3g} A: past that point more "
+            f"At {m.current:.3g} A per module the cold face sits at {degc(m.T_cold)}, but this plate and flow give "
+            f"the coldest cold face, {degc(m.T_cold_coldest)}, at {m.coldest_current:.3g} A: past that point more "
             f"current only heats the hot side faster than it pumps ({same}).",
             f"Run at or below {m.coldest_current:.3g} A per module, or lower the plate's resistance (more flow, "
             "colder water, a better plate or interface) to move the turning point up.")
@@ -47,7 +47,7 @@ def hot_face_limit(r):
     if m is not None and m.T_hot > m.hot_side_limit:
         yield Finding(
             "module-hot-face-above-rating", "warning",
-            f"The modules' hot face reaches {_c(m.T_hot)}, above their rated maximum of {_c(m.hot_side_limit)}: "
+            f"The modules' hot face reaches {degc(m.T_hot)}, above their rated maximum of {degc(m.hot_side_limit)}: "
             "solder joints and the thermoelectric material age fast or fail.",
             "Lower the current, raise the flow or use colder water, or improve the plate and the interface "
             "under the modules.")
@@ -74,14 +74,14 @@ def cold_face_dew(r):
     if m.dew_margin < 0:
         yield Finding(
             "module-cold-face-frost" if frost else "module-cold-face-condensation", "warning",
-            f"The modules' cold face ({_c(m.T_cold)}) is {-m.dew_margin:.1f} K below the room {kind} "
-            f"({_c(m.T_dew)}): the cold stage will {'collect frost, which melts to water when it is switched off' if frost else 'sweat'}, "
+            f"The modules' cold face ({degc(m.T_cold)}) is {-m.dew_margin:.1f} K below the room {kind} "
+            f"({degc(m.T_dew)}): the cold stage will {'collect frost, which melts to water when it is switched off' if frost else 'sweat'}, "
             "and the water can short the modules and nearby electronics.", remedies)
     elif m.dew_margin < DEW_MARGIN:
         yield Finding(
             "module-cold-face-condensation", "caution",
-            f"The modules' cold face ({_c(m.T_cold)}) is within {DEW_MARGIN:.0f} K of the room {kind} "
-            f"({_c(m.T_dew)}): a more humid day will make the cold stage sweat.", remedies)
+            f"The modules' cold face ({degc(m.T_cold)}) is within {DEW_MARGIN:.0f} K of the room {kind} "
+            f"({degc(m.T_dew)}): a more humid day will make the cold stage sweat.", remedies)
 
 
 def module_electrical(r):
@@ -111,5 +111,5 @@ def datasheet_consistency(r):
             "Treat the results as estimates; measured S, R and K at the working temperature would be closer.")
 
 
-MODULE_RULES = (past_coldest, target_unreachable, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
+RULES = (past_coldest, target_unreachable, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
                 datasheet_consistency)

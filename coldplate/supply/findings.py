@@ -9,11 +9,11 @@ from __future__ import annotations
 
 from hydraulics.circuit import Backflow
 
-from . import materials
-from .circuit_design import BACKFLOW_DEVICES
-from .operating import FLOW_MAX
-from .findings import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, _c
-from .result import Finding
+from coldplate.plate import materials
+from coldplate.supply.reader import BACKFLOW_DEVICES
+from coldplate.supply.operating import FLOW_MAX
+from coldplate.findings.base import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, degc
+from coldplate.findings.base import Finding
 
 #: Height of an atmospheric vacuum breaker above the highest downstream point [m]: 6 in (152 mm) in common US
 #: model codes; from memory.
@@ -151,20 +151,20 @@ def planning(r):
     if p is None:
         return
     if p.binding == "unreachable":
-        limits = [f"discharge at most {_c(p.discharge_limit)}"]
+        limits = [f"discharge at most {degc(p.discharge_limit)}"]
         if p.face_limit is not None:
-            limits.insert(0, f"mounting face at most {_c(p.face_limit)}")
+            limits.insert(0, f"mounting face at most {degc(p.face_limit)}")
         yield Finding(
             "limits-unreachable", "warning",
             f"No flow up to {FLOW_MAX * 6e4:.0f} L/min meets the limits ({', '.join(limits)}) with water entering at "
-            f"{_c(r.T_in)}: the plate's conduction and interface, or the inlet temperature itself, exceed them.",
+            f"{degc(r.T_in)}: the plate's conduction and interface, or the inlet temperature itself, exceed them.",
             "Improve the interface or the plate, lower the load, or use colder water.")
         return
     if p.face_limit is not None and r.T_face_max > p.face_limit:
         yield Finding(
             "face-limit", "warning",
-            f"At {r.V_dot * 6e4:.3g} L/min the hottest mounting face reaches {_c(r.T_face_max)}, above its limit of "
-            f"{_c(p.face_limit)}; the limits need at least {p.V_dot_min * 6e4:.3g} L/min.",
+            f"At {r.V_dot * 6e4:.3g} L/min the hottest mounting face reaches {degc(r.T_face_max)}, above its limit of "
+            f"{degc(p.face_limit)}; the limits need at least {p.V_dot_min * 6e4:.3g} L/min.",
             "Raise the flow (open the valve, shorten or widen the lines) or improve the plate.")
     if p.waste_ratio is not None and p.waste_ratio > WASTE_RATIO:
         money = ""

@@ -1,4 +1,4 @@
-"""The one solve: design in, frozen :class:`Result` out.
+"""The plate solve: one plate at one flow and load, a frozen :class:`Result` without findings.
 
 Chain (each step a published method, see DEVELOPERS.md):
 
@@ -14,15 +14,14 @@ Chain (each step a published method, see DEVELOPERS.md):
 5. the plate: Muzychka-Culham-Yovanovich spreading series with the back side
    smeared into an effective coefficient over the plate, then a march along the
    flow adding the coolant's local bulk temperature rise, so the hottest point of
-   the mounting face is found, not assumed;
-6. findings (condensation, cross-connection, discharge, velocity, pressure,
-   metals, electrical safety, correlation ranges).
+   the mounting face is found, not assumed.
+
+The check (``coldplate/check.py``) runs this with the modules, the supply and the findings.
 """
 from __future__ import annotations
 
 import math
-from dataclasses import replace
-from functools import partial
+from typing import TYPE_CHECKING
 
 import numpy as np
 
@@ -32,54 +31,17 @@ from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
 from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
 
-from . import conduction, psychro
-from .convection import nusselt
-from .design import Design, load_design
-from .errors import DesignError, SolveError
-from .findings import collect_findings
-from .passages import PASSAGES
-from .result import MethodUse, Profile, Result
+from coldplate.plate import conduction, psychro
+from coldplate.plate.convection import nusselt
+from coldplate.design.errors import DesignError, SolveError
+from coldplate.plate.passages import PASSAGES
+from coldplate.plate.result import MethodUse, Profile, Result
+
+if TYPE_CHECKING:
+    from coldplate.design.reader import Design
 
 MAX_ITERATIONS = 60
 TOLERANCE_K = 1e-5
-
-
-def check_file(path) -> Result:
-    """Read a design file and solve it (the Python API of ``coldplate check``)."""
-    return solve(load_design(path))
-
-
-def solve(design: Design) -> Result:
-    """Solve the design check for one design: the plate at the design's flow and load, then the findings.
-
-    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
-    get the water planning (coldplate/supply_stage.py).  With thermoelectric modules the plate's load is
-    their hot-side heat (coldplate/module_solve.py).
-    """
-    from .supply_stage import supply_stage  # imports scipy only when a circuit or planning is asked for
-
-    if design.module is None:
-        flow, attach = supply_stage(design)
-        result = attach(solve_plate(design, flow))
-    else:
-        result = _solve_with_modules(design, supply_stage)
-    return replace(result, findings=collect_findings(result))
-
-
-def _solve_with_modules(design: Design, supply_stage) -> Result:
-    """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
-    properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
-    flow, then the supply at the modules' real heat and the modules once more at its flow."""
-    from .module_solve import solve_with_module
-
-    flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
-    if flow is not None:
-        first = solve_with_module(design, partial(solve_plate, flow=flow))
-        flow, attach = supply_stage(design, load=first.load)
-    result = solve_with_module(design, partial(solve_plate, flow=flow))
-    if flow is None:  # no circuit: planning (if any) at the modules' real heat
-        _, attach = supply_stage(design, load=result.load)
-    return attach(result)
 
 
 def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:

@@ -15,10 +15,10 @@ from hydraulics.circuit import (FITTINGS, Backflow, Circuit, Fitting, Line, Plat
                                 Kv_from_Cv)
 from hydraulics.pump import PumpError, check_table
 
-from . import materials
-from .errors import DesignError
-from .fields import Table
-from .units import parse_value
+from coldplate.plate import materials
+from coldplate.design.errors import DesignError
+from coldplate.design.fields import Table
+from coldplate.design.units import parse_value
 
 
 @dataclass(frozen=True)

@@ -7,8 +7,8 @@ from __future__ import annotations
 
 from typing import Any
 
-from .errors import DesignError
-from .units import parse_value
+from coldplate.design.errors import DesignError
+from coldplate.design.units import parse_value
 
 SI_LABEL = {"length": "m", "power": "W", "flow": "m³/s", "pressure": "Pa (gauge)", "conductivity": "W/(m K)",
            "area_resistance": "m² K/W", "fraction": "(as a fraction)"}

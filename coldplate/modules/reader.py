@@ -10,9 +10,9 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from . import thermoelectric as te
-from .errors import DesignError
-from .fields import Table
+from coldplate.modules import model as te
+from coldplate.design.errors import DesignError
+from coldplate.design.fields import Table
 
 WIRINGS = ("series", "parallel", "series-parallel")
 #: Hot-side temperature a standard module may run at when the datasheet gives none: 80 degC

@@ -1,6 +1,6 @@
 """Thermoelectric modules and the plate solved as one system: operating point, current sweep, turning point.
 
-The plate side comes only from :func:`coldplate.solve.solve_plate` at the modules' real hot-side heat;
+The plate side comes only from :func:`coldplate.plate.solve.solve_plate` at the modules' real hot-side heat;
 the hot face is the plate's hottest mounting face (the design's interface lies between the module's hot
 face and the plate).  With the cold-side load ``Q_c`` and the current fixed, the hot-side heat of one
 module is linear in its hot-face temperature, ``Q_h = c0 + c1 T_h`` (thermoelectric.hot_side_heat_line),
@@ -23,10 +23,10 @@ from dataclasses import replace
 
 import numpy as np
 
-from . import thermoelectric as te
-from .errors import DesignError, SolveError
-from .result import MethodUse
-from .thermoelectric_result import ModuleResult, ModuleSweep
+from coldplate.modules import model as te
+from coldplate.design.errors import DesignError, SolveError
+from coldplate.plate.result import MethodUse
+from coldplate.modules.result import ModuleResult, ModuleSweep
 
 SWEEP_POINTS = 31  #: currents from 0 to I_max in the sweep
 TOLERANCE_K = 1e-6  #: hot-face agreement of the coupled operating point [K]

@@ -13,8 +13,8 @@ import math
 
 import numpy as np
 
-from .operating import FLOW_MAX, PlateAt
-from .supply_result import Breakeven, PlanningResult, UseCurve
+from coldplate.supply.operating import FLOW_MAX, PlateAt
+from coldplate.supply.result import Breakeven, PlanningResult, UseCurve
 
 #: Points of the water-use curve.
 USE_POINTS = 12

@@ -8,16 +8,9 @@ source (a code, a standard, or "common practice").
 """
 from __future__ import annotations
 
-import re
+from coldplate.plate import materials
+from coldplate.findings.base import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, DEW_MARGIN, Finding, degc, slug
 
-from . import materials
-from .result import SEVERITIES, Finding
-
-DEFER = ("Local plumbing and electrical codes, the water supplier and licensed practice decide; "
-         "this tool gives guidance, not approval.")
-
-#: Margin above the dew point below which a surface is treated as at risk of sweating [K] (common practice).
-DEW_MARGIN = 2.0
 #: Margin above the freezing point inside which ice is a risk [K] (common practice).
 FREEZE_MARGIN = 3.0
 #: Margin below saturation inside which local boiling is a risk [K] (common practice).
@@ -28,43 +21,21 @@ COPPER_V_COLD, COPPER_V_HOT, COPPER_HOT_T = 2.4, 1.5, 333.15
 V_SLOW = 0.1
 #: Static pressure above which US model plumbing codes call for a pressure-reducing valve [Pa] (80 psi).
 PRV_PRESSURE = 551_581.0
-#: Continuous pressure longer than this rules out an atmospheric vacuum breaker [h] (common in codes).
-AVB_MAX_HOURS = 12.0
 #: Anodic-index difference above which a metal pair is treated as galvanically incompatible in water [V]
 #: (common practice for harsh environments, after MIL-STD-889-style anodic index tables).
 GALVANIC_LIMIT = 0.15
-#: Air gap at the drain: at least twice the outlet's diameter, and not less than 25 mm (ASME A112.1.2).
-AIR_GAP_MIN = 0.025
-
-
-def collect_findings(r) -> tuple[Finding, ...]:
-    """Every finding for a solved result, most severe first."""
-    out: list[Finding] = []
-    for rule in RULES:
-        out.extend(rule(r))
-    rank = {s: i for i, s in enumerate(SEVERITIES)}
-    return tuple(sorted(out, key=lambda f: rank[f.severity]))
-
-
-def _slug(text: str) -> str:
-    """A finding id from a method name: lower case, '&' as 'and', other runs of symbols as one '-'."""
-    return re.sub(r"[^a-z0-9]+", "-", text.lower().replace("&", "and")).strip("-")
-
-
-def _c(T: float) -> str:
-    return f"{T - 273.15:.1f} degC"
 
 
 def condensation(r):
     d = r.design
     T_cold = r.T_in  # the coldest wetted surface: inlet water, supply hose and the plate near the inlet
     kind = r.dew_kind
-    room = f"room {_c(d.room.temperature)} at {d.room.relative_humidity * 100:.0f} % RH"
+    room = f"room {degc(d.room.temperature)} at {d.room.relative_humidity * 100:.0f} % RH"
     if T_cold < r.T_dew:
         what = "frost" if kind == "frost point" else "condensation"
         yield Finding(
             "frost" if what == "frost" else "condensation", "warning",
-            f"The inlet water ({_c(T_cold)}) is below the room {kind} ({_c(r.T_dew)}, {room}): "
+            f"The inlet water ({degc(T_cold)}) is below the room {kind} ({degc(r.T_dew)}, {room}): "
             f"the supply hose, fittings and the plate near the inlet will {'frost over' if what == 'frost' else 'sweat'}, "
             "and drips can reach live electronics.",
             "Raise the inlet temperature above the dew point plus a margin, or insulate hoses and plate with a "
@@ -73,7 +44,7 @@ def condensation(r):
     elif T_cold < r.T_dew + DEW_MARGIN:
         yield Finding(
             "condensation", "caution",
-            f"The inlet water ({_c(T_cold)}) is within {DEW_MARGIN:.0f} K of the room {kind} ({_c(r.T_dew)}, {room}): "
+            f"The inlet water ({degc(T_cold)}) is within {DEW_MARGIN:.0f} K of the room {kind} ({degc(r.T_dew)}, {room}): "
             "a more humid day will make hoses and the plate sweat.",
             "Insulate cold hoses and the plate's exposed faces, or set the inlet a few kelvin warmer. " + DEFER)
 
@@ -83,7 +54,7 @@ def freezing(r):
     if r.T_in < tf + FREEZE_MARGIN:
         yield Finding(
             "freezing-risk", "warning",
-            f"The inlet ({_c(r.T_in)}) is within {FREEZE_MARGIN:.0f} K of the coolant's freezing point ({_c(tf)}): "
+            f"The inlet ({degc(r.T_in)}) is within {FREEZE_MARGIN:.0f} K of the coolant's freezing point ({degc(tf)}): "
             "ice can block the passages and burst the plate or hoses.",
             "Keep the supply warmer, add glycol with the backflow consequences that brings, or fit a "
             "low-temperature cut-out.")
@@ -93,8 +64,8 @@ def boiling(r):
     if r.T_plate_max > r.T_boil - BOIL_MARGIN:
         yield Finding(
             "near-boiling", "danger",
-            f"The plate's top face (an upper bound on the wetted wall) reaches {_c(r.T_plate_max)}, within "
-            f"{BOIL_MARGIN:.0f} K of the coolant's boiling point ({_c(r.T_boil)} at {r.line_pressure / 1e3:.0f} kPa "
+            f"The plate's top face (an upper bound on the wetted wall) reaches {degc(r.T_plate_max)}, within "
+            f"{BOIL_MARGIN:.0f} K of the coolant's boiling point ({degc(r.T_boil)} at {r.line_pressure / 1e3:.0f} kPa "
             "absolute, the pressure in the plate while flowing): local boiling, steam and pressure spikes "
             "are possible.",
             "Raise the flow, lower the load, or improve the plate; never let a closed plate boil dry. " + DEFER)
@@ -156,7 +127,7 @@ def discharge(r):
     if r.T_out > d.supply.discharge_limit:
         yield Finding(
             "discharge-temperature", "warning",
-            f"The discharge leaves at {_c(r.T_out)}, above the drain limit of {_c(d.supply.discharge_limit)}: "
+            f"The discharge leaves at {degc(r.T_out)}, above the drain limit of {degc(d.supply.discharge_limit)}: "
             "hot waste water can scald and can damage drain lines.",
             "Raise the flow, temper the discharge with cold water before the drain, or use a recirculating loop. "
             + DEFER)
@@ -244,7 +215,7 @@ def ranges(r):
     for use in r.methods:
         if use.outside:
             yield Finding(
-                "range-" + _slug(use.method), "caution",
+                "range-" + slug(use.method), "caution",
                 f"{use.method} ({use.role}) is used outside its published range: {'; '.join(use.outside)}.",
                 "Treat this part of the result as an extrapolation; check it against a test or a finer model.")
     if r.regime == "transitional":
@@ -268,9 +239,3 @@ def cavity_distribution(r):
 RULES = (condensation, freezing, boiling, cross_connection, discharge, velocity, pressure, metals, electrical,
          ranges, cavity_distribution)
 
-from .findings_module import MODULE_RULES  # noqa: E402  (thermoelectric modules; reads DEFER from here)
-
-RULES += MODULE_RULES
-
-from .findings_supply import RULES as SUPPLY_RULES  # noqa: E402 (they read DEFER and the limits above)
-RULES += SUPPLY_RULES

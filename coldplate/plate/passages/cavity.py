@@ -13,7 +13,7 @@ import math
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
 
-from .base import BackSide, Geometry
+from coldplate.plate.passages.base import BackSide, Geometry
 
 
 def geometry(passage, plate) -> Geometry:

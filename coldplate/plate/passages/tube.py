@@ -16,9 +16,9 @@ import numpy as np
 
 from hydraulics.losses import MinorLoss, K_return_bend
 
-from .. import materials
-from ..conduction import R_cylinder_wall, R_strip_lateral, fin_efficiency_straight, fin_m
-from .base import BackSide, Geometry
+from coldplate.plate import materials
+from coldplate.plate.conduction import R_cylinder_wall, R_strip_lateral, fin_efficiency_straight, fin_m
+from coldplate.plate.passages.base import BackSide, Geometry
 
 #: Share of the tube circumference in contact with the groove (common practice, half-round groove).
 CONTACT_ARC = 0.5

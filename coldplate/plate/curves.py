@@ -21,7 +21,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .errors import DesignError, SolveError
+from coldplate.design.errors import DesignError, SolveError
 
 #: Default span of a flow curve around the design flow (factors), and its number of points.
 DEFAULT_SPAN = (0.25, 4.0)
@@ -87,7 +87,7 @@ def flow_curve(design, flows=None, load: float | None = None, flow: float | None
     sets them (thermoelectric modules give the plate's load; a supply circuit gives the flow), pass the solved
     result's ``load`` and ``V_dot``: the curve then holds the plate at the operating point's heat.
     """
-    from .solve import solve_plate
+    from coldplate.plate.solve import solve_plate
 
     flow = design.flow if flow is None else float(flow)
     if flow is None:

@@ -16,12 +16,12 @@ from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantSta
 
 from hydraulics.circuit import Circuit
 
-from . import materials
-from .circuit_design import read_circuit, read_supply_extras
-from .errors import DesignError, StateError
-from .fields import Table
-from .module_design import Module, read_module
-from .units import parse_value
+from coldplate.plate import materials
+from coldplate.supply.reader import read_circuit, read_supply_extras
+from coldplate.design.errors import DesignError, StateError
+from coldplate.design.fields import Table
+from coldplate.modules.reader import Module, read_module
+from coldplate.design.units import parse_value
 
 # ---------------------------------------------------------------- dataclasses
 

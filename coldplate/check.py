@@ -1,0 +1,69 @@
+"""The check: one design in, one frozen :class:`Result` out, every stage in order.
+
+design (``coldplate.design``) → supply stage (``coldplate.supply``: the flow a circuit delivers, the water
+planning) → plate (``coldplate.plate``), with thermoelectric modules solved together with it when the design has
+them (``coldplate.modules``) → findings (the plate's rules in ``coldplate.findings``, then each concept's own).
+This is the only module that knows every stage; the stages know nothing of it.
+"""
+from __future__ import annotations
+
+from dataclasses import replace
+from functools import partial
+
+from coldplate.design.reader import Design, load_design
+from coldplate.findings.base import SEVERITIES, Finding
+from coldplate.findings.plate import RULES as PLATE_RULES
+from coldplate.modules.findings import RULES as MODULE_RULES
+from coldplate.plate.result import Result
+from coldplate.plate.solve import solve_plate
+from coldplate.supply.findings import RULES as SUPPLY_RULES
+
+#: Every rule, in the order their findings are listed within one severity.
+RULES = PLATE_RULES + MODULE_RULES + SUPPLY_RULES
+
+
+def check_file(path) -> Result:
+    """Read a design file and solve it (the Python API of ``coldplate check``)."""
+    return solve(load_design(path))
+
+
+def solve(design: Design) -> Result:
+    """Solve the design check for one design: the plate at the design's flow and load, then the findings.
+
+    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
+    get the water planning (coldplate/supply/stage.py).  With thermoelectric modules the plate's load is
+    their hot-side heat (coldplate/modules/solve.py).
+    """
+    from coldplate.supply.stage import supply_stage  # imports scipy only when a circuit or planning is asked for
+
+    if design.module is None:
+        flow, attach = supply_stage(design)
+        result = attach(solve_plate(design, flow))
+    else:
+        result = _solve_with_modules(design, supply_stage)
+    return replace(result, findings=collect_findings(result))
+
+
+def _solve_with_modules(design: Design, supply_stage) -> Result:
+    """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
+    properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
+    flow, then the supply at the modules' real heat and the modules once more at its flow."""
+    from coldplate.modules.solve import solve_with_module
+
+    flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
+    if flow is not None:
+        first = solve_with_module(design, partial(solve_plate, flow=flow))
+        flow, attach = supply_stage(design, load=first.load)
+    result = solve_with_module(design, partial(solve_plate, flow=flow))
+    if flow is None:  # no circuit: planning (if any) at the modules' real heat
+        _, attach = supply_stage(design, load=result.load)
+    return attach(result)
+
+
+def collect_findings(r) -> tuple[Finding, ...]:
+    """Every finding for a solved result, most severe first."""
+    out: list[Finding] = []
+    for rule in RULES:
+        out.extend(rule(r))
+    rank = {s: i for i, s in enumerate(SEVERITIES)}
+    return tuple(sorted(out, key=lambda f: rank[f.severity]))
