@@ -1,6 +1,10 @@
 """Cold-start time of the whole `coldplate check` command, with its parts as ratios.
 
-Run:  python benchmarks/startup.py [--repeat 7]
+Run:  python benchmarks/startup.py [--repeat 7] [--against DIR]
+
+``--against DIR`` times the same `coldplate check` from another checkout (an earlier revision, made with
+``git worktree add DIR REV``) in the same run, so a change's effect on start-up is a ratio of two figures
+measured side by side.
 
 Each measurement starts a new Python process, as a user does.  The figures are
 reported as the median wall time and as ratios to a bare `python -c pass`, so the
@@ -9,6 +13,7 @@ numbers compare across machines.  Not a test: nothing here fails on time.
 from __future__ import annotations
 
 import argparse
+import os
 import statistics
 import subprocess
 import sys
@@ -24,24 +29,36 @@ CASES = {
     "import pint + registry": [sys.executable, "-c", "import coldplate.design.units"],
     "import CoolProp": [sys.executable, "-c", "import CoolProp.CoolProp"],
     "import fluids.fittings": [sys.executable, "-c", "import fluids.fittings"],
+    "numpy + pint + CoolProp": [sys.executable, "-c", "import numpy, pint, CoolProp.CoolProp"],
     "coldplate check (text)": [sys.executable, "-m", "coldplate.cli", "check", str(EXAMPLE)],
     "coldplate check (json)": [sys.executable, "-m", "coldplate.cli", "check", str(EXAMPLE), "--format", "json"],
 }
 
 
-def timed(cmd) -> float:
+def timed(cmd, cwd=ROOT) -> float:
+    env = dict(os.environ, PYTHONPATH=str(cwd))
     t0 = time.perf_counter()
-    subprocess.run(cmd, cwd=ROOT, check=True, stdout=subprocess.DEVNULL)
+    subprocess.run(cmd, cwd=cwd, env=env, check=True, stdout=subprocess.DEVNULL)
     return time.perf_counter() - t0
 
 
 def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--repeat", type=int, default=7)
+    ap.add_argument("--against", type=Path, help="another checkout whose `coldplate check` is timed beside this one")
     args = ap.parse_args()
-    for cmd in CASES.values():  # warm the file cache and pint's definition cache once
-        timed(cmd)
-    medians = {name: statistics.median(timed(cmd) for _ in range(args.repeat)) for name, cmd in CASES.items()}
+    cases = {name: (cmd, ROOT) for name, cmd in CASES.items()}
+    if args.against:
+        cases["check, other checkout"] = ([sys.executable, "-m", "coldplate.cli", "check", str(EXAMPLE)],
+                                          args.against.resolve())
+    for cmd, cwd in cases.values():  # warm the file cache and pint's definition cache once
+        timed(cmd, cwd)
+    # Interleaved rounds, so a slow spell of a shared machine falls on every case alike.
+    runs = {name: [] for name in cases}
+    for _ in range(args.repeat):
+        for name, (cmd, cwd) in cases.items():
+            runs[name].append(timed(cmd, cwd))
+    medians = {name: statistics.median(times) for name, times in runs.items()}
     base = medians["python -c pass"]
     print(f"{'case':<26} {'median s':>9} {'x bare python':>14}")
     for name, t in medians.items():
@@ -50,6 +67,12 @@ def main() -> None:
     check = medians["coldplate check (text)"]
     print(f"\nthird-party imports (numpy, pint + registry, CoolProp) ≈ {libs:.3f} s = "
           f"{libs / check:.0%} of the whole command")
+    print(f"coldplate check / (python -c 'import numpy, pint, CoolProp.CoolProp') = "
+          f"{check / medians['numpy + pint + CoolProp']:.2f}")
+    if args.against:
+        other = medians["check, other checkout"]
+        print(f"coldplate check here / in {args.against} = {check / other:.3f} "
+              f"(other: {other / medians['numpy + pint + CoolProp']:.2f} x the imports)")
     _in_process()
 
 
