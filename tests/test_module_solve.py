@@ -34,7 +34,7 @@ BASE = example_dict("sample-stage-thermoelectric")
 DESIGN = design_from_dict(BASE)
 RESULT = solve(DESIGN)
 # a weak heat path: little water through a thick, poor interface, so the turning point lies below I_max
-WEAK = modified(BASE, coolant__flow="0.3 L/min", module__current="6 A", interface__conductivity="0.3 W/(m*K)",
+WEAK = modified(BASE, coolant__flow="0.3 L/min", module__current="5.6 A", interface__conductivity="0.3 W/(m*K)",
                 interface__thickness="0.5 mm")
 
 
