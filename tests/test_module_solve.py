@@ -39,7 +39,7 @@ WEAK = modified(BASE, coolant__flow="0.3 L/min", module__current="5.6 A", interf
 
 
 def luo(I_max, V_max, dT_max, T_h):
-    """Luo (2008, Electronics Cooling), typed out again (shared/reference-values.md)."""
+    """Luo (2008, Electronics Cooling), typed out again (VALIDATION.md)."""
     return V_max / T_h, (T_h - dT_max) * V_max / (T_h * I_max), (T_h - dT_max) * V_max * I_max / (2 * T_h * dT_max)
 
 
