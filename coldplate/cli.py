@@ -28,7 +28,7 @@ def _parser() -> argparse.ArgumentParser:
     r.add_argument("--units", choices=("si", "us"), default="si", help="display units (default: si)")
     _flow_range_options(r)
     r.add_argument("--force", action="store_true", help="replace existing files")
-    k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with a compact fit")
+    k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with fitted flow curves")
     k.add_argument("file", help="design file (TOML)")
     k.add_argument("-o", "--output", help="file to write (NAME.csv or NAME.json); standard output when absent")
     k.add_argument("--format", choices=("csv", "json"), help="output format (default: from the file name, else csv)")
@@ -63,7 +63,7 @@ def _flows(args, flow):
 def _report(args, version) -> str:
     from pathlib import Path
 
-    from coldplate.plate.curves import fit_compact, flow_curve, mounting_face_profile
+    from coldplate.plate.curves import fit_flow_curves, flow_curve, mounting_face_profile
     from coldplate.design.reader import parse_design
     from coldplate.check import solve
 
@@ -82,14 +82,14 @@ def _report(args, version) -> str:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
     result = solve(parse_design(text))
     curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
-    rep = make_report(result, curve, fit_compact(curve), mounting_face_profile(result), units=args.units,
+    rep = make_report(result, curve, fit_flow_curves(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
     written = write_report(rep, args.output, args.force)
     return "wrote " + ", ".join(str(p) for p in written)
 
 
 def _curves(args, version) -> str:
-    from coldplate.plate.curves import fit_compact, flow_curve
+    from coldplate.plate.curves import fit_flow_curves, flow_curve
     from coldplate.design.reader import load_design
     from coldplate.check import solve
 
@@ -103,7 +103,7 @@ def _curves(args, version) -> str:
     design = load_design(args.file)
     here = solve(design)  # the operating point: modules set the plate's load, a supply circuit its flow
     curve = flow_curve(design, _flows(args, here.V_dot), load=here.load, flow=here.V_dot)
-    fit = fit_compact(curve)
+    fit = fit_flow_curves(curve)
     if fmt == "json":
         from reports.curves_out import render_curves_json
 

@@ -154,8 +154,9 @@ def _flow(curve, fit, u: DisplayUnits, figures, module: bool = False) -> Section
             "held fixed)" if module else f"the design load of {u.text('power', curve.load)}")
     paras = [f"The plate solved at {len(curve.V_dot)} flows from {u.text('flow', min(curve.V_dot), 3)} to "
              f"{u.text('flow', max(curve.V_dot), 3)} at {load}; the design point is marked.",
-             "Compact form for system models (SI: V̇ in m³/s, Δp in Pa, R in K/W; the command "
-             "'coldplate curves' exports the points and this fit as CSV or JSON): "
+             "Fitted flow curves for system models (SI: V̇ in m³/s, Δp in Pa, R in K/W; R0 is the part no "
+             "flow removes, computed from the plate, not fitted; the command 'coldplate curves' exports the "
+             "points and these formulas as CSV or JSON): "
              f"Δp = {fit.a:.5g}·V̇ + {fit.b:.5g}·V̇², largest error {100 * fit.dp_max_error:.1f} %; "
              f"R = {fit.R0:.5g} + {fit.c:.5g}·V̇^(−{fit.n:.4f}), largest error {100 * fit.R_max_error:.1f} %; "
              f"fitted over {fit.V_min:.4g} to {fit.V_max:.4g} m³/s."]

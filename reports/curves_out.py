@@ -1,6 +1,6 @@
 """The plate's flow curve for system models and spreadsheets: CSV or JSON, SI with units in the names.
 
-Formatting only: the points and the compact fit come from :mod:`coldplate.curves`.  The CSV has one row per
+Formatting only: the points and the fitted flow curves come from :mod:`coldplate.plate.curves`.  The CSV has one row per
 flow with the fitted values beside the solved ones; the JSON adds the fit's constants and its largest errors.
 """
 from __future__ import annotations

@@ -124,7 +124,7 @@ def profile(result, face, u: DisplayUnits) -> Figure:
 
 
 def flow_curves(curve, fit, u: DisplayUnits) -> Figure:
-    """R and dp against flow, with the compact fit and the design point."""
+    """R and dp against flow, with the fitted flow curves and the design point."""
     fig, (ax1, ax2) = _figure(3.2, ncols=2)
     V = u.value("flow", curve.V_dot)
     Vd = u.value("flow", curve.design_V_dot)
@@ -133,7 +133,7 @@ def flow_curves(curve, fit, u: DisplayUnits) -> Figure:
             (ax1, "thermal_resistance", curve.R_th, curve.design_R_th, fit.R_th(Vf), "Thermal resistance"),
             (ax2, "pressure", curve.dp, curve.design_dp, fit.dp(Vf), "Pressure drop (plate)")):
         ax.plot(V, u.value(kind, ys), color=BLUE, marker="o", markersize=3, linestyle="-", label="solved")
-        ax.plot(u.value("flow", Vf), u.value(kind, fitted), color=ORANGE, linestyle="--", label="compact fit")
+        ax.plot(u.value("flow", Vf), u.value(kind, fitted), color=ORANGE, linestyle="--", label="fitted curve")
         ax.plot([Vd], [u.value(kind, yd)], marker="D", color=VERMILION, markersize=7, linestyle="none",
                 label="design point")
         ax.set_xscale("log")

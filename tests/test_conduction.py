@@ -1,9 +1,8 @@
 """Validation of coldplate.conduction against outside references.
 
-Independent checks used here: the reference values gathered in
-shared/reference-values.md (labels kept), the ht package's cylinder resistance
-(not called by the code under test), and finite-difference / finite-volume
-solutions written in this file.
+Independent checks used here: the reference values gathered in VALIDATION.md at the top of the
+repository (labels kept), the ht package's cylinder resistance (not called by the code under test), and
+finite-difference / finite-volume solutions written in this file.
 """
 import math
 import warnings
@@ -65,7 +64,7 @@ def test_R_strip_lateral_against_finite_difference():
 
 @pytest.mark.parametrize("mL, eta", [(0.5, 0.9242), (1.0, 0.7616), (2.0, 0.4820)])
 def test_fin_efficiency_reference_values(mL, eta):
-    # source: reference-values.md "Fins and spreading" (computed, tanh(mL)/mL)
+    # source: VALIDATION.md "Fins and spreading" (computed, tanh(mL)/mL)
     assert cd.fin_efficiency_straight(mL, 1.0) == pytest.approx(eta, abs=6e-5)
 
 
@@ -149,7 +148,7 @@ REF_CASE = (0.05, 0.05, 0.01, 0.01, 0.005, 390.0, 5000.0)
 
 
 def test_spreading_reference_check_value():
-    # source: reference-values.md "Fins and spreading" (computed: MCY 2003 series,
+    # source: VALIDATION.md "Fins and spreading" (computed: MCY 2003 series,
     # 3-D finite volume agrees within about 1 %): spreading 0.1168, 1-D 0.0851 K/W
     s = cd.spreading_MCY(*REF_CASE)
     assert s.R_1D == pytest.approx(0.0851, abs=5e-5)

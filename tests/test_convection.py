@@ -1,6 +1,6 @@
 """Validation of coldplate.convection against outside references.
 
-Labels as in /work/shared/reference-values.md: published / library / memory / computed.
+Labels as in VALIDATION.md: published / library / memory / computed.
 """
 import math
 import re
@@ -33,7 +33,7 @@ from hydraulics.friction import f_Petukhov
 
 # ----------------------------------------------------------------- fully developed laminar
 
-# source: Shah & London 1978 rectangular-duct table via reference-values.md
+# source: Shah & London 1978 rectangular-duct table via VALIDATION.md
 # (label there: memory; computed agrees), Nu on D_h, all four walls heated.
 TABLE = [  # alpha, Nu_T, Nu_H1
     (1.0, 2.976, 3.608), (0.5, 3.391, 4.123), (1.0 / 3.0, 3.956, 4.795),
@@ -55,7 +55,7 @@ def test_four_walls_h1_against_ht_library():
 
 
 def test_parallel_plate_and_circular_limits():
-    # textbook standard (reference-values.md): one plate heated, the other insulated,
+    # textbook standard (VALIDATION.md): one plate heated, the other insulated,
     # 70/13 = 5.385 (H) and 4.861 (T, memory; computed agrees)
     # "3S" also: its heated short walls vanish at alpha = 0
     for heated in ("1L", "3S"):
@@ -178,7 +178,7 @@ def test_square_duct_three_walls_either_name():
 
 @pytest.mark.parametrize("heated, limit", [("3S", 70 / 13), ("1L", 70 / 13), ("2L", 8.235)])
 def test_computed_tables_approach_parallel_plates(heated, limit):
-    # textbook standard (reference-values.md): parallel plates, one plate heated and the
+    # textbook standard (VALIDATION.md): parallel plates, one plate heated and the
     # other insulated 70/13 = 5.385; both heated 8.235
     assert Nu_rectangular_finite_difference(0.0, heated) == pytest.approx(limit, abs=5e-4)
     # computed: a flat duct (alpha = 0.02) by the solver lies within 5 % of the limit,
@@ -205,7 +205,7 @@ def test_selector_accepts_every_arrangement(heated):
 # ----------------------------------------------------------------- laminar entry, circular tube
 
 
-# source: reference-values.md, Hausen values (computed from the published formula)
+# source: VALIDATION.md, Hausen values (computed from the published formula)
 @pytest.mark.parametrize("Gz, nu", [(10.0, 4.223), (100.0, 7.248), (1000.0, 17.02)])
 def test_hausen_check_values(Gz, nu):
     assert Nu_Hausen(Gz) == pytest.approx(nu, rel=5e-4)
@@ -219,14 +219,14 @@ def test_hausen_and_sieder_tate_against_ht():
     mu, mu_w = 8.9e-4, 6.5e-4
     ref = hci.laminar_entry_Seider_Tate(Re, Pr, L, D, mu=mu, mu_w=mu_w)
     assert Nu_Sieder_Tate_laminar(Re, Pr, L / D, mu / mu_w) == pytest.approx(ref, rel=1e-12)
-    # reference-values.md: Sieder-Tate has no 3.66 floor, Hausen does
+    # VALIDATION.md: Sieder-Tate has no 3.66 floor, Hausen does
     assert Nu_Sieder_Tate_laminar(100.0, 1.0, 1000.0) < 3.66 < Nu_Hausen(0.1)
 
 
 # ----------------------------------------------------------------- turbulent
 
 # source: Cengel, Heat and Mass Transfer, problem 8-40 (memory; arithmetic reproduced in
-# reference-values.md): water at 45 C in a 2 cm tube, V = 0.4244 m/s
+# VALIDATION.md): water at 45 C in a 2 cm tube, V = 0.4244 m/s
 K_W, D_W, PR_W = 0.637, 0.02, 3.91
 RE_W = 0.4244 * D_W / 0.602e-6
 
@@ -243,7 +243,7 @@ def test_dittus_boelter_worked_example():
 
 
 def test_gnielinski_worked_example_and_library():
-    # reference-values.md: Gnielinski on the same case h ~ 2748 W/m2K (computed there)
+    # VALIDATION.md: Gnielinski on the same case h ~ 2748 W/m2K (computed there)
     h = Nu_Gnielinski(RE_W, PR_W) * K_W / D_W
     assert h == pytest.approx(2748, rel=2e-3)
     # library: ht.conv_internal.turbulent_Gnielinski with the same Darcy f

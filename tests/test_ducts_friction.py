@@ -1,6 +1,6 @@
 """Validation of hydraulics.ducts and hydraulics.friction against outside references.
 
-Labels as in /work/shared/reference-values.md: published / library / memory / computed.
+Labels as in VALIDATION.md: published / library / memory / computed.
 """
 import math
 import warnings
@@ -42,7 +42,7 @@ def test_geometry_helpers():
 
 
 def test_transition_weight_limits():
-    # VDI Heat Atlas G1 (as summarised in reference-values.md): 0 at 2300, 1 at 1e4, linear
+    # VDI Heat Atlas G1 (as summarised in VALIDATION.md): 0 at 2300, 1 at 1e4, linear
     assert RE_LAMINAR_END == 2300.0 and RE_TURBULENT_START == 1.0e4
     w = transition_weight(np.array([100.0, 2300.0, 6150.0, 1e4, 1e6]))
     assert np.allclose(w, [0.0, 0.0, 0.5, 1.0, 1.0])
@@ -52,7 +52,7 @@ def test_transition_weight_limits():
 # ----------------------------------------------------------------- fully developed f Re
 
 
-# source: Shah & London 1978 rectangular-duct table, via reference-values.md
+# source: Shah & London 1978 rectangular-duct table, via VALIDATION.md
 # (label there: memory; computed agrees).  Fanning f Re.
 @pytest.mark.parametrize("alpha, fanning", [
     (1.0, 14.227), (0.5, 15.548), (1.0 / 3.0, 17.090), (0.25, 18.233), (0.125, 20.585), (0.0, 24.000),
@@ -102,7 +102,7 @@ def test_fRe_arrays_and_small_alpha_without_warnings():
 # ----------------------------------------------------------------- developing laminar flow
 
 
-# source: Shah (1978) correlation, check values in reference-values.md (computed, Fanning f_app Re)
+# source: Shah (1978) correlation, check values in VALIDATION.md (computed, Fanning f_app Re)
 @pytest.mark.parametrize("x_plus, fanning_fRe", [(0.001, 109.8), (0.01, 38.55), (0.1, 18.96)])
 def test_shah_apparent_check_values(x_plus, fanning_fRe):
     Re, D = 1000.0, 0.01

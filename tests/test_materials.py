@@ -111,7 +111,7 @@ def test_bond_ordering_and_ranges():
 def test_pressure_ratings():
     # source: common practice; anything on mains water should exceed the 552 kPa
     # static pressure above which a pressure-reducing valve is called for
-    # (US model plumbing codes, reference-values.md) unless a valve is fitted
+    # (US model plumbing codes, VALIDATION.md) unless a valve is fitted
     assert mt.pressure_rating("channels").value > 5.52e5
     assert mt.pressure_rating("tube").value > 5.52e5
     for e in mt.PRESSURE_RATING.values():

@@ -34,12 +34,12 @@ BASE = example_dict("sample-stage-thermoelectric")
 DESIGN = design_from_dict(BASE)
 RESULT = solve(DESIGN)
 # a weak heat path: little water through a thick, poor interface, so the turning point lies below I_max
-WEAK = modified(BASE, coolant__flow="0.3 L/min", module__current="6 A", interface__conductivity="0.3 W/(m*K)",
+WEAK = modified(BASE, coolant__flow="0.3 L/min", module__current="5.6 A", interface__conductivity="0.3 W/(m*K)",
                 interface__thickness="0.5 mm")
 
 
 def luo(I_max, V_max, dT_max, T_h):
-    """Luo (2008, Electronics Cooling), typed out again (shared/reference-values.md)."""
+    """Luo (2008, Electronics Cooling), typed out again (VALIDATION.md)."""
     return V_max / T_h, (T_h - dT_max) * V_max / (T_h * I_max), (T_h - dT_max) * V_max * I_max / (2 * T_h * dT_max)
 
 

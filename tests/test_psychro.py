@@ -21,7 +21,7 @@ K0 = 273.15
 
 @pytest.mark.parametrize("T_c, p_ref", [(25.0, 3169.7), (50.0, 12351.3)])
 def test_saturation_pressure_ashrae_table(T_c, p_ref):
-    # source: published, ASHRAE Handbook Fundamentals 2017 ch. 1 (reference-values.md);
+    # source: published, ASHRAE Handbook Fundamentals 2017 ch. 1 (VALIDATION.md);
     # the table comes from IAPWS-95, eq. 6 reproduces it within about 0.02 %
     assert psychro.p_sat_water_HylandWexler(T_c + K0) == pytest.approx(p_ref, rel=3e-4)
 
@@ -51,7 +51,7 @@ def test_saturation_against_psychrolib():
 @pytest.mark.parametrize("T_c, RH, Td_c", [
     (25.0, 0.50, 13.86), (20.0, 0.60, 12.01), (30.0, 0.70, 23.93), (25.0, 0.80, 21.31)])
 def test_dew_point_reference_values(T_c, RH, Td_c):
-    # source: library, reference-values.md "Dew point" (ASHRAE psychrometrics;
+    # source: library, VALIDATION.md "Dew point" (ASHRAE psychrometrics;
     # 25 °C / 80 % is psychrolib's own example)
     assert psychro.dew_point(T_c + K0, RH) - K0 == pytest.approx(Td_c, abs=0.006)
     assert psychro.condensation_point(T_c + K0, RH) == psychro.dew_point(T_c + K0, RH)

@@ -16,7 +16,7 @@ import pint
 import pytest
 
 from coldplate.cli import main
-from coldplate.plate.curves import fit_compact, flow_curve
+from coldplate.plate.curves import fit_flow_curves, flow_curve
 from coldplate.design.reader import load_design
 from coldplate.findings.base import DEFER
 from coldplate.check import check_file
@@ -346,7 +346,7 @@ def test_bad_design_writes_nothing(tmp_path, capsys):
 def test_curves_export(tmp_path, capsys):
     d = load_design(EXAMPLES[0])
     curve = flow_curve(d)
-    fit = fit_compact(curve)
+    fit = fit_flow_curves(curve)
     assert main(["curves", str(EXAMPLES[0])]) == 0
     rows = list(csv.DictReader(io.StringIO(capsys.readouterr().out)))
     assert len(rows) == len(curve.V_dot)

@@ -14,7 +14,7 @@ import re
 import numpy as np
 import pytest
 
-from coldplate.plate.curves import fit_compact, flow_curve, mounting_face_profile
+from coldplate.plate.curves import fit_flow_curves, flow_curve, mounting_face_profile
 from coldplate.check import check_file
 from coldplate.supply.result import Breakeven, CircuitResult, PlanningResult, PumpCurve, SystemCurve, UseCurve
 from coldplate.modules.result import ModuleResult, ModuleSweep
@@ -85,7 +85,7 @@ def built():
     r = check_file(ROOT / "examples" / "reagent-block-channels.toml")
     curve = flow_curve(r.design)
     full = With(r, module=module_demo(r.T_dew), circuit=circuit_demo(curve), planning=planning_demo(curve))
-    rep = make_report(full, curve, fit_compact(curve), mounting_face_profile(r), version="test",
+    rep = make_report(full, curve, fit_flow_curves(curve), mounting_face_profile(r), version="test",
                       source_name="demo.toml", source_bytes=b"title = 'demo'\n")
     return full, rep
 
@@ -147,7 +147,7 @@ def test_flow_drive_without_pump_and_no_cost(built):
     flow_driven = dataclasses.replace(c, drive="flow", supply_pressure=None, pump=None)
     plan = dataclasses.replace(planning_demo(curve, cost=None, currency=None), V_dot_min=math.inf,
                                binding="unreachable", T_face_at_min=None, T_out_at_min=None, breakeven=None)
-    rep = make_report(With(r, circuit=flow_driven, planning=plan, module=None), curve, fit_compact(curve),
+    rep = make_report(With(r, circuit=flow_driven, planning=plan, module=None), curve, fit_flow_curves(curve),
                       mounting_face_profile(r))
     page = parse(render_html(rep))
     assert "circuit" in page.sections and "module" not in page.sections

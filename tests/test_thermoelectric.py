@@ -1,7 +1,7 @@
 """The standard thermoelectric module model against outside references.
 
 Sources, named beside each check:
-- *computed* check values of shared/reference-values.md ("Thermoelectric module (standard model)"):
+- *computed* check values of VALIDATION.md ("Thermoelectric module (standard model)"):
   Luo (2008, Electronics Cooling) derivation of S, R, K from datasheet maxima, and the model at one point.
 - *published* classic ideal-module results (Ioffe 1957, "Semiconductor Thermoelements and Thermoelectric
   Cooling"; also Rowe, CRC Handbook of Thermoelectrics 1995), recalled *from memory*: with a perfect heat
@@ -20,12 +20,12 @@ import pytest
 
 from coldplate.modules import model as te
 
-# shared/reference-values.md, "Thermoelectric module (standard model)", label: computed
+# VALIDATION.md, "Thermoelectric module (standard model)", label: computed
 TH, DTMAX, IMAX, VMAX = 300.0, 70.0, 6.0, 15.0
 
 
 def test_luo_parameters_reference_values():
-    # computed (shared/reference-values.md): S = 0.05 V/K, R = 1.91667 ohm, K = 0.492857 W/K
+    # computed (VALIDATION.md): S = 0.05 V/K, R = 1.91667 ohm, K = 0.492857 W/K
     S, R, K = te.luo_parameters(IMAX, VMAX, DTMAX, TH)
     assert S == pytest.approx(0.05, rel=1e-9)
     assert R == pytest.approx(1.91667, rel=1e-5)
@@ -33,7 +33,7 @@ def test_luo_parameters_reference_values():
 
 
 def test_model_at_one_point_reference_values():
-    # computed (shared/reference-values.md): I = 4 A, Tc = 290 K, Th = 300 K
+    # computed (VALIDATION.md): I = 4 A, Tc = 290 K, Th = 300 K
     S, R, K = te.luo_parameters(IMAX, VMAX, DTMAX, TH)
     Qc = te.cold_side_heat(S, R, K, 4.0, 290.0, 300.0)
     V = te.module_voltage(S, R, 4.0, 290.0, 300.0)
@@ -47,8 +47,9 @@ def test_model_at_one_point_reference_values():
 @pytest.mark.parametrize("I_max,V_max,dT_max,T_h", [(IMAX, VMAX, DTMAX, TH), (3.9, 16.1, 72.0, 323.15),
                                                      (8.5, 24.6, 66.0, 298.15), (1.2, 3.8, 60.0, 350.0)])
 def test_module_reproduces_its_datasheet(I_max, V_max, dT_max, T_h):
-    """The derived module gives back its own maxima at the rated hot side (computed, shared reference values:
-    'at (Imax, dTmax) Qc = 0 and V = Vmax exactly'; the dT_max and its current by brute-force search)."""
+    """The derived module gives back its own maxima at the rated hot side (computed, VALIDATION.md
+    "Thermoelectric module (standard model)": 'at (Imax, dTmax) Qc = 0 and V = Vmax exactly'; the dT_max and
+    its current by brute-force search)."""
     S, R, K = te.luo_parameters(I_max, V_max, dT_max, T_h)
     T_c = T_h - dT_max
     assert te.cold_side_heat(S, R, K, I_max, T_c, T_h) == pytest.approx(0.0, abs=1e-9)

@@ -1,16 +1,22 @@
-"""The plate as a lumped part: thermal resistance and pressure drop against flow, and a compact fit.
+"""The plate as a lumped part: thermal resistance and pressure drop against flow, and fitted flow curves.
 
 Every point comes from :func:`coldplate.solve.solve_plate` at the design's load, so the curves run through
 the same chain as the design check.  A flow small enough to make the coolant boil (or leave its property
 data) raises :class:`DesignError` in the solve, and a solve that does not settle raises :class:`SolveError`;
 such points are skipped and listed, with the reason, in ``FlowCurve.skipped``.
 
-Compact form, fitted by least squares on relative errors (each point weighs the same whatever its size):
+Fitted flow curves: two short formulas that a system model or a spreadsheet can evaluate at any flow inside
+the fitted range instead of running the solve.  Both are fitted by least squares on relative errors (each point
+weighs the same whatever its size):
 
 * pressure drop  dp = a·V + b·V²   [Pa], V in [m^3/s]: the laminar (friction) and inertial (entry, exit,
   bends, turbulent friction) parts of a duct's loss; a and b are kept non-negative;
-* thermal resistance  R = R0 + c·V^(−n)   [K/W]: R0 the flow-independent conduction and interface part,
-  c·V^(−n) the convection and coolant-rise part (n between 0 and 1.5).
+* thermal resistance  R = R0 + c·V^(−n)   [K/W]: R0 is the part no flow can remove, computed, not fitted
+  (:func:`flow_independent_resistance`: the interface, the base, the back side's conduction and the spreading
+  with the wetted walls at an unlimited heat transfer coefficient); c·V^(−n) is the convection and
+  coolant-rise part (c >= 0, n between 0 and 1.5).  A free three-constant fit can put R0 below that part
+  (even at 0) and move it with the flow range; holding R0 at it keeps the formula from promising, outside the
+  fitted range, a resistance lower than the plate allows, and R0 the same whatever range is fitted.
 
 The largest relative error of each fit over the fitted points is reported beside it.
 """
@@ -26,9 +32,12 @@ from coldplate.design.errors import DesignError, SolveError
 #: Default span of a flow curve around the design flow (factors), and its number of points.
 DEFAULT_SPAN = (0.25, 4.0)
 DEFAULT_POINTS = 25
-#: The compact form has three constants for R; fewer valid points cannot be fitted.
+#: Each fitted curve has two free constants; with fewer than four points its error says nothing.
 MIN_POINTS = 4
 N_BOUNDS = (0.0, 1.5)
+#: A wetted-wall heat transfer coefficient standing for an unlimited flow [W/(m^2 K)].  Finite, so the
+#: resistance it leaves is a hair above the true limit (about 1e-12 K/W here): the cautious side.
+H_UNLIMITED = 1.0e12
 
 
 @dataclass(frozen=True)
@@ -46,15 +55,16 @@ class FlowCurve:
     design_R_th: float  #: [K/W]
     design_dp: float  #: [Pa]
     skipped: tuple[tuple[float, str], ...]  #: flows left out [m^3/s] and why
+    R_flow_independent: float  #: the part of R_th no flow removes (:func:`flow_independent_resistance`) [K/W]
 
 
 @dataclass(frozen=True)
-class CompactFit:
-    """dp = a·V + b·V² and R = R0 + c·V^(−n) (SI: V in m^3/s, dp in Pa, R in K/W)."""
+class FittedCurves:
+    """The fitted flow curves dp = a·V + b·V² and R = R0 + c·V^(−n) (SI: V in m^3/s, dp in Pa, R in K/W)."""
 
     a: float  #: [Pa s/m^3]
     b: float  #: [Pa s^2/m^6]
-    R0: float  #: [K/W]
+    R0: float  #: the flow-independent part, not fitted [K/W]
     c: float  #: [K/W (m^3/s)^n]
     n: float  #: [-]
     dp_max_error: float  #: largest relative error of the dp fit over the fitted points [-]
@@ -69,6 +79,30 @@ class CompactFit:
     def R_th(self, V):
         V = np.asarray(V, dtype=float)
         return self.R0 + self.c * V ** (-self.n)
+
+
+def flow_independent_resistance(design) -> float:
+    """The part of the plate's resistance that no flow removes [K/W]: the limit of R_th as the flow grows.
+
+    R_int + θ_centre(h_eff,∞), with θ_centre the Muzychka-Culham-Yovanovich spreading series'
+    rise at the source centre (:func:`coldplate.plate.conduction.spreading_MCY`, which includes the
+    one-dimensional base t/(k A)) and h_eff,∞ = 1 / (A_plate R_back,∞), R_back,∞ the passage's back side
+    (its own ``back_side``) with the wetted walls at :data:`H_UNLIMITED`: the conduction parts (tube wall,
+    bond, plate between passes) stay and convection vanishes.  The coolant's temperature rise vanishes too.
+    At every finite flow h_eff is lower and the coolant rises, so every solved R_th lies above this value.
+    """
+    from coldplate.plate import conduction
+    from coldplate.plate.passages import PASSAGES
+
+    d = design
+    module = PASSAGES[d.passage.kind]
+    geom = module.geometry(d.passage, d.plate)
+    R_back = module.back_side(d.passage, d.plate, geom, H_UNLIMITED).total
+    h_eff = 1.0 / (d.plate.length * d.plate.width * R_back)
+    spread = conduction.spreading_MCY(d.plate.length, d.plate.width, d.heat.footprint_length,
+                                      d.heat.footprint_width, d.plate.base, d.plate.conductivity, h_eff)
+    R_int = conduction.R_interface(d.interface.resistance_area, d.heat.footprint_length * d.heat.footprint_width)
+    return float(R_int + spread.R_centroid)
 
 
 def default_flows(flow: float, span=DEFAULT_SPAN, points: int = DEFAULT_POINTS) -> tuple[float, ...]:
@@ -114,7 +148,8 @@ def flow_curve(design, flows=None, load: float | None = None, flow: float | None
     cols = list(zip(*rows))
     return FlowCurve(V_dot=tuple(cols[0]), R_th=tuple(cols[1]), dp=tuple(cols[2]), T_face=tuple(cols[3]),
                      T_out=tuple(cols[4]), water_m3_per_year=tuple(cols[5]), load=here.load,
-                     design_V_dot=here.V_dot, design_R_th=here.R_th, design_dp=here.dp, skipped=tuple(skipped))
+                     design_V_dot=here.V_dot, design_R_th=here.R_th, design_dp=here.dp, skipped=tuple(skipped),
+                     R_flow_independent=flow_independent_resistance(design))
 
 
 def _nonnegative_pair(columns, y):
@@ -139,13 +174,42 @@ def _nonnegative_pair(columns, y):
     return best
 
 
-def _fit_R_given_n(V, R, n):
-    """R = R0 + c V^-n at fixed n (R0, c >= 0)."""
-    return _nonnegative_pair([np.ones_like(V), V ** (-n)], R)
+def _fit_R_given_n(V, R, R0, n):
+    """R = R0 + c V^-n at fixed R0 and n, c >= 0, least squares on relative residuals: (c, sum of squares)."""
+    x = V ** (-n) / R
+    rhs = 1.0 - R0 / R
+    c = max(float(x @ rhs) / float(x @ x), 0.0)
+    res = c * x - rhs
+    return c, float(res @ res)
 
 
-def fit_compact(curve: FlowCurve) -> CompactFit:
-    """Fit the compact form to a flow curve; raises DesignError with fewer than MIN_POINTS points."""
+def _best_n(V, R, R0):
+    """n in N_BOUNDS minimising the R fit's squares: a scan of 31 values, then golden sections in the best
+    scan interval (so a second local minimum elsewhere cannot trap the search)."""
+    grid = np.linspace(*N_BOUNDS, 31)
+    ss = [_fit_R_given_n(V, R, R0, n)[1] for n in grid]
+    i = int(np.argmin(ss))
+    lo, hi = grid[max(i - 1, 0)], grid[min(i + 1, len(grid) - 1)]
+    g = (math.sqrt(5.0) - 1.0) / 2.0
+    x1, x2 = hi - g * (hi - lo), lo + g * (hi - lo)
+    f1, f2 = _fit_R_given_n(V, R, R0, x1)[1], _fit_R_given_n(V, R, R0, x2)[1]
+    for _ in range(50):
+        if f1 < f2:
+            hi, x2, f2 = x2, x1, f1
+            x1 = hi - g * (hi - lo)
+            f1 = _fit_R_given_n(V, R, R0, x1)[1]
+        else:
+            lo, x1, f1 = x1, x2, f2
+            x2 = lo + g * (hi - lo)
+            f2 = _fit_R_given_n(V, R, R0, x2)[1]
+    return 0.5 * (lo + hi)
+
+
+def fit_flow_curves(curve: FlowCurve) -> FittedCurves:
+    """Fit the flow curves' two formulas; raises DesignError with fewer than MIN_POINTS points.
+
+    R0 is the curve's ``R_flow_independent`` (computed, see the module's note); a, b, c and n are fitted.
+    """
     V = np.asarray(curve.V_dot, dtype=float)
     if len(V) < MIN_POINTS:
         raise DesignError("flows", f"at least {MIN_POINTS} solvable flows are needed for the fit, got {len(V)}")
@@ -153,25 +217,12 @@ def fit_compact(curve: FlowCurve) -> CompactFit:
     R = np.asarray(curve.R_th, dtype=float)
     (a, b), _ = _nonnegative_pair([V, V**2], dp)
     dp_err = float(np.max(np.abs((a * V + b * V**2) / dp - 1.0)))
-    # n: golden-section search on the sum of squares (one minimum in practice), then the linear pair.
-    lo, hi = N_BOUNDS
-    g = (math.sqrt(5.0) - 1.0) / 2.0
-    x1, x2 = hi - g * (hi - lo), lo + g * (hi - lo)
-    f1, f2 = _fit_R_given_n(V, R, x1)[1], _fit_R_given_n(V, R, x2)[1]
-    for _ in range(60):
-        if f1 < f2:
-            hi, x2, f2 = x2, x1, f1
-            x1 = hi - g * (hi - lo)
-            f1 = _fit_R_given_n(V, R, x1)[1]
-        else:
-            lo, x1, f1 = x1, x2, f2
-            x2 = lo + g * (hi - lo)
-            f2 = _fit_R_given_n(V, R, x2)[1]
-    n = 0.5 * (lo + hi)
-    (R0, c), _ = _fit_R_given_n(V, R, n)
+    R0 = float(curve.R_flow_independent)
+    n = _best_n(V, R, R0)
+    c, _ = _fit_R_given_n(V, R, R0, n)
     R_err = float(np.max(np.abs((R0 + c * V ** (-n)) / R - 1.0)))
-    return CompactFit(a=float(a), b=float(b), R0=float(R0), c=float(c), n=float(n), dp_max_error=dp_err,
-                      R_max_error=R_err, V_min=float(V.min()), V_max=float(V.max()))
+    return FittedCurves(a=float(a), b=float(b), R0=R0, c=float(c), n=float(n), dp_max_error=dp_err,
+                        R_max_error=R_err, V_min=float(V.min()), V_max=float(V.max()))
 
 
 def mounting_face_profile(result) -> tuple[tuple[float, ...], tuple[float, ...]]:
