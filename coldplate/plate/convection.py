@@ -22,7 +22,7 @@ from hydraulics.ducts import (
     sqrtA_over_Dh,
     transition_weight,
 )
-from hydraulics.friction import f_Petukhov, f_turbulent_heat_transfer
+from hydraulics.friction import f_turbulent_heat_transfer
 from hydraulics.validity import Bound, Validity, with_validity
 
 INF = math.inf
@@ -57,26 +57,6 @@ def Nu_Dittus_Boelter(Re, Pr, heating=True):
     """
     n = 0.4 if heating else 0.3
     return _out(0.023 * np.asarray(Re, dtype=float) ** 0.8 * np.asarray(Pr, dtype=float) ** n)
-
-
-@with_validity(Validity(
-    method="Gnielinski",
-    reference=(
-        "Gnielinski, V. (1976) New equations for heat and mass transfer in turbulent pipe "
-        "and channel flow, Int. Chem. Eng. 16(2):359-368"
-    ),
-    bounds=(Bound("Re", 3000.0, 5.0e6), Bound("Pr", 0.5, 2000.0)),
-))
-def Nu_Gnielinski(Re, Pr, f=None):
-    """Turbulent Nusselt number of Gnielinski [-].
-
-    Nu = (f/8)(Re - 1000) Pr / [1 + 12.7 (f/8)^(1/2) (Pr^(2/3) - 1)],
-    f the Darcy friction factor [-] (Petukhov smooth-tube value when None).
-    """
-    Re = np.asarray(Re, dtype=float)
-    Pr = np.asarray(Pr, dtype=float)
-    f8 = np.asarray(f_Petukhov(Re) if f is None else f, dtype=float) / 8.0
-    return _out(f8 * (Re - 1000.0) * Pr / (1.0 + 12.7 * np.sqrt(f8) * (Pr ** (2.0 / 3.0) - 1.0)))
 
 
 @with_validity(Validity(
