@@ -66,9 +66,10 @@ def f_Colebrook(Re, rel_roughness):
     machine precision (the same steps as ``fluids.friction.Clamond``, written
     with numpy so that a whole array of candidates is solved at once; the
     tests check it against ``fluids.friction.Clamond`` and ``Colebrook``).
-    With X1 = (e/D) Re ln10/18.574, X2 = ln Re - ln(ln10/5.02), F0 = X2 - 0.2::
+    With X1 = (e/D) Re ln10/18.574, X2 = ln(Re ln10/5.02) = ln Re - ln(5.02/ln10),
+    F0 = X2 - 0.2, two steps of::
 
-        E  = (ln(X1 + F) + F - X2) / (1 + X1 + F)       (F = 0.2 in the first step's log term)
+        E  = (ln(X1 + F) + F - X2) / (1 + X1 + F)       (in the first step F - X2 = -0.2)
         F <- F - (1 + X1 + F + E/2) E (X1 + F) / (1 + X1 + F + E (1 + E/3))
         f  = (ln10 / 2)^2 / F^2
     """
@@ -86,6 +87,39 @@ def f_Colebrook(Re, rel_roughness):
     E = (np.log(X1F) + F - X2) / X1F1
     F = F - (X1F1 + 0.5 * E) * E * X1F / (X1F1 + E * (1.0 + E / 3.0))
     return _out(1.325474527619599502640416597148504422899 / (F * F))
+
+
+KONAKOV = Validity(
+    method="Konakov",
+    reference=(
+        "Konakov, P.K. (1946), smooth-tube friction in the form Gnielinski uses in the VDI Heat Atlas, "
+        "2nd ed. (2010), chapter G1, and in Gnielinski (2013) On heat transfer in tubes, Int. J. Heat Mass "
+        "Transfer 63:134-140 (form and range from memory)"
+    ),
+    bounds=(Bound("Re", 1.0e4, 1.0e6, "smooth tube, fully turbulent"),),
+)
+
+
+@with_validity(KONAKOV)
+def f_Konakov(Re):
+    """Darcy friction factor of a smooth tube, f = (1.8 log10 Re - 1.5)^-2 [-], Re [-] on the diameter.
+
+    The friction factor inside Gnielinski's VDI Heat Atlas form of the turbulent Nusselt number.
+    """
+    Re = np.asarray(Re, dtype=float)
+    return _out((1.8 * np.log10(Re) - 1.5) ** -2)
+
+
+def f_turbulent_heat_transfer(Re, rel_roughness):
+    """The Darcy friction factor Gnielinski's Nusselt number takes [-].
+
+    Smooth walls (every rel_roughness == 0): :func:`f_Konakov`, the factor of Gnielinski's own form;
+    rough walls: :func:`f_Colebrook` at e/D_h, as Gnielinski proposes for rough tubes (from memory).  Re and
+    rel_roughness floats or numpy arrays.
+    """
+    if np.all(np.asarray(rel_roughness) == 0.0):
+        return f_Konakov(Re)
+    return f_Colebrook(Re, rel_roughness)
 
 
 @dataclass(frozen=True)

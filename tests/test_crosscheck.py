@@ -1,7 +1,8 @@
 """The solved design against independent hand calculations built from outside libraries.
 
 The solve's own correlation code does not call these library functions, so they are independent references:
-- ht.conv_internal.turbulent_Gnielinski (Gnielinski 1976) and ht.conv_internal.turbulent_Dittus_Boelter;
+- Gnielinski's VDI Heat Atlas (G1) form written out here with fluids.friction.Colebrook's friction factor,
+  and ht.conv_internal.turbulent_Dittus_Boelter;
 - fluids.friction.Colebrook (our code solves Colebrook with fluids' Clamond routine);
 - iapws.IAPWS95 for water properties (our code uses CoolProp's IF97 backend).
 """
@@ -11,7 +12,7 @@ import math
 
 import pytest
 from fluids.friction import Colebrook
-from ht.conv_internal import turbulent_Dittus_Boelter, turbulent_Gnielinski
+from ht.conv_internal import turbulent_Dittus_Boelter
 from iapws import IAPWS95
 
 from coldplate.design.reader import design_from_dict
@@ -32,7 +33,7 @@ def turbulent_tube():
     return solve(d)
 
 
-def test_turbulent_tube_reynolds_and_h_against_ht_gnielinski(turbulent_tube):
+def test_turbulent_tube_reynolds_and_h_against_gnielinski_vdi(turbulent_tube):
     r = turbulent_tube
     assert r.regime == "turbulent"
     rho, mu, cp, k = _props(r.props.T, r.line_pressure)
@@ -41,9 +42,13 @@ def test_turbulent_tube_reynolds_and_h_against_ht_gnielinski(turbulent_tube):
     Re = rho * V * D / mu
     Pr = cp * mu / k
     assert r.Re == pytest.approx(Re, rel=2e-3)
-    fd = (0.790 * math.log(Re) - 1.64) ** -2  # Petukhov (1970), as Gnielinski recommends
-    h_ref = turbulent_Gnielinski(Re=Re, Pr=Pr, fd=fd) * k / D
-    assert r.h == pytest.approx(h_ref, rel=5e-3)
+    # published: Gnielinski, VDI Heat Atlas 2010 ch. G1 (from memory), Nu = (f/8) Re Pr / [1 + 12.7
+    # (f/8)^(1/2) (Pr^(2/3) - 1)] [1 + (D/L)^(2/3)], L the heated length; the drawn copper tube's
+    # roughness gives the rough-wall friction factor (library: fluids.friction.Colebrook)
+    fd = Colebrook(Re, r.geometry.roughness / D)
+    LD = r.geometry.heated_length / D
+    nu = (fd / 8) * Re * Pr / (1 + 12.7 * math.sqrt(fd / 8) * (Pr ** (2 / 3) - 1)) * (1 + LD ** (-2 / 3))
+    assert r.h == pytest.approx(nu * k / D, rel=5e-3)
 
 
 def test_turbulent_tube_friction_drop_against_fluids_colebrook(turbulent_tube):

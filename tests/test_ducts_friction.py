@@ -176,6 +176,30 @@ def test_colebrook_against_reference_solution():
     assert f_Colebrook(1e5, 1e-3) == pytest.approx(0.0222, abs=3e-4)
 
 
+def _clamond_as_documented(Re, eD, X2):
+    """Clamond's (2009) two steps as f_Colebrook's docstring writes them, in plain floats."""
+    X1 = eD * Re * math.log(10) / 18.574
+    F = X2 - 0.2
+    for _ in range(2):
+        E = (math.log(X1 + F) + F - X2) / (1 + X1 + F)
+        F = F - (1 + X1 + F + E / 2) * E * (X1 + F) / (1 + X1 + F + E * (1 + E / 3))
+    return (math.log(10) / 2) ** 2 / F**2
+
+
+@pytest.mark.filterwarnings("ignore:overflow encountered:RuntimeWarning")  # inside the reference library
+def test_colebrook_docstring_states_clamonds_x2():
+    # published: Clamond (2009) Ind. Eng. Chem. Res. 48:3665, X2 = ln(Re ln10 / 5.02) (from memory); the
+    # documented steps with it reproduce the Colebrook solution (library: fluids.friction.Colebrook), while
+    # ln Re - ln(ln10/5.02) (the sign of the logarithm flipped) does not
+    doc = " ".join(f_Colebrook.__doc__.split())
+    assert "X2 = ln(Re ln10/5.02)" in doc
+    for Re, eD in ((5e3, 1e-3), (1e5, 0.0), (1e7, 1e-2)):
+        ref = ff.Colebrook(Re, eD)
+        assert _clamond_as_documented(Re, eD, math.log(Re * math.log(10) / 5.02)) == pytest.approx(ref, rel=1e-9)
+        wrong = _clamond_as_documented(Re, eD, math.log(Re) - math.log(math.log(10) / 5.02))
+        assert abs(wrong / ref - 1) > 1e-3
+
+
 # ----------------------------------------------------------------- blended friction
 
 

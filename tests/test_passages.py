@@ -59,3 +59,24 @@ def test_contraction_and_exit_are_in_published_bands():
     assert 0.4 < K_sudden_contraction(1.0, 0.01) < 0.6
     assert K_sudden_contraction(1.0, 0.95) < 0.1
     assert K_exit() == 1.0
+
+
+def _eta_adiabatic_tip(h, k, thickness, height, wetted_faces):
+    """published: Incropera, DeWitt, Bergman & Lavine (2007) sec. 3.6, fin of uniform cross-section with an
+    adiabatic tip: eta = tanh(mL)/(mL), m = sqrt(h P / (k A_c)); per unit length P = the wetted faces, A_c = t."""
+    m = math.sqrt(h * wetted_faces / (k * thickness))
+    return math.tanh(m * height) / (m * height)
+
+
+@pytest.mark.parametrize("count", [1, 2, 12])
+def test_channel_outer_walls_are_wetted_on_one_face(count):
+    from coldplate.plate.passages import channels
+    w, d, L, t, k, h = 0.002, 0.006, 0.068, 0.0015, 167.0, 6000.0
+    eta_in = _eta_adiabatic_tip(h, k, t, d, wetted_faces=2)
+    eta_out = _eta_adiabatic_tip(h, k, t, d, wetted_faces=1)
+    # n channels have 2n side faces: 2(n - 1) on the walls between channels, 2 on the two outer walls
+    expect = L * (count * w + d * (2 * (count - 1) * eta_in + 2 * eta_out))
+    wetted, effective, m, eta = channels.fin_areas(count, w, d, L, t, k, h)
+    assert effective == pytest.approx(expect, rel=1e-12)
+    assert wetted == pytest.approx(count * L * (w + 2 * d), rel=1e-12)
+    assert eta == pytest.approx(eta_in, rel=1e-12) and eta_out > eta_in

@@ -6,7 +6,8 @@
    guards the parts that differ (tabulated properties, tabulated spreading, array plumbing).
 2. The tabulated spreading and march against the series itself (computed).
 3. An outside reference: a plate whose footprint covers it (no spreading, a 1-D problem) in turbulent flow,
-   against ht.conv_internal.turbulent_Gnielinski, fluids.friction.Colebrook and IAPWS-95 water from the
+   against Gnielinski's VDI Heat Atlas form written out in the test with fluids.friction.Colebrook's
+   friction factor, and IAPWS-95 water from the
    iapws package (library: none of these functions is called by the code under test) and the plane-wall and
    straight-fin formulas (published: Incropera et al. 2007, secs. 3.1 and 3.6).
 """
@@ -18,7 +19,6 @@ import math
 import numpy as np
 import pytest
 from fluids.friction import Colebrook
-from ht.conv_internal import turbulent_Gnielinski
 from iapws import IAPWS95
 
 from coldplate.design.reader import design_from_dict
@@ -151,15 +151,21 @@ def test_one_dimensional_turbulent_plate_against_outside_references():
     Re = rho * V * D_h / mu
     L = d.plate.length - 2 * d.passage.plenum_length
     fd = Colebrook(Re, d.passage.roughness / D_h)  # library: fluids.friction.Colebrook (Lambert W form)
-    # the heat-transfer side takes the smooth-tube friction of Petukhov (published: Petukhov 1970), as the solve does
-    Nu = turbulent_Gnielinski(Re, cp * mu / k_w, (0.790 * math.log(Re) - 1.64) ** -2)  # library: ht
+    # published: Gnielinski, VDI Heat Atlas 2010 ch. G1 (from memory), with the rough-wall friction factor
+    # (fd above) and the length factor [1 + (D_h/L)^(2/3)]
+    Pr = cp * mu / k_w
+    Nu = (fd / 8) * Re * Pr / (1 + 12.7 * math.sqrt(fd / 8) * (Pr ** (2 / 3) - 1)) * (1 + (D_h / L) ** (2 / 3))
     h = Nu * k_w / D_h
     k = d.plate.conductivity
     wall = (d.plate.width - n * wch) / (n + 1)
-    m = math.sqrt(2 * h / (k * wall))
-    eta = math.tanh(m * dep) / (m * dep)  # published: straight fin, adiabatic tip (Incropera sec. 3.6)
+
+    def eta(wetted_faces):  # published: straight fin, adiabatic tip (Incropera sec. 3.6), m = sqrt(h P/(k A_c))
+        m = math.sqrt(wetted_faces * h / (k * wall))
+        return math.tanh(m * dep) / (m * dep)
+
     A = d.plate.length * d.plate.width
-    R_below = 1.0 / (h * n * L * (wch + 2 * dep * eta))
+    # the n - 1 inner walls wetted on both faces, the two outer walls on one
+    R_below = 1.0 / (h * L * (n * wch + 2 * dep * ((n - 1) * eta(2) + eta(1))))
     R_ref = (T_out - T_in) / Q + d.plate.base / (k * A) + R_below + d.interface.resistance_area / A
     assert e.R_th.item() == pytest.approx(R_ref, rel=3e-3)  # IAPWS-95 vs IF97 and Clamond vs Lambert W
     dp_friction_ref = fd * L / D_h * 0.5 * rho * V**2

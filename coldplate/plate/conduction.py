@@ -94,18 +94,20 @@ STRIP_LATERAL = Validity(
 
 @with_validity(STRIP_LATERAL)
 def R_strip_lateral(half_width, k, thickness, area):
-    """Mean rise of a heated strip conducting sideways to its edge, as a resistance [K/W].
+    """Peak rise of a heated strip conducting sideways to its edge, as a resistance [K/W].
 
     A strip of half-width l [m] (from its adiabatic centre line to the edge that
     is held at the sink temperature), thickness t [m], conductivity k
     [W/(m K)] receives a uniform flux q'' on its face.  The exact profile is
-    T - T_edge = q'' (l² - x²) / (2 k t); its mean is q'' l² / (3 k t).  With
-    the total heated area A [m²] (so Q = q'' A):
+    T - T_edge = q'' (l² - x²) / (2 k t); the hottest point is the centre
+    line, q'' l² / (2 k t) (the mean, q'' l² / (3 k t), would average the
+    hot centre with the cool edges).  With the total heated area A [m²]
+    (so Q = q'' A):
 
-        R = l² / (3 k t A)
+        R = l² / (2 k t A)
     """
     l = np.asarray(half_width, dtype=float)
-    return _out(l**2 / (3.0 * np.asarray(k) * np.asarray(thickness) * np.asarray(area)))
+    return _out(l**2 / (2.0 * np.asarray(k) * np.asarray(thickness) * np.asarray(area)))
 
 
 SPREADING_MCY = Validity(

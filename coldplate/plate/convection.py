@@ -22,7 +22,7 @@ from hydraulics.ducts import (
     sqrtA_over_Dh,
     transition_weight,
 )
-from hydraulics.friction import f_Petukhov
+from hydraulics.friction import f_turbulent_heat_transfer
 from hydraulics.validity import Bound, Validity, with_validity
 
 INF = math.inf
@@ -62,21 +62,31 @@ def Nu_Dittus_Boelter(Re, Pr, heating=True):
 @with_validity(Validity(
     method="Gnielinski",
     reference=(
-        "Gnielinski, V. (1976) New equations for heat and mass transfer in turbulent pipe "
-        "and channel flow, Int. Chem. Eng. 16(2):359-368"
+        "Gnielinski, V., VDI Heat Atlas, 2nd ed. (2010), chapter G1, sec. 4.1 (mean Nu, uniform wall "
+        "temperature, hydrodynamically developed flow), and Gnielinski (2013) On heat transfer in tubes, "
+        "Int. J. Heat Mass Transfer 63:134-140; form and range from memory (this edition writes Re, not "
+        "Re - 1000, and carries the length factor)"
     ),
-    bounds=(Bound("Re", 3000.0, 5.0e6), Bound("Pr", 0.5, 2000.0)),
+    bounds=(
+        Bound("Re", 1.0e4, 1.0e6, "fully turbulent; 2300 to 1e4 is the transition blend"),
+        Bound("Pr", 0.1, 1000.0),
+        Bound("L_over_D", 1.0, INF, "D/L <= 1"),
+    ),
 ))
-def Nu_Gnielinski(Re, Pr, f=None):
-    """Turbulent Nusselt number of Gnielinski [-].
+def Nu_Gnielinski_VDI(Re, Pr, L_over_D, f=None):
+    """Mean turbulent Nusselt number of a tube of finite length, Gnielinski's VDI Heat Atlas form [-].
 
-    Nu = (f/8)(Re - 1000) Pr / [1 + 12.7 (f/8)^(1/2) (Pr^(2/3) - 1)],
-    f the Darcy friction factor [-] (Petukhov smooth-tube value when None).
+    Nu = (f/8) Re Pr / [1 + 12.7 (f/8)^(1/2) (Pr^(2/3) - 1)] [1 + (D/L)^(2/3)],
+    f the Darcy friction factor [-]: Konakov's smooth-tube (1.8 log10 Re - 1.5)^-2 when None,
+    the rough-wall Colebrook value for rough walls.  Re, Pr [-], L_over_D = L/D [-]
+    (heated length over the hydraulic diameter; the factor [1 + (D/L)^(2/3)] is the thermal
+    and hydrodynamic entry).
     """
     Re = np.asarray(Re, dtype=float)
     Pr = np.asarray(Pr, dtype=float)
-    f8 = np.asarray(f_Petukhov(Re) if f is None else f, dtype=float) / 8.0
-    return _out(f8 * (Re - 1000.0) * Pr / (1.0 + 12.7 * np.sqrt(f8) * (Pr ** (2.0 / 3.0) - 1.0)))
+    f8 = np.asarray(f_turbulent_heat_transfer(Re, 0.0) if f is None else f, dtype=float) / 8.0
+    entry = 1.0 + np.asarray(L_over_D, dtype=float) ** (-2.0 / 3.0)
+    return _out(f8 * Re * Pr / (1.0 + 12.7 * np.sqrt(f8) * (Pr ** (2.0 / 3.0) - 1.0)) * entry)
 
 
 # ---------------------------------------------------------------- laminar, circular tube
@@ -310,6 +320,8 @@ def Nu_rectangular_Shah_London(alpha, heated="4", condition="H1"):
 # Muzychka & Yovanovich (2004) constants: (C1, C3, Prandtl-function numerator and constant)
 _MY_CONST = {"T": (3.24, 0.409, 0.564, 1.664), "H1": (3.86, 0.501, 0.886, 1.909)}
 _MY_C2_MEAN, _MY_C4_MEAN, _MY_GAMMA = 1.5, 2.0, 0.1
+#: sqrt(A)/D of a circle, sqrt(pi)/2 (geometry).
+_SQRT_A_OVER_D_CIRCLE = math.sqrt(math.pi) / 2.0
 
 
 @with_validity(Validity(
@@ -325,7 +337,7 @@ _MY_C2_MEAN, _MY_C4_MEAN, _MY_GAMMA = 1.5, 2.0, 0.1
         Bound("alpha", 1e-6, 1.0, "short/long side, > 0 for the sqrt(A) scale"),
     ),
 ))
-def Nu_Muzychka_Yovanovich_combined(Re, Pr, L, D_h, alpha, condition="H1", Nu_fd=None):
+def Nu_Muzychka_Yovanovich_combined(Re, Pr, L, D_h, alpha, condition="H1", Nu_fd=None, shape="rectangle"):
     """Mean Nu on D_h, simultaneously developing laminar flow in a rectangular duct [-].
 
     On the sqrt(A) scale, z* = L / (sqrt(A) Re_sqrtA Pr)::
@@ -342,14 +354,23 @@ def Nu_Muzychka_Yovanovich_combined(Re, Pr, L, D_h, alpha, condition="H1", Nu_fd
     :func:`Nu_rectangular_Shah_London` with the heated walls of the channel),
     it replaces the model's own asymptote.  Inputs: Re on D_h, Pr [-], L and
     D_h [m], alpha [-]; r = sqrt(A)/D_h converts: Re_sqrtA = r Re,
-    Nu_Dh = Nu_sqrtA / r.
+    Nu_Dh = Nu_sqrtA / r.  ``shape`` "circle" (a round tube, D_h its
+    diameter, alpha ignored): r = sqrt(pi)/2 and the circle's Fanning
+    f Re = 16 on D, so f Re_sqrtA = 8 sqrt(pi) (the paper's circular duct).
     """
     _check_condition(condition)
     Re = np.asarray(Re, dtype=float)
     Pr = np.asarray(Pr, dtype=float)
-    r = np.asarray(sqrtA_over_Dh(alpha), dtype=float)
+    if shape == "circle":
+        alpha = 1.0
+        r = np.asarray(_SQRT_A_OVER_D_CIRCLE)
+        fRe = r * 16.0
+    elif shape == "rectangle":
+        r = np.asarray(sqrtA_over_Dh(alpha), dtype=float)
+        fRe = r * np.asarray(fRe_rectangular_Shah_London(alpha), dtype=float) / 4.0
+    else:
+        raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
     C1, C3, c0, cpr = _MY_CONST[condition]
-    fRe = r * np.asarray(fRe_rectangular_Shah_London(alpha), dtype=float) / 4.0
     z = np.asarray(L, dtype=float) / (np.asarray(D_h, dtype=float) * r * (r * Re) * Pr)
     m = 2.27 + 1.65 * Pr ** (1.0 / 3.0)
     fPr = c0 / (1.0 + (cpr * Pr ** (1.0 / 6.0)) ** 4.5) ** (2.0 / 9.0)
@@ -373,7 +394,7 @@ LAMINAR_MODELS = {
 }
 #: Turbulent model names -> correlation functions (fixed at import).
 TURBULENT_MODELS = {
-    "gnielinski": Nu_Gnielinski,
+    "gnielinski": Nu_Gnielinski_VDI,
     "dittus-boelter": Nu_Dittus_Boelter,
 }
 
@@ -398,17 +419,16 @@ def _laminar(name, Re, Pr, L, D_h, alpha, shape, heated, mu_ratio, condition):
     if name == "sieder-tate":
         return fn(Re, Pr, L / D_h, mu_ratio), (fn.validity,)
     # Muzychka & Yovanovich with the Shah & London (or circular) developed asymptote;
-    # a circular tube is taken as the square (alpha = 1) of the same D_h.
+    # a circular tube takes the circle's own sqrt(A)/D and f Re.
     nu_fd, v_fd = _fully_developed(shape, alpha, heated, condition)
-    a = 1.0 if shape == "circle" else alpha
-    return fn(Re, Pr, L, D_h, a, condition, Nu_fd=nu_fd), (fn.validity, v_fd)
+    return fn(Re, Pr, L, D_h, alpha, condition, Nu_fd=nu_fd, shape=shape), (fn.validity, v_fd)
 
 
-def _turbulent(name, Re, Pr, f_turbulent):
+def _turbulent(name, Re, Pr, L_over_D, rel_roughness):
+    """Turbulent Nu (Gnielinski's with the friction factor of the wall's roughness)."""
     fn = TURBULENT_MODELS[name]
     if name == "gnielinski":
-        f = None if f_turbulent is None else f_turbulent(Re)
-        return fn(Re, Pr, f)
+        return fn(Re, Pr, L_over_D, f_turbulent_heat_transfer(Re, rel_roughness))
     return fn(Re, Pr, heating=True)
 
 
@@ -428,7 +448,7 @@ class ConvectionResult:
 
 
 def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovich",
-            turbulent="gnielinski", heated="4", mu_ratio=1.0, f_turbulent=None,
+            turbulent="gnielinski", heated="4", mu_ratio=1.0, rel_roughness=0.0,
             condition="H1") -> ConvectionResult:
     """Mean Nusselt number on D_h over a channel of length L, all regimes [-].
 
@@ -436,8 +456,10 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
     Re <= 2300: laminar model ``laminar``; Re >= 1e4: turbulent model
     ``turbulent``; in between Nu = (1 - w) Nu_lam(2300) + w Nu_turb(1e4),
     w = transition_weight(Re) (VDI Heat Atlas G1), continuous at both ends.
-    ``f_turbulent``: optional callable Re -> Darcy f for Gnielinski (e.g. a
-    rough-wall Colebrook); Petukhov when None.  ``heated`` (one of
+    Gnielinski's turbulent value carries the length factor [1 + (D_h/L)^(2/3)]
+    at the anchor Re = 1e4 and above, as the VDI form does, and takes the
+    friction factor of :func:`hydraulics.friction.f_turbulent_heat_transfer`
+    at ``rel_roughness`` = e/D_h [-] (Konakov smooth, Colebrook rough).  ``heated`` (one of
     HEATED_ARRANGEMENTS) and ``condition`` select the fully developed laminar asymptote.  "hausen" and
     "sieder-tate" are uniform-wall-temperature correlations whatever
     ``condition`` says.
@@ -457,8 +479,9 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
     w = np.asarray(transition_weight(Re), dtype=float)
     lam_here, v_lam = _laminar(laminar, np.minimum(Re, RE_LAMINAR_END), *args)
     lam_end, _ = _laminar(laminar, RE_LAMINAR_END, *args)
-    turb_here = _turbulent(turbulent, np.maximum(Re, RE_TURBULENT_START), Pr, f_turbulent)
-    turb_start = _turbulent(turbulent, RE_TURBULENT_START, Pr, f_turbulent)
+    L_over_D = np.asarray(L, dtype=float) / np.asarray(D_h, dtype=float)
+    turb_here = _turbulent(turbulent, np.maximum(Re, RE_TURBULENT_START), Pr, L_over_D, rel_roughness)
+    turb_start = _turbulent(turbulent, RE_TURBULENT_START, Pr, L_over_D, rel_roughness)
     blend = (1.0 - w) * np.asarray(lam_end) + w * np.asarray(turb_start)
     Nu = np.where(Re <= RE_LAMINAR_END, lam_here, np.where(Re >= RE_TURBULENT_START, turb_here, blend))
     regime = np.where(Re <= RE_LAMINAR_END, "laminar",

@@ -176,7 +176,7 @@ def passage_flow(m_dot, pr, total_area, D_h, alpha, shape, path_length, heated_l
     Re = pr.rho * V * D_h / pr.mu
     fr = darcy_friction(Re, path_length, D_h, alpha, shape, rel_roughness)
     cv = nusselt(Re, pr.Pr, heated_length, D_h, alpha, shape=shape, laminar=model.laminar,
-                 turbulent=model.turbulent, heated=heated, mu_ratio=mu_ratio)
+                 turbulent=model.turbulent, heated=heated, mu_ratio=mu_ratio, rel_roughness=rel_roughness)
     h = cv.Nu * pr.k / D_h
     return V, Re, fr, cv, h
 

@@ -3,7 +3,7 @@
 ``count`` channels of ``width`` × ``depth`` share the plate width with ``count + 1``
 walls of equal thickness (the two outer walls included).  The channel floors and
 the two side walls take heat; the walls act as straight fins of height ``depth``
-with an adiabatic tip at the lid (the lid is taken as unheated: a cautious,
+(the two outer walls wetted on one face) with an adiabatic tip at the lid (the lid is taken as unheated: a cautious,
 common-practice assumption).  Flow enters a plenum across the plate, contracts
 into the channels and expands into the outlet plenum; optional round ports feed
 the plenums.
@@ -58,15 +58,22 @@ def geometry(passage, plate) -> Geometry:
 
 
 def fin_areas(count, width, depth, length, wall, k, h):
-    """Wetted and fin-effective heat-transfer areas of a channel field [m^2], the walls' fin parameter m
+    """Wetted and fin-effective heat-transfer areas of a channel field [m^2], the inner walls' fin parameter m
     [1/m] and fin efficiency [-].  Floats or numpy arrays (the sizing search evaluates many fields at once).
 
-    wetted = n L (w + 2 d); effective = n L (w + 2 d eta), eta = tanh(m d)/(m d), m = sqrt(2 h / (k t_wall)).
+    The n - 1 walls between channels are wetted on both faces, m = sqrt(2 h / (k t_wall)); the two outer
+    walls on their inner face only, m_o = sqrt(h / (k t_wall)) (the same fin as half of a wall 2 t_wall
+    thick, wetted on both faces).  eta = tanh(m d)/(m d) for each; m and eta returned are the inner walls'
+    (the lower efficiency)::
+
+        wetted    = n L (w + 2 d)
+        effective = L (n w + 2 d ((n - 1) eta + eta_o))
     """
     m = fin_m(h, k, wall)
     eta = fin_efficiency_straight(m, depth)
+    eta_outer = fin_efficiency_straight(fin_m(h, k, 2 * np.asarray(wall)), depth)
     wetted = count * length * (width + 2 * depth)
-    effective = count * length * (width + 2 * depth * eta)
+    effective = length * (count * width + 2 * depth * ((count - 1) * eta + eta_outer))
     return wetted, effective, m, eta
 
 

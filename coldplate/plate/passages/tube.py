@@ -3,7 +3,7 @@
 The passes run along the plate length, joined by 180-degree return bends of
 centre-line radius ``bend_radius`` (so adjacent passes are ``2·bend_radius``
 apart).  Heat crosses, in series: the plate metal between passes to the groove
-(1-D conduction with a uniform source), the bond over the groove's contact arc,
+(1-D conduction with a uniform source, its peak rise mid-strip), the bond over the groove's contact arc,
 the tube wall, and convection inside the tube, where the unbonded half of the
 tube takes heat through the wall acting as a curved fin.  The groove is taken to hold half
 the tube's circumference (common practice for a half-round groove).
@@ -69,10 +69,11 @@ def conduction_parts(passage, plate, geom: Geometry) -> tuple[tuple[str, float],
     L = geom.heated_length
     do, di = passage.outer_diameter, passage.inner_diameter
     area_plate = plate.length * plate.width
-    # The plate between and beside the passes: the area mean of the 1-D strip rises, each strip weighted by
-    # its share of the width (the plate over a groove has no lateral rise).
-    r_lat = sum(w / plate.width * float(R_strip_lateral(l, plate.conductivity, plate.base, area_plate))
-                for w, l in strips(passage, plate))
+    # The plate between and beside the passes: the hottest point of a strip is its centre line (its outer edge
+    # for a strip beside the outer passes), l^2/(2 k t) per unit of heat per area.  Which strip lies under the
+    # hot spot is not known here, so the strip with the longest conduction length is taken (cautious).
+    r_lat = max((float(R_strip_lateral(l, plate.conductivity, plate.base, area_plate))
+                 for _, l in strips(passage, plate)), default=0.0)
     r_bond = materials.bond(passage.bond).value / (CONTACT_ARC * math.pi * do * L)
     k_tube = materials.material(passage.material).conductivity
     r_wall = float(R_cylinder_wall(di, do, k_tube, L, CONTACT_ARC))
