@@ -12,7 +12,8 @@ from hydraulics.circuit import Backflow
 from coldplate.plate import materials
 from coldplate.supply.reader import BACKFLOW_DEVICES
 from coldplate.supply.operating import FLOW_MAX
-from coldplate.findings.base import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, degc
+from coldplate.findings.base import (AIR_GAP_MIN, DEFER, back_pressure_causes, continuous_causes, degc,
+                                     protection_choice)
 from coldplate.findings.base import Finding
 
 #: Height of an atmospheric vacuum breaker above the highest downstream point [m]: 6 in (152 mm) in common US
@@ -90,19 +91,20 @@ def backflow_fit(r):
         kind = BACKFLOW_DEVICES[part.device]
         why = []
         if d.coolant.has_additive and not kind.high_hazard:
-            why.append(f"{d.coolant.label()} makes this a high hazard, which a {kind.name} does not cover")
-        if part.device == "atmospheric-vacuum-breaker":
-            if c.can_hold_pressure(i):
-                why.append("a valve or a back pressure after it can hold it under pressure")
-            if d.supply.hours_per_day > AVB_MAX_HOURS:
-                why.append(f"it would stay under pressure {d.supply.hours_per_day:g} h a day (more than "
-                           f"{AVB_MAX_HOURS:g} h)")
+            why.append(f"{d.coolant.label()} makes this a high hazard, which a {kind.name} does not serve "
+                       "(it is for a low hazard only)")
+        back = back_pressure_causes(d)
+        if back and not kind.back_pressure:
+            why.append(f"{'; '.join(back)}: that is back-pressure, and a {kind.name} guards against "
+                       "back-siphonage only")
+        held = continuous_causes(d, i)
+        if held and not kind.continuous:
+            why.append(f"{'; '.join(held)}: a {kind.name} may not stay under continuous pressure")
         if why:
             yield Finding(
                 "backflow-device-unsuitable", "warning",
                 f"The {kind.name} ({kind.standard}) at '{part.name}' does not fit this circuit: {'; '.join(why)}.",
-                "Use a reduced-pressure principle assembly (ASSE 1013) or an air gap for a high hazard, a "
-                "pressure vacuum breaker (ASSE 1020) where the line stays under pressure. " + DEFER)
+                f"Use {protection_choice(d.coolant.has_additive, back, held)}. " + DEFER)
         if r.V_dot > part.flow_rated:
             yield Finding(
                 "backflow-device-size", "caution",
