@@ -201,11 +201,7 @@ def velocity(r):
 
 
 def _rating(d):
-    """The plate's pressure rating [Pa] (gauge) and how it is known, as words."""
-    rating = d.plate.pressure_rating or materials.pressure_rating(d.passage.kind).value
-    given = "its stated rating" if d.plate.pressure_rating else \
-        f"the usual rating of a {d.passage.kind} plate (common practice)"
-    return rating, given
+    return materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
 
 
 def pressure_budget(r):

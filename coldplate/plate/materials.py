@@ -220,3 +220,11 @@ def heat_capacity(key: str | None) -> float:
     if key is None:
         return min(e.value for k, e in HEAT_CAPACITY.items() if k != "silicon")
     return HEAT_CAPACITY[material(key).key].value
+
+
+def plate_rating(stated: float | None, kind: str) -> tuple[float, str]:
+    """The plate's gauge pressure rating [Pa]: the stated one, else the usual one for passage ``kind``; and how
+    it is known, in words for the findings."""
+    if stated:
+        return stated, "its stated rating"
+    return pressure_rating(kind).value, f"the usual rating of a {kind} plate (common practice)"
