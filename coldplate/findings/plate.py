@@ -231,7 +231,8 @@ def pressure_budget(r):
     yield Finding(
         "pressure-budget", "note",
         f"The plate takes {amount(r.dp / 1e3)} kPa at {r.V_dot * 6e4:.3g} L/min: {share}{amount(100 * r.dp / rating)} % of "
-        f"{given} ({rating / 1e5:.1f} bar). The fastest water, {amount(v)} m/s, is in the {where}; {fam} erodes above "
+        f"{given}, {rating / 1e5:.1f} bar. The fastest water, {amount(v)} m/s, is "
+        f"{'in the passage' if where == 'passage' else 'at the ' + where}; {fam} erodes above "
         f"about {limit:g} m/s and water is audible above about {NOISE_V:g} m/s (common practice).",
         "Keep the plate's drop well inside the supply pressure and the rating, and the fastest water below both "
         "velocity limits.")
@@ -325,7 +326,7 @@ def device_limit(d) -> tuple[float, str]:
         return d.supply.face_limit, "the face limit"
     if d.module is not None:
         return d.module.hot_side_limit, "the modules' hot-side limit"
-    return DEVICE_LIMIT_DEFAULT, "85 degC, the usual rating of industrial electronic parts (common practice)"
+    return DEVICE_LIMIT_DEFAULT, "no limit given: the usual top rating of industrial electronic parts, common practice"
 
 
 def plate_heat_capacity(d) -> float:
