@@ -9,6 +9,7 @@ practice where the trade has no single source.
 from __future__ import annotations
 
 import copy
+import json
 import math
 
 import pytest
@@ -18,6 +19,7 @@ from coldplate.cli import main
 from coldplate.design.reader import design_from_dict
 from coldplate.findings.base import DEFER
 from coldplate.plate.solve import solve_plate
+from reports.jsonout import render_json
 
 from .helpers import example_dict, modified, write
 
@@ -115,6 +117,8 @@ def test_no_throttling_advised_without_a_face_limit():
     assert p.face_limit is None and p.face_limit_from == "none" and p.binding == "discharge"
     hot = solve_plate(r.design, p.V_dot_min).T_face_max
     assert hot == pytest.approx(p.T_face_at_min, abs=1e-6) and hot > 358.15  # well above any device's rating
+    data = json.loads(render_json(r))  # the JSON says where the limit came from (a key added, none changed)
+    assert data["planning"]["face_limit_from"] == "none" and data["planning"]["face_limit_C"] is None
     waste = _by_id(r)["water-waste"]
     assert "throttle" not in waste.action.lower() and "face_limit" in waste.action
     assert f"{hot - 273.15:.1f} degC" in waste.message
