@@ -85,7 +85,8 @@ def module_text(m, units: str = "si") -> list[str]:
         ("modules", f"{m.count}", f"wired {wiring}; S {m.parameters[0]:.4g} V/K, R {m.parameters[1]:.4g} ohm, "
                                   f"K {m.parameters[2]:.4g} W/K each"),
         ("current / voltage per module", f"{m.current:.3f} / {m.voltage:.3f}",
-         "A / V" + ("  (set to reach the target cold face)" if m.mode == "target" else "")),
+         "A / V" + ("  (set to reach the target cold face)" if m.mode == "target" and not m.shortfall else
+                   "  (the coldest current: the target cold face is out of reach)" if m.mode == "target" else "")),
         ("supply current / voltage", f"{m.array_current:.3f} / {m.array_voltage:.3f}", "A / V"),
         ("cold face / hot face", f"{_t(m.T_cold):.2f} / {_t(m.T_hot):.2f}",
          f"{deg}  (hot-face limit {_t(m.hot_side_limit):.0f} {deg})"),

@@ -43,6 +43,7 @@ def supply_dict(r) -> dict:
             "planning": {
                 "binding_limit": p.binding,
                 "face_limit_C": None if p.face_limit is None else p.face_limit - 273.15,
+                "face_limit_from": p.face_limit_from,
                 "discharge_limit_C": p.discharge_limit - 273.15,
                 "surface_temperature_at_minimum_C": None if p.T_face_at_min is None else p.T_face_at_min - 273.15,
                 "outlet_temperature_at_minimum_C": None if p.T_out_at_min is None else p.T_out_at_min - 273.15,
@@ -87,6 +88,9 @@ def supply_lines(r, table, units: str = "si") -> list[str]:
     def day(x):
         return (f"{u.value('volume_per_day', x):,.0f}", "gal/day") if us else (f"{x:,.0f}", "L/day")
 
+    def temp(x):
+        return (f"{u.value('temperature', x):.2f}", "degF") if us else (f"{x - 273.15:.2f}", "degC")
+
     def year(x):
         return (f"{u.value('volume_per_year', x):,.1f}", "gal/year") if us else (f"{x:,.1f}", "m³/year")
 
@@ -113,6 +117,11 @@ def supply_lines(r, table, units: str = "si") -> list[str]:
         if math.isfinite(p.V_dot_min):
             v, f_unit = flow(p.V_dot_min)
             rows.append(("least flow meeting the limits", v, f"{f_unit}  (set by the {p.binding})"))
+            t_v, t_u = temp(p.T_face_at_min)
+            note = ("no mounting-face limit given: not a safe flow for the device" if p.face_limit_from == "none"
+                    else f"limit {temp(p.face_limit)[0]} {t_u}" + ("" if p.face_limit_from == "face_limit"
+                                                                  else f", the {p.face_limit_from}"))
+            rows.append(("mounting face at the least flow", t_v, f"{t_u}  ({note})"))
         else:
             rows.append(("least flow meeting the limits", "none", "no flow keeps the mounting face within its limit"))
         (d_v, d_u), (y_v, y_u) = day(p.water_L_per_day), year(p.water_m3_per_year)

@@ -8,8 +8,11 @@ source (a code, a standard, or "common practice").
 """
 from __future__ import annotations
 
+from hydraulics.circuit import Backflow
+
 from coldplate.plate import materials
-from coldplate.findings.base import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, DEW_MARGIN, Finding, degc, slug
+from coldplate.findings.base import (AIR_GAP_MIN, DEFER, DEVICE_LIMIT_DEFAULT, DEW_MARGIN, Finding, amount,
+                                     back_pressure_causes, continuous_causes, degc, protection_choice, slug)
 
 #: Margin above the freezing point inside which ice is a risk [K] (common practice).
 FREEZE_MARGIN = 3.0
@@ -19,6 +22,23 @@ BOIL_MARGIN = 10.0
 COPPER_V_COLD, COPPER_V_HOT, COPPER_HOT_T = 2.4, 1.5, 333.15
 #: Below this mean velocity sediment settles and deposits build (common practice).
 V_SLOW = 0.1
+#: Velocity above which a wetted metal erodes [m/s], (cold, hot above COPPER_HOT_T), by family (common practice:
+#: copper alloys as above; aluminium alloys about 2 m/s; stainless steels about 6 m/s). A metal not listed, or a
+#: plate given by its conductivity only, takes the lowest value.
+EROSION_V = {"copper alloy": (COPPER_V_COLD, COPPER_V_HOT), "aluminium alloy": (2.0, 2.0),
+             "stainless steel": (6.0, 6.0)}
+#: Above this velocity water rushing through small ports and fittings is plainly audible [m/s] (common practice).
+NOISE_V = 3.0
+#: Velocity above this multiple of the erosion limit wears a plate through within its life (common practice).
+EROSION_SEVERE = 3.0
+#: Passages or ports narrower than this clog on tap water's scale and debris [m] (common practice: about 1 mm).
+SMALL_PASSAGE = 1.0e-3
+#: Time without water within which the device must be cut off automatically [s] (this tool's threshold: one
+#: minute is faster than anyone notices and reacts; common practice).
+LOSS_OF_FLOW_TIME = 60.0
+#: Mounting face above this is no working design [K]: 200 degC, above the melting point of tin-lead eutectic
+#: solder (183 degC, a published fact of the alloy), and far above any electronic part's rating.
+FACE_ABSURD = 473.15
 #: Static pressure above which US model plumbing codes call for a pressure-reducing valve [Pa] (80 psi).
 PRV_PRESSURE = 551_581.0
 #: Anodic-index difference above which a metal pair is treated as galvanically incompatible in water [V]
@@ -79,25 +99,14 @@ def cross_connection(r):
                 "make-up-protection", "caution",
                 f"The circuit carries {d.coolant.label()}; any make-up connection from the drinking-water supply "
                 "is a high-hazard cross-connection.",
-                "Fill through an air gap or a reduced-pressure principle assembly (ASSE 1013); never connect "
-                "the loop to the drinking-water supply directly. " + DEFER)
+                "Fill through an air gap or a reduced-pressure principle assembly (ASSE 1013): the loop holds its "
+                "own pressure, which is back-pressure against the supply and rules out both vacuum breakers, and "
+                "the additive is a high hazard, which rules out the double check. Never connect the loop to the "
+                "drinking-water supply directly. " + DEFER)
         return
-    hazard = "high hazard (contamination)" if d.coolant.has_additive else "low hazard (pollution) at least"
-    continuous = d.supply.hours_per_day > AVB_MAX_HOURS
-    held = d.circuit is not None and d.circuit.outlet_side_held()  # a valve or back pressure in the circuit
-    if d.coolant.has_additive:
-        device = ("a reduced-pressure principle assembly (ASSE 1013) or an air gap: additives such as glycol "
-                  "or inhibitors make this a high hazard, for which a vacuum breaker is not enough")
-    elif continuous or held:
-        why = (f"the supply is under pressure {d.supply.hours_per_day:g} h a day, longer than an atmospheric vacuum "
-               "breaker (ASSE 1001) may be" if continuous else "a valve or back pressure in the circuit can hold the "
-               "outlet side under pressure, which an atmospheric vacuum breaker (ASSE 1001) may not be")
-        device = (f"a pressure vacuum breaker (ASSE 1020) or a reduced-pressure principle assembly: {why}, and that "
-                  "device guards against back-siphonage only")
-    else:
-        device = ("at least an atmospheric vacuum breaker (ASSE 1001), mounted above the highest point downstream "
-                  "with no shut-off valve after it; if a valve or anything else can hold the outlet side under "
-                  "pressure, use a pressure vacuum breaker (ASSE 1020) or a reduced-pressure principle assembly")
+    high = d.coolant.has_additive
+    hazard = "high hazard (contamination)" if high else "low hazard (pollution) at least"
+    device = protection_choice(high, back_pressure_causes(d), continuous_causes(d, _first_backflow(d)))
     yield Finding(
         "cross-connection", "warning",
         f"The drinking-water supply feeds equipment: this is a cross-connection, {hazard}. "
@@ -120,6 +129,13 @@ def cross_connection(r):
         "and the cross-connection. " + DEFER)
 
 
+def _first_backflow(d) -> int:
+    """Index of the circuit's first backflow device (-1: none listed, or no circuit): pressure after it counts."""
+    if d.circuit is None:
+        return -1
+    return next((i for i, p in enumerate(d.circuit.parts) if isinstance(p, Backflow)), -1)
+
+
 def discharge(r):
     d = r.design
     if not d.supply.once_through:
@@ -133,18 +149,49 @@ def discharge(r):
             + DEFER)
 
 
+def _wetted(d):
+    """The wetted metal's key (None when the plate is given by its conductivity only)."""
+    return d.passage.material if d.passage.kind == "tube" else d.plate.material
+
+
+def erosion_limit(d, T_out: float) -> tuple[float, str]:
+    """The erosion velocity [m/s] of the wetted metal at outlet temperature T_out, and the metal's family."""
+    key = _wetted(d)
+    fam = materials.material(key).family if key else "unknown metal"
+    if fam in EROSION_V:
+        cold, hot = EROSION_V[fam]
+    else:
+        cold = hot = min(v for pair in EROSION_V.values() for v in pair)
+    return (hot if T_out > COPPER_HOT_T else cold), fam
+
+
+def fastest_water(r) -> tuple[float, str]:
+    """The highest velocity anywhere in the plate [m/s] and where: the passage, or a port or plenum minor loss
+    (each minor loss carries the velocity it refers to; a channel plate's ports are its narrowest section)."""
+    where, v = "passage", r.velocity
+    for m in r.minor_losses:
+        if m.velocity > v:
+            where, v = m.name, m.velocity
+    return v, where
+
+
 def velocity(r):
     d = r.design
-    wetted = d.passage.material if d.passage.kind == "tube" else d.plate.material
-    fam = materials.material(wetted).family if wetted else None
-    if fam == "copper alloy":
-        limit = COPPER_V_HOT if r.T_out > COPPER_HOT_T else COPPER_V_COLD
-        if r.velocity > limit:
-            yield Finding(
-                "velocity-high", "caution",
-                f"The mean velocity in the passage is {r.velocity:.2f} m/s, above about {limit} m/s where copper "
-                "alloys erode (copper-industry design guidance).",
-                "Use more or larger passages, or less flow, to slow the water.")
+    limit, fam = erosion_limit(d, r.T_out)
+    v, where = fastest_water(r)
+    if v > limit:
+        severe = v > EROSION_SEVERE * limit
+        yield Finding(
+            "velocity-high", "warning" if severe else "caution",
+            f"The water reaches {amount(v)} m/s ({where}), above about {limit:g} m/s where {fam} erodes "
+            f"(common practice){'; this far above it the metal wears through and the jet is loud' if severe else ''}.",
+            "Use larger ports and more or larger passages, or less flow, to slow the water.")
+    elif v > NOISE_V:
+        yield Finding(
+            "velocity-noise", "note",
+            f"The water reaches {amount(v)} m/s ({where}): above about {NOISE_V:g} m/s it is plainly audible "
+            "(common practice).",
+            "Use larger ports or less flow if the noise matters.")
     if r.velocity < V_SLOW:
         yield Finding(
             "velocity-low", "note",
@@ -153,11 +200,47 @@ def velocity(r):
             "Fit a strainer upstream and flush the plate from time to time.")
 
 
+def _rating(d):
+    return materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
+
+
+def pressure_budget(r):
+    """The plate's pressure drop against the supply's static pressure and the plate's rating, and the fastest
+    water against the wetted metal's limits: in every check, with or without a circuit."""
+    d = r.design
+    rating, given = _rating(d)
+    p = d.supply.static_pressure
+    v, where = fastest_water(r)
+    limit, fam = erosion_limit(d, r.T_out)
+    if r.dp > rating:
+        yield Finding(
+            "plate-drop-above-rating", "danger",
+            f"The plate alone needs {amount(r.dp / 1e5)} bar to pass {r.V_dot * 6e4:.3g} L/min, more than {given}, "
+            f"{rating / 1e5:.1f} bar: its inlet would sit at least that far above the outlet, and the water reaches "
+            f"{amount(v)} m/s ({where}). This is no working design.",
+            "Widen the ports and passages or lower the flow until the drop is a small part of the rating; never "
+            "pressurise a plate or box beyond its rating. " + DEFER)
+    if p is not None and r.dp > p and d.circuit is None:
+        yield Finding(
+            "supply-pressure-short", "warning",
+            f"The plate alone needs {amount(r.dp / 1e5)} bar to pass {r.V_dot * 6e4:.3g} L/min, more than the static "
+            f"supply pressure of {p / 1e5:.2f} bar: the design flow will not arrive.",
+            "Widen the ports and passages, lower the flow, or describe the lines in a [circuit] to see the flow "
+            "this supply gives.")
+    share = f"{amount(100 * r.dp / p)} % of the static supply pressure ({p / 1e5:.2f} bar) and " if p else ""
+    yield Finding(
+        "pressure-budget", "note",
+        f"The plate takes {amount(r.dp / 1e3)} kPa at {r.V_dot * 6e4:.3g} L/min: {share}{amount(100 * r.dp / rating)} % of "
+        f"{given}, {rating / 1e5:.1f} bar. The fastest water, {amount(v)} m/s, is "
+        f"{'in the passage' if where == 'passage' else 'at the ' + where}; {fam} erodes above "
+        f"about {limit:g} m/s and water is audible above about {NOISE_V:g} m/s (common practice).",
+        "Keep the plate's drop well inside the supply pressure and the rating, and the fastest water below both "
+        "velocity limits.")
+
+
 def pressure(r):
     d = r.design
-    kind = d.passage.kind
-    rating = d.plate.pressure_rating or materials.pressure_rating(kind).value
-    given = "its stated rating" if d.plate.pressure_rating else f"the usual rating of a {kind} plate (common practice)"
+    rating, given = _rating(d)
     p = d.supply.static_pressure
     if p is None:
         if d.supply.source == "potable":
@@ -236,6 +319,87 @@ def cavity_distribution(r):
             "Add a distributor or turn the cavity into channels for a predictable result.")
 
 
-RULES = (condensation, freezing, boiling, cross_connection, discharge, velocity, pressure, metals, electrical,
-         ranges, cavity_distribution)
+def device_limit(d) -> tuple[float, str]:
+    """The device's temperature limit [K] and where it comes from: the supply's face_limit, the modules'
+    hot-side limit, or the usual rating of electronic parts (common practice)."""
+    if d.supply.face_limit is not None:
+        return d.supply.face_limit, "the face limit"
+    if d.module is not None:
+        return d.module.hot_side_limit, "the modules' hot-side limit"
+    return DEVICE_LIMIT_DEFAULT, "no limit given: the usual top rating of industrial electronic parts, common practice"
+
+
+def plate_heat_capacity(d) -> float:
+    """Heat capacity of the plate's base slab [J/K]: length x width x base, the metal under the passages only
+    (the fins, lid and water are left out, so the plate is taken to warm faster than it does)."""
+    return d.plate.length * d.plate.width * d.plate.base * materials.heat_capacity(d.plate.material)
+
+
+def loss_of_flow(r):
+    d = r.design
+    if r.load <= 0:
+        return
+    C = plate_heat_capacity(d)
+    rate = r.load / C
+    limit, source = device_limit(d)
+    t = max(limit - r.T_face_max, 0.0) / rate
+    if t < LOSS_OF_FLOW_TIME:
+        yield Finding(
+            "loss-of-flow", "warning",
+            f"If the water stops, {r.load:.4g} W warms the plate ({C:.3g} J/K in its base) at about {rate:.2g} K/s: "
+            f"the mounting face passes {degc(limit)} ({source}) within {t:.0f} s, faster than anyone reacts.",
+            "Fit a flow switch or a temperature interlock on the mounting face that cuts the device's power when "
+            "the flow fails, and test it. " + DEFER)
+
+
+def small_passages(r):
+    d = r.design
+    if d.supply.source != "potable":
+        return
+    pa = d.passage
+    sizes = {"channels": lambda: [("channel", min(pa.width, pa.depth)), ("port", pa.port_diameter)],
+             "tube": lambda: [("tube", pa.inner_diameter)],
+             "cavity": lambda: [("cavity", pa.height), ("port", pa.port_diameter)]}[pa.kind]()
+    narrow = [(what, x) for what, x in sizes if x is not None and x < SMALL_PASSAGE]
+    if narrow:
+        what, x = min(narrow, key=lambda n: n[1])
+        yield Finding(
+            "small-passages-tap-water", "caution",
+            f"The narrowest {what} is {x * 1e3:.3g} mm, below about {SMALL_PASSAGE * 1e3:.0f} mm, on tap water: scale, "
+            "rust flakes and sand from the building's pipes clog it, and the face overheats where the flow stops "
+            "(common practice).",
+            "Fit a fine strainer (finer than the narrowest passage) upstream, flush the plate before first use and "
+            "from time to time, and watch the flow or the face temperature. " + DEFER)
+
+
+def freezing_room(r):
+    d = r.design
+    tf = d.coolant.freezing_point()
+    if d.room.temperature < tf:
+        yield Finding(
+            "freezing-room", "warning",
+            f"The room is at {degc(d.room.temperature)}, below the coolant's freezing point ({degc(tf)}): when the "
+            "flow stops, the water standing in the plate and the lines freezes, and ice can split them and flood "
+            "the equipment when it thaws.",
+            "Drain and blow out the plate and lines whenever the flow stops, or keep the water moving, or heat-trace "
+            "and insulate the lines; a glycol loop changes the backflow protection needed. " + DEFER)
+
+
+def face_absurd(r):
+    d = r.design
+    if r.T_face_max > FACE_ABSURD:
+        limit, source = device_limit(d)
+        need = (limit - r.T_in) / r.load if r.load > 0 and limit > r.T_in else None
+        what = (f"to hold the face at {degc(limit)} ({source}) the path from face to water must be below "
+                f"{need:.3g} K/W (now {r.R_th:.3g} K/W)" if need else "no plate at this inlet temperature can hold it")
+        yield Finding(
+            "face-temperature-absurd", "danger",
+            f"The mounting face would reach {degc(r.T_face_max)}, above {degc(FACE_ABSURD)} where solder melts and "
+            "no electronic part survives: the load is far beyond what this interface and plate can carry, and "
+            "the numbers are not a working design.",
+            f"Spread the load, improve the interface and the plate, or lower the load: {what}. " + DEFER)
+
+
+RULES = (face_absurd, condensation, freezing, freezing_room, boiling, cross_connection, discharge, velocity,
+         pressure_budget, pressure, loss_of_flow, small_passages, metals, electrical, ranges, cavity_distribution)
 

@@ -5,6 +5,9 @@ live parts ends with :data:`coldplate.findings.base.DEFER`.
 """
 from __future__ import annotations
 
+import math
+
+from coldplate.modules import model as te
 from coldplate.findings.base import DEFER, DEW_MARGIN, degc
 from coldplate.findings.base import Finding
 
@@ -15,6 +18,24 @@ PAST_COLDEST_K = 0.05
 #: Datasheet Q_max and the model's differ by more than this fraction: the datasheet set is not consistent
 #: with the ideal model at its rated temperature (common practice: about 10 % is the usual spread).
 QMAX_MISMATCH = 0.10
+
+
+def overdriven(r):
+    """The cold face ends hotter than the hot face: the load is beyond what the modules can pump at all."""
+    m = r.module
+    if m is None or m.T_cold <= m.T_hot:
+        return
+    S, R, K = m.parameters
+    q_max = te.max_heat_pumping(S, R, m.T_hot)[0]  # one module, no temperature difference, at this hot face
+    need = math.ceil(m.Q_cold / q_max) if q_max > 0 else None
+    more = f"at least {need} modules of this kind (each pumps at most {q_max:.3g} W with no temperature " \
+           "difference at this hot face, and less against one)" if need else "larger modules"
+    yield Finding(
+        "module-overdriven", "danger",
+        f"The cold load of {m.Q_cold:.4g} W is more than {m.count} module(s) can pump: the cold face would end at "
+        f"{degc(m.T_cold)}, hotter than the hot face ({degc(m.T_hot)}), so the heat leaks backwards through the "
+        "modules and the COP, power and cold-face numbers here mean nothing.",
+        f"Lower the cold load or use {more}; check the cold stage's temperature before it is powered. " + DEFER)
 
 
 def past_coldest(r):
@@ -111,5 +132,5 @@ def datasheet_consistency(r):
             "Treat the results as estimates; measured S, R and K at the working temperature would be closer.")
 
 
-RULES = (past_coldest, target_unreachable, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
+RULES = (overdriven, past_coldest, target_unreachable, hot_face_limit, sweep_stopped, cold_face_dew, module_electrical,
                 datasheet_consistency)

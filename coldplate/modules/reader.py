@@ -18,6 +18,15 @@ WIRINGS = ("series", "parallel", "series-parallel")
 #: Hot-side temperature a standard module may run at when the datasheet gives none: 80 degC
 #: (common practice for modules assembled with ordinary low-temperature solder).
 DEFAULT_HOT_SIDE_LIMIT = 353.15
+#: Least Seebeck coefficient of a real module [V/K]: one thermocouple, a p and an n leg of about 200 uV/K each
+#: near room temperature (bismuth telluride; from memory), taken at half that to leave room. Below it the
+#: datasheet values describe less than one couple.
+MIN_SEEBECK = 2.0e-4
+#: Largest module figure of merit Z T accepted (at the rated hot side, or 300 K) [-]: bulk thermoelectric
+#: materials near room temperature reach about 1 (common practice); 4 leaves room for any in use. From Luo's
+#: relations Z T_h = 2 dT_max T_h / (T_h - dT_max)^2, which is 4 where dT_max is half of T_h: this refuses a
+#: dT_max above half the rated hot-side temperature (150 K at 27 degC).
+ZT_MAX = 4.0
 _DATASHEET_KEYS = ("max_voltage", "max_temperature_difference", "rated_hot_side", "max_heat")
 _DIRECT_KEYS = ("seebeck", "resistance", "conductance")
 
@@ -76,6 +85,7 @@ def read_module(data) -> Module:
         q_max = t.value("max_heat", "power", required=False, low=0, high=1e5)
         extra = dict(max_voltage=V_max, max_temperature_difference=dT_max, rated_hot_side=T_rated, max_heat=q_max)
 
+    _physical(t, direct, S, R, K, extra.get("rated_hot_side"))
     count = t.integer("count", 1, 500) if t.has("count") else 1
     wiring = t.choice("wiring", WIRINGS, default="series")
     strings = _strings(t, wiring, count)
@@ -96,6 +106,22 @@ def read_module(data) -> Module:
                     default=DEFAULT_HOT_SIDE_LIMIT)
     t.finish()
     return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra)
+
+
+def _physical(t: Table, direct: bool, S: float, R: float, K: float, T_rated: float | None) -> None:
+    """Refuse datasheet values that give no physical module: less than one thermocouple, or a figure of merit
+    no thermoelectric material reaches."""
+    if S < MIN_SEEBECK:
+        key = "seebeck" if direct else "max_voltage"
+        raise DesignError(t.field(key), f"gives a Seebeck coefficient of {S:.3g} V/K, less than one thermocouple "
+                                        f"(about {MIN_SEEBECK:g} V/K): check the value and its unit")
+    T = T_rated if T_rated is not None else 300.0
+    ZT = S * S / (R * K) * T
+    if ZT > ZT_MAX:
+        key = "resistance" if direct else "max_temperature_difference"
+        raise DesignError(t.field(key), f"gives a figure of merit Z T = {ZT:.3g} at {T - 273.15:.0f} degC, above "
+                                        f"{ZT_MAX:g}, which no thermoelectric material reaches (about 1 is usual): "
+                                        "check the datasheet values")
 
 
 def _difference(t: Table, key: str) -> float:

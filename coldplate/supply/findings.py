@@ -12,7 +12,8 @@ from hydraulics.circuit import Backflow
 from coldplate.plate import materials
 from coldplate.supply.reader import BACKFLOW_DEVICES
 from coldplate.supply.operating import FLOW_MAX
-from coldplate.findings.base import AIR_GAP_MIN, AVB_MAX_HOURS, DEFER, degc
+from coldplate.findings.base import (AIR_GAP_MIN, DEFER, back_pressure_causes, continuous_causes, degc,
+                                     protection_choice)
 from coldplate.findings.base import Finding
 
 #: Height of an atmospheric vacuum breaker above the highest downstream point [m]: 6 in (152 mm) in common US
@@ -30,10 +31,7 @@ SURGE_NOTE = 3.0e5
 
 
 def _rating(d):
-    rating = d.plate.pressure_rating or materials.pressure_rating(d.passage.kind).value
-    given = "its stated rating" if d.plate.pressure_rating else f"the usual rating of a {d.passage.kind} plate " \
-                                                               "(common practice)"
-    return rating, given
+    return materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
 
 
 def supply_pressure(r):
@@ -90,19 +88,20 @@ def backflow_fit(r):
         kind = BACKFLOW_DEVICES[part.device]
         why = []
         if d.coolant.has_additive and not kind.high_hazard:
-            why.append(f"{d.coolant.label()} makes this a high hazard, which a {kind.name} does not cover")
-        if part.device == "atmospheric-vacuum-breaker":
-            if c.can_hold_pressure(i):
-                why.append("a valve or a back pressure after it can hold it under pressure")
-            if d.supply.hours_per_day > AVB_MAX_HOURS:
-                why.append(f"it would stay under pressure {d.supply.hours_per_day:g} h a day (more than "
-                           f"{AVB_MAX_HOURS:g} h)")
+            why.append(f"{d.coolant.label()} makes this a high hazard, which a {kind.name} does not serve "
+                       "(it is for a low hazard only)")
+        back = back_pressure_causes(d)
+        if back and not kind.back_pressure:
+            why.append(f"{'; '.join(back)}: that is back-pressure, and a {kind.name} guards against "
+                       "back-siphonage only")
+        held = continuous_causes(d, i)
+        if held and not kind.continuous:
+            why.append(f"{'; '.join(held)}: a {kind.name} may not stay under continuous pressure")
         if why:
             yield Finding(
                 "backflow-device-unsuitable", "warning",
                 f"The {kind.name} ({kind.standard}) at '{part.name}' does not fit this circuit: {'; '.join(why)}.",
-                "Use a reduced-pressure principle assembly (ASSE 1013) or an air gap for a high hazard, a "
-                "pressure vacuum breaker (ASSE 1020) where the line stays under pressure. " + DEFER)
+                f"Use {protection_choice(d.coolant.has_additive, back, held)}. " + DEFER)
         if r.V_dot > part.flow_rated:
             yield Finding(
                 "backflow-device-size", "caution",
@@ -160,7 +159,7 @@ def planning(r):
             f"{degc(r.T_in)}: the plate's conduction and interface, or the inlet temperature itself, exceed them.",
             "Improve the interface or the plate, lower the load, or use colder water.")
         return
-    if p.face_limit is not None and r.T_face_max > p.face_limit:
+    if p.face_limit_from == "face_limit" and r.T_face_max > p.face_limit:
         yield Finding(
             "face-limit", "warning",
             f"At {r.V_dot * 6e4:.3g} L/min the hottest mounting face reaches {degc(r.T_face_max)}, above its limit of "
@@ -170,13 +169,27 @@ def planning(r):
         money = ""
         if p.cost_per_year is not None:
             money = f", about {p.cost_per_year - p.cost_per_year_min:,.0f} {p.currency} a year"
-        yield Finding(
-            "water-waste", "caution",
-            f"The plate runs at {r.V_dot * 6e4:.3g} L/min, {p.waste_ratio:.1f} times the least flow its limits need "
-            f"({p.V_dot_min * 6e4:.3g} L/min, set by the {p.binding}): {p.water_m3_per_year - p.water_m3_per_year_min:,.0f} "
-            f"m³ of drinking water a year more than needed{money}.",
-            "Throttle to the least flow plus a margin with a fixed flow regulator, or switch the water on only "
-            "while the load runs; a recirculating loop uses none.")
+        extra = (f"{p.water_m3_per_year - p.water_m3_per_year_min:,.0f} m³ of drinking water a year more than the "
+                 f"least flow{money}")
+        if p.face_limit_from == "none":
+            yield Finding(
+                "water-waste", "caution",
+                f"The plate runs at {r.V_dot * 6e4:.3g} L/min, {p.waste_ratio:.1f} times the least flow that keeps the "
+                f"discharge under its limit ({p.V_dot_min * 6e4:.3g} L/min): {extra}. No mounting-face limit is "
+                f"given, and at that flow the mounting face would reach {degc(p.T_face_at_min)}, so no lower flow "
+                "is advised.",
+                "Give face_limit in [supply] (the device's rated mounting-face temperature, with a margin) to find "
+                "the least flow that is safe for the device, or switch the water on only while the load runs; "
+                "a recirculating loop uses none.")
+        else:
+            yield Finding(
+                "water-waste", "caution",
+                f"The plate runs at {r.V_dot * 6e4:.3g} L/min, {p.waste_ratio:.1f} times the least flow its limits "
+                f"need ({p.V_dot_min * 6e4:.3g} L/min, set by the {p.binding}, where the mounting face reaches "
+                f"{degc(p.T_face_at_min)} against its limit of {degc(p.face_limit)}"
+                f"{'' if p.face_limit_from == 'face_limit' else ', the ' + p.face_limit_from}): {extra}.",
+                "Throttle to the least flow plus a margin with a fixed flow regulator, or switch the water on only "
+                "while the load runs; a recirculating loop uses none.")
     b = p.breakeven
     if b is not None and b.saving_per_year > 0 and r.design.supply.source == "potable":
         pay = f"; it pays for itself in {b.payback_years:.1f} years" if b.payback_years is not None else ""

@@ -28,20 +28,32 @@ def wants_planning(design) -> bool:
     return s.once_through and (design.circuit is not None or s.face_limit is not None or s.tariff is not None)
 
 
-def _excess(r, s) -> float:
+def face_limit(design) -> tuple[float | None, str]:
+    """The mounting-face limit planning keeps [K] and where it comes from: the supply's ``face_limit``, else
+    the modules' hot-side limit (their hot faces sit on the mounting face), else none ("none": then the least
+    flow keeps only the drain limit, and no flow is advised from it)."""
+    if design.supply.face_limit is not None:
+        return design.supply.face_limit, "face_limit"
+    if design.module is not None:
+        return design.module.hot_side_limit, "module hot-side limit"
+    return None, "none"
+
+
+def _excess(r, s, limit: float | None) -> float:
     """How far the plate at one flow is above its limits [K] (positive: a limit is broken)."""
     if r is None:
         return math.inf
     e = r.T_out - s.discharge_limit
-    if s.face_limit is not None:
-        e = max(e, r.T_face_max - s.face_limit)
+    if limit is not None:
+        e = max(e, r.T_face_max - limit)
     return e
 
 
 def least_flow(plate: PlateAt, start: float) -> float:
     """The least flow [m^3/s] meeting the limits, or math.inf when none up to FLOW_MAX does."""
     s = plate.design.supply
-    m = lambda q: _excess(plate(q), s)  # noqa: E731
+    limit = face_limit(plate.design)[0]
+    m = lambda q: _excess(plate(q), s, limit)  # noqa: E731
     q = start
     if m(q) > 0:
         while m(q) > 0:
@@ -81,9 +93,10 @@ def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
     V_min = least_flow(plate, V_op)
     per_year = s.seconds_per_year
     m3 = V_op * per_year
+    limit, limit_from = face_limit(design)
     if math.isfinite(V_min):
         r = plate(V_min)
-        face = None if s.face_limit is None else r.T_face_max - s.face_limit
+        face = None if limit is None else r.T_face_max - limit
         binding = "mounting face" if face is not None and face >= r.T_out - s.discharge_limit else "discharge"
         T_face_min, T_out_min, m3_min = r.T_face_max, r.T_out, V_min * per_year
     else:
@@ -91,7 +104,8 @@ def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
     cost = None if s.tariff is None else m3 * s.tariff
     cost_min = None if s.tariff is None or m3_min is None else m3_min * s.tariff
     return PlanningResult(
-        V_dot_min=V_min, binding=binding, face_limit=s.face_limit, discharge_limit=s.discharge_limit,
+        V_dot_min=V_min, binding=binding, face_limit=limit, face_limit_from=limit_from,
+        discharge_limit=s.discharge_limit,
         T_face_at_min=T_face_min, T_out_at_min=T_out_min, water_L_per_day=V_op * 1000.0 * s.seconds_per_day,
         water_m3_per_year=m3, water_m3_per_year_min=m3_min, cost_per_year=cost, cost_per_year_min=cost_min,
         currency=s.currency, waste_ratio=V_op / V_min if math.isfinite(V_min) else None,

@@ -28,9 +28,9 @@ class BackflowKind:
     key: str
     name: str
     standard: str
-    high_hazard: bool  #: may protect against contamination (glycol, inhibitors)
+    high_hazard: bool  #: may serve a high hazard (contamination: glycol, inhibitors)
     back_pressure: bool  #: protects against back-pressure, not only back-siphonage
-    continuous: bool  #: may stay under pressure for long periods
+    continuous: bool  #: may stay under pressure for long periods (more than 12 h in 24)
     dp_open: float  #: [Pa] held by its checks while any water flows
     dp_rated: float  #: [Pa] at flow_rated
     flow_rated: float  #: [m^3/s]
@@ -40,10 +40,13 @@ class BackflowKind:
 _BF = ("common practice: typical of 1/2-inch devices in makers' flow charts; from memory. Give the device's "
        "own curve with loss, opening_loss and rated_flow")
 
+#: What each device covers follows the US model plumbing codes' backflow-device tables (from memory): both
+#: vacuum breakers serve a high or a low hazard against back-siphonage only, the atmospheric one never under
+#: continuous pressure; the double check serves a low hazard only; the reduced-pressure assembly any hazard.
 BACKFLOW_DEVICES: dict[str, BackflowKind] = {b.key: b for b in (
-    BackflowKind("atmospheric-vacuum-breaker", "atmospheric vacuum breaker", "ASSE 1001", False, False, False,
+    BackflowKind("atmospheric-vacuum-breaker", "atmospheric vacuum breaker", "ASSE 1001", True, False, False,
                  0.0, 0.15e5, 15 / 6e4, _BF),
-    BackflowKind("pressure-vacuum-breaker", "pressure vacuum breaker", "ASSE 1020", False, False, True,
+    BackflowKind("pressure-vacuum-breaker", "pressure vacuum breaker", "ASSE 1020", True, False, True,
                  0.07e5, 0.5e5, 30 / 6e4, _BF),
     BackflowKind("double-check", "double check valve assembly", "ASSE 1015", False, True, True,
                  0.14e5, 0.5e5, 30 / 6e4, _BF),

@@ -84,3 +84,6 @@ class PlanningResult:
     waste_ratio: float | None  #: operating flow / least flow
     use_curve: UseCurve
     breakeven: Breakeven | None
+    #: where ``face_limit`` comes from: "face_limit" ([supply]), "module hot-side limit", or "none" (no
+    #: mounting-face limit: the least flow keeps the drain limit only, and no flow is advised from it)
+    face_limit_from: str = "face_limit"
