@@ -155,12 +155,20 @@ class Spreading:
     _Am: np.ndarray = field(repr=False, compare=False)  # A_m per watt
     _Cm: np.ndarray = field(repr=False, compare=False)  # A_m + sum_n A_mn cos(δ b/2)
     _C0: float = field(repr=False, compare=False)  # A0 + sum_n A_n cos(δ b/2)
+    _Bm: np.ndarray = field(repr=False, compare=False)  # cooled-face amplitudes on y = b/2, per watt
+    _B0: float = field(repr=False, compare=False)
 
     def top_rise_centreline(self, x):
         """Top-face temperature rise per watt [K/W] along y = b/2 at x [m] (0..a)."""
         x = np.asarray(x, dtype=float)
         out = self._C0 + np.cos(np.multiply.outer(x, self._lam)) @ self._Cm
         return _out(out)
+
+    def cooled_flux_centreline(self, x):
+        """Heat flux per watt [1/m²] leaving the cooled face along y = b/2 at x [m]: h times the cooled face's
+        rise, the same series with each mode scaled by its bottom-to-top ratio ζ / (ζ cosh ζt + (h/k) sinh ζt)."""
+        x = np.asarray(x, dtype=float)
+        return _out(self.h * (self._B0 + np.cos(np.multiply.outer(x, self._lam)) @ self._Bm))
 
     def absorbed_fraction(self, x):
         """Fraction [-] of the heat that left through the cooled face between 0 and x [m]."""
@@ -220,4 +228,49 @@ def spreading_MCY(a, b, c, d, t, k, h, n_terms=200):
         R_1D=A0, R_mean=float(R_mean), R_spreading_mean=float(R_mean - A0),
         R_centroid=float(R_centroid),
         _lam=lam, _Am=Am, _Cm=Am + Amn @ cy, _C0=float(A0 + An @ cy),
+        _Bm=Am * _bottom(lam, t, H) + (Amn * _bottom(beta, t, H)) @ cy,
+        _B0=float(1.0 / (h * a * b) + (An * _bottom(dl, t, H)) @ cy),
     )
+
+
+def base_axial_perturbation(spacing, k_t, flux, r_local, r_mean):
+    """Change of the base temperature along the flow when the back side's resistance varies along it [K/W].
+
+    The base, a strip of conductance k t [W/K] along x, carries the cooled-face flux q(x) [1/m² per watt] of a
+    solution with the uniform back-side resistance r_m [m² K/W]; with the local resistance r(x) instead, the
+    change δ(x) solves the one-dimensional fin equation with adiabatic ends
+
+        k t δ'' - δ / r = -q (r - r_m) / r
+
+    (second-order central differences on the uniform grid of ``spacing`` [m], mirror nodes at both ends,
+    Thomas algorithm).  Without axial conduction (k t -> 0) δ = q (r - r_m): all the heat crossing at x
+    meets the local resistance there.  ``flux``, ``r_local`` arrays whose last axis runs along x; ``r_mean``,
+    ``k_t`` broadcast against them.  Conduction across the flow is left out (the change does not spread
+    sideways: a larger change where r is large, a cautious simplification).
+    """
+    q = np.asarray(flux, dtype=float)
+    r = np.asarray(r_local, dtype=float)
+    r, q = np.broadcast_arrays(r, q)
+    rm = np.asarray(r_mean, dtype=float)[..., None] if np.ndim(r_mean) else float(r_mean)
+    kt = np.asarray(k_t, dtype=float)[..., None] if np.ndim(k_t) else float(k_t)
+    c = kt * r / spacing**2  # c δ[i-1] - (1 + 2c) δ[i] + c δ[i+1] = -q (r - r_m)
+    rhs = q * (r - rm)
+    n = r.shape[-1]
+    lower = c.copy()
+    upper = c.copy()
+    upper[..., 0] *= 2.0  # mirror node δ[-1] = δ[1]
+    lower[..., -1] *= 2.0  # mirror node δ[n] = δ[n-2]
+    diag = 1.0 + 2.0 * c  # signs flipped: -c δ[i-1] + (1 + 2c) δ[i] - c δ[i+1] = q (r - r_m)
+    cp = np.empty_like(c)
+    dp = np.empty_like(c)
+    cp[..., 0] = -upper[..., 0] / diag[..., 0]
+    dp[..., 0] = rhs[..., 0] / diag[..., 0]
+    for i in range(1, n):
+        den = diag[..., i] + lower[..., i] * cp[..., i - 1]
+        cp[..., i] = -upper[..., i] / den
+        dp[..., i] = (rhs[..., i] + lower[..., i] * dp[..., i - 1]) / den
+    out = np.empty_like(c)
+    out[..., -1] = dp[..., -1]
+    for i in range(n - 2, -1, -1):
+        out[..., i] = dp[..., i] - cp[..., i] * out[..., i + 1]
+    return _out(out)

@@ -32,7 +32,7 @@ from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
 
 from coldplate.plate import conduction, psychro
-from coldplate.plate.convection import nusselt
+from coldplate.plate.convection import nusselt, nusselt_local
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
 from coldplate.plate.result import MethodUse, Profile, Result
@@ -41,6 +41,8 @@ if TYPE_CHECKING:
     from coldplate.design.reader import Design
 
 MAX_ITERATIONS = 60
+#: March points per profile point (see march_points).
+PROFILE_EVERY = 4
 TOLERANCE_K = 1e-5
 
 
@@ -95,38 +97,44 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                          f"(last change {change:.3g} K)")
     _check_outlet(T_out, T_boil, coolant, p)
 
-    # --- the plate: spreading with the back side smeared over the plate, then the march
+    # --- the plate: spreading with the mean back side smeared over the cooled length, then the march with the
+    # local coefficient and the local bulk temperature at each point
+    off = geom.cooled_offset
+    L_cool, c_cool = cooled_span(d.plate.length, off, d.heat.footprint_length)
+    A_cool = L_cool * d.plate.width
     R_below = back.total
-    h_eff = 1.0 / (A_plate * R_below)
-    spread = conduction.spreading_MCY(d.plate.length, d.plate.width, d.heat.footprint_length,
-                                      d.heat.footprint_width, d.plate.base, d.plate.conductivity, h_eff)
-    def bulk(xs):
-        # A serpentine crosses the plate once per pass: take the outlet temperature everywhere (cautious).
-        frac = np.asarray(spread.absorbed_fraction(xs)) if geom.single_pass else np.ones_like(xs)
-        return T_in + (T_out - T_in) * frac
-
-    def top(xs):
-        """Bulk temperature and plate top-face temperature on the centre line at ``xs``."""
-        T_b = bulk(xs)
-        return T_b, T_b + Q * np.asarray(spread.top_rise_centreline(xs))
-
+    r_mean = A_cool * R_below  # 1 / h_eff [m² K/W]
+    h_eff = 1.0 / r_mean
+    spread = conduction.spreading_MCY(L_cool, d.plate.width, c_cool, d.heat.footprint_width, d.plate.base,
+                                      d.plate.conductivity, h_eff)
     n = d.model.segments
-    x = np.linspace(0.0, d.plate.length, n + 1)
-    T_bulk, T_top = top(x)
-    xf = march_points(d.plate.length, d.heat.footprint_length, n)  # the march over the footprint
-    T_bulk_f, T_top_f = top(xf)
+    xg = march_points(L_cool, n)  # the march: the whole cooled length; every PROFILE_EVERY-th point is the profile
+    s_path = path_position(xg, L_cool, n, geom)
+    cv_x = nusselt_local(Re, pr.Pr, s_path, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
+                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated, mu_ratio=mu_ratio,
+                         mean=cv)
+    h_x = np.asarray(cv_x.Nu) * pr.k / geom.D_h
+    backs = [module.back_side(d.passage, d.plate, geom, float(hx)) for hx in h_x]
+    r_x = A_cool * np.array([bk.total for bk in backs])
+    frac = (np.asarray(spread.absorbed_fraction(xg)) if geom.single_pass else np.ones_like(xg))
+    T_bulk_f = T_in + (T_out - T_in) * frac
+    delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
+                                               spread.cooled_flux_centreline(xg), r_x, r_mean)
+    T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xg), delta)
+    x_prof, T_bulk, T_top = xg[::PROFILE_EVERY], T_bulk_f[::PROFILE_EVERY], T_top_f[::PROFILE_EVERY]
     i_hot = int(np.argmax(T_top_f))
-    x_hot = float(xf[i_hot])
+    x_hot = float(xg[i_hot]) + off
     T_plate_max = float(T_top_f[i_hot])
+    back_hot = backs[i_hot]
     R_int = conduction.R_interface(d.interface.resistance_area, A_fp)
     T_face_max = T_plate_max + Q * R_int
     R_th = (T_face_max - T_in) / Q
 
-    R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_plate)
+    R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_cool)
     R_coolant = (float(T_bulk_f[i_hot]) - T_in) / Q
     theta_hot = (T_plate_max - float(T_bulk_f[i_hot])) / Q
-    parts = [("interface", R_int), ("spreading", theta_hot - R_base - R_below), ("base conduction", R_base)]
-    parts += list(back.parts)
+    parts = [("interface", R_int), ("spreading", theta_hot - R_base - back_hot.total), ("base conduction", R_base)]
+    parts += list(back_hot.parts)
     parts.append(("coolant temperature rise", R_coolant))
 
     # --- pressure drop
@@ -139,10 +147,10 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
 
     litres_per_day = flow * 1000.0 * d.supply.seconds_per_day if d.supply.once_through else 0.0
-    methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
+    methods = _methods(fr.methods, cv_x.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
     methods += (_use("spreading", conduction.spreading_MCY,
-                     {"c/a": d.heat.footprint_length / d.plate.length, "d/b": d.heat.footprint_width / d.plate.width,
+                     {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
                       "Bi": h_eff * d.plate.base / d.plate.conductivity}),)
     methods += tuple(_use(role, fn, values) for role, fn, values in back.methods)
     methods += (_use("dew point", psychro.dew_point,
@@ -157,8 +165,9 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         water_use_L_per_day=litres_per_day,
         water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0,
         methods=methods,
-        profile=Profile(tuple(map(float, x)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
+        profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
         iterations=iteration, assumptions=_assumptions(d), load=Q,
+        Nu_hot=float(np.asarray(cv_x.Nu)[i_hot]), h_hot=float(h_x[i_hot]),
     )
     return result
 
@@ -186,11 +195,42 @@ def friction_pressure_drop(f, length, D_h, rho, V):
     return f * length / D_h * 0.5 * rho * V**2
 
 
-def march_points(plate_length: float, footprint_length: float, segments: int) -> np.ndarray:
-    """Where the march looks for the hottest point: 4·segments + 1 points over the centred footprint [m]
-    (shared with the sizing evaluator, so both take the maximum over the same points)."""
-    x0 = 0.5 * (plate_length - footprint_length)
-    return np.linspace(x0, x0 + footprint_length, 4 * segments + 1)
+def cooled_span(plate_length: float, offset: float, footprint_length: float) -> tuple[float, float]:
+    """The cooled length between the plenums [m] and the part of the centred footprint over it [m].
+
+    The plate model is the cooled length alone, its ends adiabatic: the plate over the plenums is given no
+    cooling and no spreading (a hotter face), and heat of a footprint reaching over a plenum is put on the
+    cooled length's ends (``findings.plate`` says so when a footprint does)."""
+    L = plate_length - 2.0 * offset
+    return L, min(footprint_length, L)
+
+
+def march_points(length: float, segments: int) -> np.ndarray:
+    """Where the march looks for the hottest point [m from the cooled length's inlet end]: PROFILE_EVERY ·
+    segments + 1 evenly spaced points over the whole cooled length, outlet end included (the coolant's rise
+    can put the hottest point beyond the footprint).  Every PROFILE_EVERY-th point is a point of the profile,
+    so the profile never shows a point hotter than the one reported.  Shared with the sizing evaluator, so
+    both take the maximum over the same points."""
+    return np.linspace(0.0, length, PROFILE_EVERY * segments + 1)
+
+
+def path_position(x, length: float, segments: int, geom) -> np.ndarray:
+    """Distance from the passage's entry [m] at which the local coefficient is taken for points x [m] of the
+    cooled length: x itself for a single pass, not less than half a segment (the entry's coefficient is
+    unbounded; a shorter distance would only raise it); for a serpentine, which crosses the plate once per
+    pass, the end of the path everywhere (its smallest local coefficient, cautious)."""
+    x = np.asarray(x, dtype=float)
+    if not geom.single_pass:
+        return np.full(x.shape, float(geom.heated_length))
+    return np.maximum(x, 0.5 * length / segments)
+
+
+def local_rise(top, delta):
+    """Top-face rise per watt above the local bulk water [K/W]: the spreading series' rise ``top`` with the mean
+    back side plus the change ``delta`` that the local back side makes
+    (:func:`coldplate.plate.conduction.base_axial_perturbation`).  Never below zero: the mounting face is never
+    reported cooler than the water under it.  Floats or numpy arrays (the sizing evaluator passes arrays)."""
+    return np.maximum(np.asarray(top) + np.asarray(delta), 0.0)
 
 
 def _check_outlet(T_out, T_boil, coolant, p):
