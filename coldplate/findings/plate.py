@@ -236,6 +236,23 @@ def cavity_distribution(r):
             "Add a distributor or turn the cavity into channels for a predictable result.")
 
 
+def footprint_over_plenum(r):
+    """The plate model cools only the length between the plenums (coldplate.plate.solve.cooled_span)."""
+    off = r.geometry.cooled_offset
+    d = r.design
+    cooled = d.plate.length - 2 * off
+    if off > 0 and d.heat.footprint_length > cooled * (1 + 1e-9):
+        over = 0.5 * (d.heat.footprint_length - cooled)
+        yield Finding(
+            "footprint-over-plenum", "caution",
+            f"The {d.heat.footprint_length * 1e3:.4g} mm footprint reaches {over * 1e3:.3g} mm over each plenum, "
+            f"beyond the {cooled * 1e3:.4g} mm of channels: the plate model gives the plate over a plenum no "
+            "cooling and counts that heat at the channels' ends, so the face over the plenums may run hotter "
+            "than reported.",
+            "Keep the heated footprint within the channel length (shorter plenums or a longer plate), or check "
+            "the plenum ends against a test or a finer model.")
+
+
 RULES = (condensation, freezing, boiling, cross_connection, discharge, velocity, pressure, metals, electrical,
-         ranges, cavity_distribution)
+         ranges, cavity_distribution, footprint_over_plenum)
 

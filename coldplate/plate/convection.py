@@ -348,8 +348,10 @@ def _my_combined(Re, Pr, z_length, D_h, alpha, condition, Nu_fd, C2, C4, shape="
         nu_fd = C1 * fRe / (8.0 * math.sqrt(math.pi) * a ** _MY_GAMMA)
     else:
         nu_fd = np.asarray(Nu_fd, dtype=float) * r
-    developing = (C2 * C3 * (fRe / z) ** (1.0 / 3.0)) ** 5
-    nu_sqrtA = ((C4 * fPr / np.sqrt(z)) ** m + (developing + nu_fd**5) ** (m / 5.0)) ** (1.0 / m)
+    pohlhausen = C4 * fPr / np.sqrt(z)
+    graetz = ((C2 * C3 * (fRe / z) ** (1.0 / 3.0)) ** 5 + nu_fd**5) ** 0.2
+    top = np.maximum(pohlhausen, graetz)  # scaled by the larger term: no overflow for large m (viscous liquids)
+    nu_sqrtA = top * ((pohlhausen / top) ** m + (graetz / top) ** m) ** (1.0 / m)
     return _out(nu_sqrtA / r)
 
 
