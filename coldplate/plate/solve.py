@@ -11,10 +11,13 @@ Chain (each step a published method, see DEVELOPERS.md):
    losses of plenums, ports and bends;
 4. Nusselt number → heat transfer coefficient → the passage's back-side
    resistances (fins, bond, tube wall, convection);
-5. the plate: Muzychka-Culham-Yovanovich spreading series with the back side
-   smeared into an effective coefficient over the plate, then a march along the
-   flow adding the coolant's local bulk temperature rise, so the hottest point of
-   the mounting face is found, not assumed.
+5. the plate: Muzychka-Culham-Yovanovich spreading series with the mean back side
+   smeared into an effective coefficient over the cooled length (between a channel
+   plate's plenums), then a march over that whole length: at each point the local
+   Nusselt number (the laminar model's local form), the back side and fin efficiency
+   at that coefficient, the change this makes to the base temperature with axial
+   conduction in the base, and the coolant's local bulk temperature, so the hottest
+   point of the mounting face is found, not assumed, beyond the footprint too.
 
 The check (``coldplate/check.py``) runs this with the modules, the supply and the findings.
 """
@@ -32,7 +35,7 @@ from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
 
 from coldplate.plate import conduction, psychro
-from coldplate.plate.convection import nusselt, nusselt_local
+from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt, nusselt_local
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
 from coldplate.plate.result import MethodUse, Profile, Result
@@ -279,13 +282,16 @@ def _methods(friction_methods, convection_methods, **values) -> tuple[MethodUse,
 def _assumptions(d: Design) -> tuple[str, ...]:
     out = [
         "steady state; the heated footprint is centred on the plate with a uniform heat flux",
-        "the passage's back-side resistances are smeared over the plate area as one effective coefficient "
-        "for the spreading series; the coolant's bulk temperature rise is added along the flow",
+        "the passage's back-side resistances are smeared over the cooled length as one effective coefficient "
+        "for the spreading series; along the flow the local coefficient (and fin efficiency) changes the base "
+        "temperature, conducted along the base only; the coolant's bulk temperature rise is added along the flow",
         "coolant properties at the bulk mean temperature and the line pressure; flow given at inlet conditions",
         "the sides and the lid of the plate are adiabatic (no heat to room air)",
     ]
     if d.passage.kind == "channels":
         out.append("flow is shared evenly between channels; the walls are fins with an adiabatic tip at the lid")
+        out.append("the plate over the plenums is given no cooling (the channels' conductance is smeared over the "
+                   "channel length only)")
         if d.passage.port_diameter is None:
             out.append("no port diameter given: port losses are not included in the pressure drop")
     elif d.passage.kind == "tube":
@@ -296,6 +302,9 @@ def _assumptions(d: Design) -> tuple[str, ...]:
                        "the outlet temperature (cautious), and the profile's bulk temperature is that value")
     else:
         out.append("flow spreads evenly across the cavity width")
+    if LAMINAR_LOCAL_FORMS[d.model.laminar] is not Nu_Muzychka_Yovanovich_local:
+        out.append(f"the laminar model ({d.model.laminar}) publishes only a length mean: in laminar flow the march "
+                   "takes the fully developed value as the local coefficient (the least along the channel)")
     if d.supply.static_pressure is None:
         out.append("no static pressure given: properties and boiling point at atmospheric pressure")
     return tuple(out)
