@@ -273,7 +273,7 @@ def test_local_march_against_the_projects_3d_finite_volume_solve():
     # conduction 0.0451 (+3.9 %).  The march's remaining shortfall is the two outer walls, wetted on one side in
     # the FV but taken as inner walls by channels.fin_areas.
     from coldplate.plate.passages import channels
-    from coldplate.plate.solve import local_rise, march_points
+    from coldplate.plate.solve import local_rise, march_grid
 
     from .test_plate_conjugate import fv_channel_plate
 
@@ -288,7 +288,7 @@ def test_local_march_against_the_projects_3d_finite_volume_solve():
 
     r_mean = a * b * channels.back_side(d.passage, d.plate, g, r.h).total
     sp = conduction.spreading_MCY(a, b, a, b, t, k, 1.0 / r_mean)
-    x = march_points(a, segments)
+    x = march_grid(a, segments)
     r_x = a * b * np.array([channels.back_side(d.passage, d.plate, g, h_of_x(xi)).total for xi in x])
     delta = conduction.base_axial_perturbation(x[1] - x[0], k * t, sp.cooled_flux_centreline(x), r_x, r_mean)
     march = float(np.max(local_rise(sp.top_rise_centreline(x), delta)))

@@ -125,7 +125,7 @@ def test_plate_table_interpolation_error_is_bounded():
     for _ in range(60):
         t, h, s = rng.uniform(1e-3, 8e-3), 10 ** rng.uniform(2, 5), 10 ** rng.uniform(-3.5, -0.5)
         # local back side: a resistance falling to the mean's 0.7 at the inlet end and rising to 1.4 times it
-        r = (1.0 / h) * np.linspace(0.7, 1.4, table.x.size)
+        r = (1.0 / h) * np.linspace(0.7, 1.4, table.xg.size)
         got = table.rise(t, np.array([h]), np.array([s]), r[None, :])[0]
         worst = max(worst, abs(got / table.exact_rise(t, h, s, r) - 1))
     assert worst < 2e-4

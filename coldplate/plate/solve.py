@@ -44,8 +44,9 @@ if TYPE_CHECKING:
     from coldplate.design.reader import Design
 
 MAX_ITERATIONS = 60
-#: March points per profile point (see march_points).
-PROFILE_EVERY = 4
+#: Intervals of the march grid per segment, and grid points per profile point (see march_grid).
+GRID_PER_SEGMENT = 2
+PROFILE_EVERY = 2
 TOLERANCE_K = 1e-5
 
 
@@ -111,24 +112,28 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     spread = conduction.spreading_MCY(L_cool, d.plate.width, c_cool, d.heat.footprint_width, d.plate.base,
                                       d.plate.conductivity, h_eff)
     n = d.model.segments
-    xg = march_points(L_cool, n)  # the march: the whole cooled length; every PROFILE_EVERY-th point is the profile
+    xg = march_grid(L_cool, n)  # the local coefficient and the base's axial change, over the whole length
+    xf = march_points(L_cool, c_cool, n)  # where the hottest point is searched: the grid and the footprint
     s_path = path_position(xg, L_cool, n, geom)
     cv_x = nusselt_local(Re, pr.Pr, s_path, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
                          laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated, mu_ratio=mu_ratio,
                          mean=cv)
     h_x = np.asarray(cv_x.Nu) * pr.k / geom.D_h
-    backs = [module.back_side(d.passage, d.plate, geom, float(hx)) for hx in h_x]
+    h_at, where = np.unique(h_x, return_inverse=True)  # a serpentine has one local value
+    backs = [module.back_side(d.passage, d.plate, geom, float(hx)) for hx in h_at]
+    backs = [backs[i] for i in np.ravel(where)]
     r_x = A_cool * np.array([bk.total for bk in backs])
-    frac = (np.asarray(spread.absorbed_fraction(xg)) if geom.single_pass else np.ones_like(xg))
-    T_bulk_f = T_in + (T_out - T_in) * frac
     delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
                                                spread.cooled_flux_centreline(xg), r_x, r_mean)
-    T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xg), delta)
-    x_prof, T_bulk, T_top = xg[::PROFILE_EVERY], T_bulk_f[::PROFILE_EVERY], T_top_f[::PROFILE_EVERY]
+    frac = (np.asarray(spread.absorbed_fraction(xf)) if geom.single_pass else np.ones_like(xf))
+    T_bulk_f = T_in + (T_out - T_in) * frac
+    T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xf), np.interp(xf, xg, delta))
+    on_grid = np.searchsorted(xf, xg[::PROFILE_EVERY])  # the profile: points of the grid (all in xf)
+    x_prof, T_bulk, T_top = xf[on_grid], T_bulk_f[on_grid], T_top_f[on_grid]
     i_hot = int(np.argmax(T_top_f))
-    x_hot = float(xg[i_hot]) + off
+    x_hot = float(xf[i_hot]) + off
     T_plate_max = float(T_top_f[i_hot])
-    back_hot = backs[i_hot]
+    back_hot = module.back_side(d.passage, d.plate, geom, float(np.interp(xf[i_hot], xg, h_x)))
     R_int = conduction.R_interface(d.interface.resistance_area, A_fp)
     T_face_max = T_plate_max + Q * R_int
     R_th = (T_face_max - T_in) / Q
@@ -170,7 +175,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         methods=methods,
         profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
         iterations=iteration, assumptions=_assumptions(d), load=Q,
-        Nu_hot=float(np.asarray(cv_x.Nu)[i_hot]), h_hot=float(h_x[i_hot]),
+        Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
     )
     return result
 
@@ -208,13 +213,22 @@ def cooled_span(plate_length: float, offset: float, footprint_length: float) -> 
     return L, min(footprint_length, L)
 
 
-def march_points(length: float, segments: int) -> np.ndarray:
-    """Where the march looks for the hottest point [m from the cooled length's inlet end]: PROFILE_EVERY ·
-    segments + 1 evenly spaced points over the whole cooled length, outlet end included (the coolant's rise
-    can put the hottest point beyond the footprint).  Every PROFILE_EVERY-th point is a point of the profile,
-    so the profile never shows a point hotter than the one reported.  Shared with the sizing evaluator, so
-    both take the maximum over the same points."""
-    return np.linspace(0.0, length, PROFILE_EVERY * segments + 1)
+def march_grid(length: float, segments: int) -> np.ndarray:
+    """The march's grid [m from the cooled length's inlet end]: GRID_PER_SEGMENT · segments + 1 evenly spaced
+    points over the whole cooled length, where the local coefficient, the back side and the base's axial change
+    are computed (linear in between).  Every PROFILE_EVERY-th point is a point of the profile."""
+    return np.linspace(0.0, length, GRID_PER_SEGMENT * segments + 1)
+
+
+def march_points(length: float, footprint_length: float, segments: int) -> np.ndarray:
+    """Where the march looks for the hottest point [m from the cooled length's inlet end]: the grid over the
+    whole cooled length, outlet end included (the coolant's rise can put the hottest point beyond the
+    footprint), and 2·segments + 1 points over the centred footprint, where the spreading field peaks.  The
+    profile's points are among them, so the profile never shows a point hotter than the one reported.  Shared
+    with the sizing evaluator, so both take the maximum over the same points."""
+    x0 = 0.5 * (length - footprint_length)
+    return np.unique(np.concatenate([march_grid(length, segments),
+                                     np.linspace(x0, x0 + footprint_length, 2 * segments + 1)]))
 
 
 def path_position(x, length: float, segments: int, geom) -> np.ndarray:

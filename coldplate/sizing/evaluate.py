@@ -12,7 +12,7 @@ One physics, two evaluation modes.  Every step calls the same function the one-d
   :func:`coldplate.solve.friction_pressure_drop`;
 * back side: :func:`coldplate.passages.channels.fin_areas` (fin efficiency of the walls);
 * the local coefficient along the march: :func:`coldplate.plate.convection.nusselt_local` at the check's
-  march points (:func:`coldplate.plate.solve.march_points`, ``path_position``), the walls' fin efficiency at
+  march grid (:func:`coldplate.plate.solve.march_grid`, ``path_position``), the walls' fin efficiency at
   that coefficient;
 * spreading and the march for the hottest point: :class:`~coldplate.sizing.platetable.PlateTable`
   (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the base's axial change with the
@@ -149,8 +149,8 @@ class Evaluator:
             f[rows] = fr.f
         _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
         h_eff = effective * h / self.A_cool  # 1 / (A_cool R_below), R_below = 1 / (h A_effective)
-        G, Nq, P = n.shape[0], flow.size, self.plate.x.size
-        x = path_position(self.plate.x, self.plate.a, self.plate.segments, SimpleNamespace(single_pass=True))
+        G, Nq, P = n.shape[0], flow.size, self.plate.xg.size
+        x = path_position(self.plate.xg, self.plate.a, self.plate.segments, SimpleNamespace(single_pass=True))
         R_plate = np.empty((G, base.size, Nq))
         step = max(1, LOCAL_BLOCK // (Nq * P))
         for a in range(0, G, step):
@@ -207,7 +207,7 @@ class Evaluator:
                         + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
             V_all[g, 0], Re_all[g, 0] = V, Re
             r_conv = tube_passage.convection(passage, geom, h)[0]
-            x = path_position(self.plate.x, self.plate.a, self.plate.segments, geom)
+            x = path_position(self.plate.xg, self.plate.a, self.plate.segments, geom)
             cv_x = nusselt_local(np.asarray(Re)[:, None], pr.Pr[:, None], x, geom.heated_length, geom.D_h,
                                  geom.alpha, shape=geom.shape, laminar=d.model.laminar, turbulent=d.model.turbulent,
                                  heated=geom.heated)

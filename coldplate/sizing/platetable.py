@@ -1,7 +1,7 @@
 """The plate's hottest point for many candidates: the spreading series and the march, tabulated.
 
-For a fixed plate (cooled length a between the plenums, width b, conductivity k), footprint (c, d) and march
-points x_i (:func:`coldplate.plate.solve.march_points`), the one-design check
+For a fixed plate (cooled length a between the plenums, width b, conductivity k), footprint (c, d), march
+grid (:func:`coldplate.plate.solve.march_grid`) and search points x_i (``march_points``), the one-design check
 (:func:`coldplate.plate.solve.solve_plate`) finds the hottest top-face point as
 
     R_plate = max_i [ s · F_i(t, h) + max(0, G_i(t, h) + δ_i) ]                          [K/W]
@@ -10,8 +10,8 @@ with F_i the fraction of the heat absorbed by the coolant up to x_i, G_i the top
 centre line (both from :func:`coldplate.plate.conduction.spreading_MCY` at base thickness t and the smeared
 mean back-side coefficient h = h_eff), s = (T_out − T_in)/Q the coolant's rise per watt (F_i = 1 for a
 serpentine) and δ_i the change the local back side makes
-(:func:`coldplate.plate.conduction.base_axial_perturbation` from the series' cooled-face flux q_i and the
-candidate's local back-side resistances r_i).  Only t and h come from the expensive series, so
+(:func:`coldplate.plate.conduction.base_axial_perturbation` on the grid from the series' cooled-face flux q and
+the candidate's local back-side resistances r there, interpolated linearly to x_i).  Only t and h come from the expensive series, so
 :class:`PlateTable` evaluates it at fixed nodes h_j = 10^(j/N) per base thickness (cached) and interpolates
 F_i, G_i − 1/(h a b) and q_i in log h with a cubic through the four nodes around each candidate; the known
 one-dimensional part 1/(h a b) is added back exactly.  The same functions and the same march points are used
@@ -24,12 +24,12 @@ import numpy as np
 
 from coldplate.plate.conduction import base_axial_perturbation, spreading_MCY
 from coldplate.plate.passages import PASSAGES
-from coldplate.plate.solve import cooled_span, local_rise, march_points
+from coldplate.plate.solve import cooled_span, local_rise, march_grid, march_points
 
 #: Nodes per decade of h_eff (see the module docstring for the error this gives).
 NODES_PER_DECADE = 16
 #: Candidates handled at once (the temporaries are block × march points).
-BLOCK = 2048
+BLOCK = 8192
 
 
 class PlateTable:
@@ -41,8 +41,13 @@ class PlateTable:
         self.a, self.c = cooled_span(length, cooled_offset, footprint_length)
         self.b, self.d, self.k = width, footprint_width, conductivity
         self.segments = int(segments)
-        self.x = march_points(self.a, self.segments)
-        self.spacing = float(self.x[1] - self.x[0])
+        self.x = march_points(self.a, self.c, self.segments)  # the hottest-point search
+        self.xg = march_grid(self.a, self.segments)  # the local back side and the base's axial change
+        self.spacing = float(self.xg[1] - self.xg[0])
+        # linear interpolation from the grid to the search points (np.interp in the check): grid rows i, i + 1
+        self._left = np.clip(np.searchsorted(self.xg, self.x, side="right") - 1, 0, self.xg.size - 2)
+        t = (self.x - self.xg[self._left]) / (self.xg[self._left + 1] - self.xg[self._left])
+        self._t = t[:, None]
         self.n = int(nodes_per_decade)
         self._nodes: dict[tuple[float, bool, int], tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
         self.series_evaluations = 0
@@ -67,7 +72,7 @@ class PlateTable:
             s = spreading_MCY(self.a, self.b, self.c, self.d, t, self.k, h)
             F = np.asarray(s.absorbed_fraction(self.x)) if single_pass else np.ones_like(self.x)
             G = np.asarray(s.top_rise_centreline(self.x)) - 1.0 / (h * self.area)
-            q = np.asarray(s.cooled_flux_centreline(self.x))
+            q = np.asarray(s.cooled_flux_centreline(self.xg))
             got = self._nodes[key] = (F, G, q)
             self.series_evaluations += 1
         return got
@@ -77,43 +82,52 @@ class PlateTable:
 
         ``t`` base thickness [m] (one value); ``h_eff`` mean smeared coefficient [W/(m² K)] and ``s``
         (T_out − T_in)/Q [K/W], arrays of one shape (candidates); ``r_local`` the back side's local resistance
-        times the cooled area [m² K/W] at the march points, that shape plus a last axis along them.  NaN h_eff
-        gives NaN.
+        times the cooled area [m² K/W] at the march grid's points (``xg``), that shape plus a last axis along
+        them.  NaN h_eff gives NaN.
         """
         h = np.asarray(h_eff, dtype=float)
         shape = h.shape
         h = h.ravel()
         s = np.broadcast_to(np.asarray(s, dtype=float), shape).ravel()
-        r = np.broadcast_to(np.asarray(r_local, dtype=float), shape + (self.x.size,)).reshape(-1, self.x.size)
+        r = np.broadcast_to(np.asarray(r_local, dtype=float), shape + (self.xg.size,)).reshape(-1, self.xg.size)
         bad = ~np.isfinite(h) | (h <= 0) | ~np.all(np.isfinite(r), axis=-1)
         out = np.full(h.shape, np.nan)
         if bad.all():
             return out.reshape(shape)
         ok = np.flatnonzero(~bad)
-        u = np.log10(h[ok]) * self.n
-        j0 = np.floor(u).astype(np.int64)
-        lo, hi = int(j0.min()) - 1, int(j0.max()) + 2
-        nodes = [self._node(float(t), bool(single_pass), j) for j in range(lo, hi + 1)]
-        tabs = [np.stack([nd[i] for nd in nodes]) for i in range(3)]  # F, G, q: (nodes, points)
+        u_all = np.log10(h[ok]) * self.n
+        order = np.argsort(u_all, kind="stable")  # blocks of neighbouring h: few nodes per block
+        ok, u_all = ok[order], u_all[order]
+        j_all = np.floor(u_all).astype(np.int64)
+        P = self.x.size
         kt = self.k * float(t)
         for a in range(0, ok.size, BLOCK):
-            sel = ok[a:a + BLOCK]
-            jj = j0[a:a + BLOCK] - lo
-            w = (u[a:a + BLOCK] - j0[a:a + BLOCK])[:, None]
-            # cubic Lagrange weights through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1)
+            sel, u, j0 = ok[a:a + BLOCK], u_all[a:a + BLOCK], j_all[a:a + BLOCK]
+            lo, hi = int(j0[0]) - 1, int(j0[-1]) + 2
+            nodes = [self._node(float(t), bool(single_pass), j) for j in range(lo, hi + 1)]
+            table = np.concatenate([np.stack([nd[i] for nd in nodes]) for i in range(3)], axis=1)  # (nodes, 2P+Pg)
+            # cubic Lagrange weights through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1), as a
+            # sparse-by-rows weight matrix, so F, G and q at every point come from one matrix product
+            w = u - j0
             wm, w1, w2 = w + 1.0, w - 1.0, w - 2.0
-            lag = (-w * w1 * w2 / 6.0, wm * w1 * w2 / 2.0, -wm * w * w2 / 2.0, wm * w * w1 / 6.0)
-            F, G, q = (sum(lk * tab[jj + k - 1] for k, lk in enumerate(lag)) for tab in tabs)
-            hb = h[sel][:, None]
-            delta = base_axial_perturbation(self.spacing, kt, q, r[sel], 1.0 / hb[:, 0])
+            weights = np.zeros((sel.size, len(nodes)))
+            rows, jj = np.arange(sel.size), j0 - lo
+            for k, lk in enumerate((-w * w1 * w2 / 6.0, wm * w1 * w2 / 2.0, -wm * w * w2 / 2.0, wm * w * w1 / 6.0)):
+                weights[rows, jj + k - 1] = lk
+            FGq = table.T @ weights.T  # (2P + Pg, block): the points on the leading axis
+            F, G, q = FGq[:P], FGq[P:2 * P], FGq[2 * P:]
+            hb = h[sel]
+            delta = base_axial_perturbation(self.spacing, kt, q, np.ascontiguousarray(r[sel].T), 1.0 / hb,
+                                            x_first=True)
+            delta = (1.0 - self._t) * delta[self._left] + self._t * delta[self._left + 1]
             rise = local_rise(G + 1.0 / (hb * self.area), delta)
-            out[sel] = np.max(s[sel][:, None] * F + rise, axis=1)
+            out[sel] = np.max(s[sel] * F + rise, axis=0)
         return out.reshape(shape)
 
     def exact_rise(self, t: float, h_eff: float, s: float, r_local, single_pass: bool = True) -> float:
         """The same quantity from the series at h_eff itself (no interpolation), for checks [K/W]."""
         sp = spreading_MCY(self.a, self.b, self.c, self.d, t, self.k, h_eff)
         F = np.asarray(sp.absorbed_fraction(self.x)) if single_pass else 1.0
-        delta = base_axial_perturbation(self.spacing, self.k * t, sp.cooled_flux_centreline(self.x),
+        delta = base_axial_perturbation(self.spacing, self.k * t, sp.cooled_flux_centreline(self.xg),
                                         np.asarray(r_local, dtype=float), 1.0 / h_eff)
-        return float(np.max(s * F + local_rise(sp.top_rise_centreline(self.x), delta)))
+        return float(np.max(s * F + local_rise(sp.top_rise_centreline(self.x), np.interp(self.x, self.xg, delta))))
