@@ -45,8 +45,8 @@ if TYPE_CHECKING:
 
 MAX_ITERATIONS = 60
 #: Intervals of the march grid per segment, and grid points per profile point (see march_grid).
-GRID_PER_SEGMENT = 2
-PROFILE_EVERY = 2
+GRID_PER_SEGMENT = 1
+PROFILE_EVERY = 1
 TOLERANCE_K = 1e-5
 
 
@@ -223,12 +223,12 @@ def march_grid(length: float, segments: int) -> np.ndarray:
 def march_points(length: float, footprint_length: float, segments: int) -> np.ndarray:
     """Where the march looks for the hottest point [m from the cooled length's inlet end]: the grid over the
     whole cooled length, outlet end included (the coolant's rise can put the hottest point beyond the
-    footprint), and 2·segments + 1 points over the centred footprint, where the spreading field peaks.  The
+    footprint), and segments + 1 points over the centred footprint, where the spreading field peaks.  The
     profile's points are among them, so the profile never shows a point hotter than the one reported.  Shared
     with the sizing evaluator, so both take the maximum over the same points."""
     x0 = 0.5 * (length - footprint_length)
     return np.unique(np.concatenate([march_grid(length, segments),
-                                     np.linspace(x0, x0 + footprint_length, 2 * segments + 1)]))
+                                     np.linspace(x0, x0 + footprint_length, segments + 1)]))
 
 
 def path_position(x, length: float, segments: int, geom) -> np.ndarray:
