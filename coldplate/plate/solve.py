@@ -71,7 +71,6 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     m_dot = pr_in.rho * flow  # the volumetric flow is taken at inlet conditions
     H_in = enthalpy(coolant, T_in, p)
     total_area = geom.n_parallel * geom.flow_area
-    A_plate = d.plate.length * d.plate.width
     A_fp = d.heat.footprint_length * d.heat.footprint_width
 
     T_out = T_in + Q / (m_dot * pr_in.cp)
