@@ -43,7 +43,7 @@ def _grid(breaks, size):
 
 
 def fv_channel_plate(a, b, c, d, t, k, h, n, w, depth, cell_x=1e-3, cell_y=0.5e-3, nz_base=4,
-                     nz_wall=6, k_along_walls=1.0):
+                     nz_wall=6, k_along_walls=1.0, h_of_x=None):
     """Top-face maximum rise per watt [K/W] of a plate with ``n`` resolved channels.
 
     Quarter of the plate (x from the source centre along the flow, y from the
@@ -54,7 +54,10 @@ def fv_channel_plate(a, b, c, d, t, k, h, n, w, depth, cell_x=1e-3, cell_y=0.5e-
     outer faces and plate ends are adiabatic.  Uniform flux over the centred
     c×d footprint, 1 W on the whole plate.  ``k_along_walls`` scales the
     conductivity along x inside the walls (1 = isotropic metal; 0 is used to
-    isolate which approximation of the smeared model matters).
+    isolate which approximation of the smeared model matters).  ``h_of_x``: a
+    callable giving the coefficient at x from the plate's inlet end [m]; the
+    whole length is then meshed (x from -a/2 to a/2 about the source centre;
+    only the across-flow symmetry is used) and 1 W leaves half the plate.
     """
     tw = (b - n * w) / (n + 1)
     yb = [b / 2, b / 2 + d / 2, b]
@@ -64,7 +67,12 @@ def fv_channel_plate(a, b, c, d, t, k, h, n, w, depth, cell_x=1e-3, cell_y=0.5e-
     ye, dy = _grid(yb, cell_y)
     ye = ye - b / 2
     wall = ((0.5 * (ye[1:] + ye[:-1]) + b / 2) % (w + tw)) < tw
-    xe, dx = _grid(np.array([0.0, c / 2, a / 2]), cell_x)
+    if h_of_x is None:
+        xe, dx = _grid(np.array([0.0, c / 2, a / 2]), cell_x)
+        hx = np.full(dx.size, float(h))
+    else:
+        xe, dx = _grid(np.unique([-a / 2, -c / 2, c / 2, a / 2]), cell_x)
+        hx = np.array([h_of_x(xc + a / 2) for xc in 0.5 * (xe[1:] + xe[:-1])])
     dz = np.r_[np.full(nz_base, t / nz_base), np.full(nz_wall, depth / nz_wall)]
     shape = (dx.size, dy.size, dz.size)
     solid = np.ones(shape, bool)
@@ -96,12 +104,12 @@ def fv_channel_plate(a, b, c, d, t, k, h, n, w, depth, cell_x=1e-3, cell_y=0.5e-
 
     # convective faces: channel floors, then wall faces next to a channel cell
     cool_idx = [idx[:, ~wall, nz_base - 1].ravel()]
-    cool_G = [(np.outer(dx, dy[~wall]) / (dz[nz_base - 1] / (2 * k) + 1 / h)).ravel()]
+    cool_G = [(np.outer(dx, dy[~wall]) / (dz[nz_base - 1] / (2 * k) + 1 / hx[:, None])).ravel()]
     for j in np.flatnonzero(wall):
         wet = sum(1 for jn in (j - 1, j + 1) if 0 <= jn < dy.size and not wall[jn])
         if wet:
             cool_idx.append(idx[:, j, nz_base:].ravel())
-            cool_G.append(wet * np.outer(dx, dz[nz_base:]).ravel() / (dy[j] / (2 * k) + 1 / h))
+            cool_G.append((wet * np.outer(dx, dz[nz_base:]) / (dy[j] / (2 * k) + 1 / hx[:, None])).ravel())
     ci, cg = np.concatenate(cool_idx), np.concatenate(cool_G)
     np.add.at(diag, ci, cg)
     rows.append(np.arange(N))
@@ -110,7 +118,7 @@ def fv_channel_plate(a, b, c, d, t, k, h, n, w, depth, cell_x=1e-3, cell_y=0.5e-
     M = coo_matrix((np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))),
                    shape=(N, N)).tocsr()
 
-    ox = np.clip(np.minimum(xe[1:], c / 2) - xe[:-1], 0, None)
+    ox = np.clip(np.minimum(xe[1:], c / 2) - np.maximum(xe[:-1], -c / 2), 0, None)
     oy = np.clip(np.minimum(ye[1:], d / 2) - ye[:-1], 0, None)
     q_top = np.outer(ox, oy) / (c * d)  # W into each top cell (1 W on the full plate)
     rhs = np.zeros(N)

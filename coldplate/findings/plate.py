@@ -400,6 +400,24 @@ def face_absurd(r):
             f"Spread the load, improve the interface and the plate, or lower the load: {what}. " + DEFER)
 
 
+def footprint_over_plenum(r):
+    """The plate model cools only the length between the plenums (coldplate.plate.solve.cooled_span)."""
+    off = r.geometry.cooled_offset
+    d = r.design
+    cooled = d.plate.length - 2 * off
+    if off > 0 and d.heat.footprint_length > cooled * (1 + 1e-9):
+        over = 0.5 * (d.heat.footprint_length - cooled)
+        yield Finding(
+            "footprint-over-plenum", "caution",
+            f"The {d.heat.footprint_length * 1e3:.4g} mm footprint reaches {over * 1e3:.3g} mm over each plenum, "
+            f"beyond the {cooled * 1e3:.4g} mm of channels: the plate model gives the plate over a plenum no "
+            "cooling and counts that heat at the channels' ends, so the face over the plenums may run hotter "
+            "than reported.",
+            "Keep the heated footprint within the channel length (shorter plenums or a longer plate), or check "
+            "the plenum ends against a test or a finer model.")
+
+
 RULES = (face_absurd, condensation, freezing, freezing_room, boiling, cross_connection, discharge, velocity,
-         pressure_budget, pressure, loss_of_flow, small_passages, metals, electrical, ranges, cavity_distribution)
+         pressure_budget, pressure, loss_of_flow, small_passages, metals, electrical, ranges, cavity_distribution,
+         footprint_over_plenum)
 

@@ -157,12 +157,20 @@ class Spreading:
     _Am: np.ndarray = field(repr=False, compare=False)  # A_m per watt
     _Cm: np.ndarray = field(repr=False, compare=False)  # A_m + sum_n A_mn cos(δ b/2)
     _C0: float = field(repr=False, compare=False)  # A0 + sum_n A_n cos(δ b/2)
+    _Bm: np.ndarray = field(repr=False, compare=False)  # cooled-face amplitudes on y = b/2, per watt
+    _B0: float = field(repr=False, compare=False)
 
     def top_rise_centreline(self, x):
         """Top-face temperature rise per watt [K/W] along y = b/2 at x [m] (0..a)."""
         x = np.asarray(x, dtype=float)
         out = self._C0 + np.cos(np.multiply.outer(x, self._lam)) @ self._Cm
         return _out(out)
+
+    def cooled_flux_centreline(self, x):
+        """Heat flux per watt [1/m²] leaving the cooled face along y = b/2 at x [m]: h times the cooled face's
+        rise, the same series with each mode scaled by its bottom-to-top ratio ζ / (ζ cosh ζt + (h/k) sinh ζt)."""
+        x = np.asarray(x, dtype=float)
+        return _out(self.h * (self._B0 + np.cos(np.multiply.outer(x, self._lam)) @ self._Bm))
 
     def absorbed_fraction(self, x):
         """Fraction [-] of the heat that left through the cooled face between 0 and x [m]."""
@@ -222,4 +230,62 @@ def spreading_MCY(a, b, c, d, t, k, h, n_terms=200):
         R_1D=A0, R_mean=float(R_mean), R_spreading_mean=float(R_mean - A0),
         R_centroid=float(R_centroid),
         _lam=lam, _Am=Am, _Cm=Am + Amn @ cy, _C0=float(A0 + An @ cy),
+        _Bm=Am * _bottom(lam, t, H) + (Amn * _bottom(beta, t, H)) @ cy,
+        _B0=float(1.0 / (h * a * b) + (An * _bottom(dl, t, H)) @ cy),
     )
+
+
+def base_axial_perturbation(spacing, k_t, flux, r_local, r_mean, x_first=False):
+    """Change of the base temperature along the flow when the back side's resistance varies along it [K/W].
+
+    The base, a strip of conductance k t [W/K] along x, carries the cooled-face flux q(x) [1/m² per watt] of a
+    solution with the uniform back-side resistance r_m [m² K/W]; with the local resistance r(x) instead, the
+    change δ(x) solves the one-dimensional fin equation with adiabatic ends
+
+        k t δ'' - δ / r = -q (r - r_m) / r
+
+    (second-order central differences on the uniform grid of ``spacing`` [m], mirror nodes at both ends,
+    Thomas algorithm).  Without axial conduction (k t -> 0) δ = q (r - r_m): all the heat crossing at x
+    meets the local resistance there.  ``flux``, ``r_local`` arrays whose last axis runs along x; ``r_mean``,
+    ``k_t`` broadcast against them.  Conduction across the flow is left out (the change does not spread
+    sideways: a larger change where r is large, a cautious simplification).  ``x_first``: the arrays run
+    along x on their first axis instead (r_mean, k_t broadcast against the rest), and so does the result.
+    """
+    q = np.asarray(flux, dtype=float)
+    r = np.asarray(r_local, dtype=float)
+    r, q = np.broadcast_arrays(r, q)
+    expand = (lambda v: v) if x_first else (lambda v: v[..., None])  # noqa: E731
+    rm = expand(np.asarray(r_mean, dtype=float)) if np.ndim(r_mean) else float(r_mean)
+    kt = expand(np.asarray(k_t, dtype=float)) if np.ndim(k_t) else float(k_t)
+    c = kt * r / spacing**2  # c δ[i-1] - (1 + 2c) δ[i] + c δ[i+1] = -q (r - r_m)
+    rhs = q * (r - rm)
+    n = r.shape[0] if x_first else r.shape[-1]
+    if c.ndim == 1:  # one plate (the check): the same sweeps on Python floats, without numpy's per-element cost
+        cl, bl = c.tolist(), rhs.tolist()
+        cp_, dp_ = [0.0] * n, [0.0] * n
+        cp_[0], dp_[0] = -2.0 * cl[0] / (1.0 + 2.0 * cl[0]), bl[0] / (1.0 + 2.0 * cl[0])
+        for i in range(1, n):
+            lo = cl[i] * (2.0 if i == n - 1 else 1.0)
+            den = 1.0 + 2.0 * cl[i] + lo * cp_[i - 1]
+            cp_[i] = -cl[i] / den
+            dp_[i] = (bl[i] + lo * dp_[i - 1]) / den
+        for i in range(n - 2, -1, -1):
+            dp_[i] -= cp_[i] * dp_[i + 1]
+        return np.array(dp_)
+    # many plates: sweep along x with x as the leading, contiguous axis (rows of candidates)
+    if not x_first:
+        c = np.ascontiguousarray(np.moveaxis(c, -1, 0))
+        rhs = np.ascontiguousarray(np.moveaxis(rhs, -1, 0))
+    cp = np.empty_like(c)
+    dp = np.empty_like(c)
+    den = 1.0 + 2.0 * c[0]
+    cp[0] = -2.0 * c[0] / den  # mirror node δ[-1] = δ[1]
+    dp[0] = rhs[0] / den
+    for i in range(1, n):
+        lo = 2.0 * c[i] if i == n - 1 else c[i]  # mirror node δ[n] = δ[n-2]
+        den = 1.0 + 2.0 * c[i] + lo * cp[i - 1]
+        cp[i] = -c[i] / den
+        dp[i] = (rhs[i] + lo * dp[i - 1]) / den
+    for i in range(n - 2, -1, -1):
+        dp[i] -= cp[i] * dp[i + 1]
+    return _out(dp if x_first else np.moveaxis(dp, 0, -1))

@@ -319,18 +319,55 @@ def Nu_rectangular_Shah_London(alpha, heated="4", condition="H1"):
 
 # Muzychka & Yovanovich (2004) constants: (C1, C3, Prandtl-function numerator and constant)
 _MY_CONST = {"T": (3.24, 0.409, 0.564, 1.664), "H1": (3.86, 0.501, 0.886, 1.909)}
-_MY_C2_MEAN, _MY_C4_MEAN, _MY_GAMMA = 1.5, 2.0, 0.1
-#: sqrt(A)/D of a circle, sqrt(pi)/2 (geometry).
-_SQRT_A_OVER_D_CIRCLE = math.sqrt(math.pi) / 2.0
+_MY_GAMMA = 0.1
+# C2 (Graetz-Leveque asymptote) and C4 (Pohlhausen developing-flow asymptote): the paper gives both sets,
+# local and mean (from memory).  They follow from the asymptotes themselves: a local value proportional to
+# z^(-1/3) averages to 3/2 of its end value over 0..z, one proportional to z^(-1/2) to 2 of it; the tests
+# check that the local form integrated along the duct gives the mean form in both limits.
+_MY_C2_MEAN, _MY_C4_MEAN = 1.5, 2.0
+_MY_C2_LOCAL, _MY_C4_LOCAL = 1.0, 1.0
+
+_MY_REFERENCE = (
+    "Muzychka, Y.S., Yovanovich, M.M. (2004) Laminar forced convection heat transfer in "
+    "the combined entry region of non-circular ducts, J. Heat Transfer 126(1):54-61, "
+    "doi:10.1115/1.1643752 (stated accuracy about 10 %)"
+)
+
+
+def _my_sqrtA_basis(shape, alpha):
+    """r = sqrt(A)/D_h and the fully developed Fanning f Re on the sqrt(A) scale of a rectangle or circle."""
+    if shape == "circle":
+        r = math.sqrt(math.pi) / 2.0
+        return r, 16.0 * r  # Poiseuille: Fanning f Re_D = 16
+    r = np.asarray(sqrtA_over_Dh(alpha), dtype=float)
+    return r, r * np.asarray(fRe_rectangular_Shah_London(alpha), dtype=float) / 4.0
+
+
+def _my_combined(Re, Pr, z_length, D_h, alpha, condition, Nu_fd, C2, C4, shape="rectangle"):
+    """The Muzychka & Yovanovich blend on D_h with the given C2, C4 (mean or local set)."""
+    _check_condition(condition)
+    Re = np.asarray(Re, dtype=float)
+    Pr = np.asarray(Pr, dtype=float)
+    r, fRe = _my_sqrtA_basis(shape, alpha)
+    C1, C3, c0, cpr = _MY_CONST[condition]
+    z = np.asarray(z_length, dtype=float) / (np.asarray(D_h, dtype=float) * r * (r * Re) * Pr)
+    m = 2.27 + 1.65 * Pr ** (1.0 / 3.0)
+    fPr = c0 / (1.0 + (cpr * Pr ** (1.0 / 6.0)) ** 4.5) ** (2.0 / 9.0)
+    if Nu_fd is None:
+        a = 1.0 if shape == "circle" else np.asarray(alpha, dtype=float)
+        nu_fd = C1 * fRe / (8.0 * math.sqrt(math.pi) * a ** _MY_GAMMA)
+    else:
+        nu_fd = np.asarray(Nu_fd, dtype=float) * r
+    pohlhausen = C4 * fPr / np.sqrt(z)
+    graetz = ((C2 * C3 * (fRe / z) ** (1.0 / 3.0)) ** 5 + nu_fd**5) ** 0.2
+    top = np.maximum(pohlhausen, graetz)  # scaled by the larger term: no overflow for large m (viscous liquids)
+    nu_sqrtA = top * ((pohlhausen / top) ** m + (graetz / top) ** m) ** (1.0 / m)
+    return _out(nu_sqrtA / r)
 
 
 @with_validity(Validity(
     method="Muzychka & Yovanovich",
-    reference=(
-        "Muzychka, Y.S., Yovanovich, M.M. (2004) Laminar forced convection heat transfer in "
-        "the combined entry region of non-circular ducts, J. Heat Transfer 126(1):54-61, "
-        "doi:10.1115/1.1643752 (stated accuracy about 10 %)"
-    ),
+    reference=_MY_REFERENCE,
     bounds=(
         Bound("Re", 0.0, RE_LAMINAR_END, "laminar"),
         Bound("Pr", 0.1, INF, "the paper's comparisons span about 0.1 to infinity"),
@@ -357,30 +394,42 @@ def Nu_Muzychka_Yovanovich_combined(Re, Pr, L, D_h, alpha, condition="H1", Nu_fd
     Nu_Dh = Nu_sqrtA / r.  ``shape`` "circle" (a round tube, D_h its
     diameter, alpha ignored): r = sqrt(pi)/2 and the circle's Fanning
     f Re = 16 on D, so f Re_sqrtA = 8 sqrt(pi) (the paper's circular duct).
+    The length-mean over 0..L: use it for mean quantities; the local value at
+    a point is :func:`Nu_Muzychka_Yovanovich_local`.
     """
-    _check_condition(condition)
-    Re = np.asarray(Re, dtype=float)
-    Pr = np.asarray(Pr, dtype=float)
-    if shape == "circle":
-        alpha = 1.0
-        r = np.asarray(_SQRT_A_OVER_D_CIRCLE)
-        fRe = r * 16.0
-    elif shape == "rectangle":
-        r = np.asarray(sqrtA_over_Dh(alpha), dtype=float)
-        fRe = r * np.asarray(fRe_rectangular_Shah_London(alpha), dtype=float) / 4.0
-    else:
+    if shape not in ("rectangle", "circle"):
         raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
-    C1, C3, c0, cpr = _MY_CONST[condition]
-    z = np.asarray(L, dtype=float) / (np.asarray(D_h, dtype=float) * r * (r * Re) * Pr)
-    m = 2.27 + 1.65 * Pr ** (1.0 / 3.0)
-    fPr = c0 / (1.0 + (cpr * Pr ** (1.0 / 6.0)) ** 4.5) ** (2.0 / 9.0)
-    if Nu_fd is None:
-        nu_fd = C1 * fRe / (8.0 * math.sqrt(math.pi) * np.asarray(alpha, dtype=float) ** _MY_GAMMA)
-    else:
-        nu_fd = np.asarray(Nu_fd, dtype=float) * r
-    developing = (_MY_C2_MEAN * C3 * (fRe / z) ** (1.0 / 3.0)) ** 5
-    nu_sqrtA = ((_MY_C4_MEAN * fPr / np.sqrt(z)) ** m + (developing + nu_fd**5) ** (m / 5.0)) ** (1.0 / m)
-    return _out(nu_sqrtA / r)
+    return _my_combined(Re, Pr, L, D_h, alpha, condition, Nu_fd, _MY_C2_MEAN, _MY_C4_MEAN, shape)
+
+
+@with_validity(Validity(
+    method="Muzychka & Yovanovich (local)",
+    reference=_MY_REFERENCE + "; local constants C2 = 1, C4 = 1 of the same paper (from memory)",
+    bounds=(
+        Bound("Re", 0.0, RE_LAMINAR_END, "laminar"),
+        Bound("Pr", 0.1, INF, "the paper's comparisons span about 0.1 to infinity"),
+        Bound("alpha", 1e-6, 1.0, "short/long side, > 0 for the sqrt(A) scale"),
+    ),
+))
+def Nu_Muzychka_Yovanovich_local(Re, Pr, x, D_h, alpha, condition="H1", Nu_fd=None, shape="rectangle"):
+    """Local Nu on D_h at a distance x from the duct's entry, simultaneously developing laminar flow [-].
+
+    The same blend as :func:`Nu_Muzychka_Yovanovich_combined` with the
+    paper's local constants and the local coordinate z* = x / (sqrt(A) Re_sqrtA Pr)::
+
+        Nu_x = [ (C4 f(Pr) / sqrt(z*))^m
+                 + ( (C2 C3 (fRe / z*)^(1/3))^5 + Nu_fd^5 )^(m/5) ]^(1/m)
+        C2 = 1, C4 = 1 (local values; the mean form has 3/2 and 2)
+
+    m, C1, C3, f(Pr), Nu_fd as in the mean form.  Re on D_h, Pr [-], x > 0 and
+    D_h [m], alpha short/long side [-] (ignored for ``shape="circle"``, where
+    sqrt(A)/D = sqrt(pi)/2 and Fanning f Re_D = 16).  Nu_x falls from the
+    entry towards Nu_fd, so the coefficient at the outlet end is the smallest
+    along the duct.
+    """
+    if shape not in ("rectangle", "circle"):
+        raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
+    return _my_combined(Re, Pr, x, D_h, alpha, condition, Nu_fd, _MY_C2_LOCAL, _MY_C4_LOCAL, shape)
 
 
 # ---------------------------------------------------------------- selector
@@ -497,3 +546,65 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
         methods=tuple(used),
         transition_weight=_out(w),
     )
+
+
+# ---------------------------------------------------------------- local coefficient along the duct
+
+#: The local form each laminar model uses for the coefficient at a point: its own local form where the method
+#: publishes one, otherwise the fully developed value, the smallest local coefficient along a thermal entry
+#: (Shah & London 1978), so the face at that point is not reported cooler.
+LAMINAR_LOCAL_FORMS = {
+    "muzychka-yovanovich": Nu_Muzychka_Yovanovich_local,
+    "hausen": Nu_rectangular_Shah_London,
+    "sieder-tate": Nu_rectangular_Shah_London,
+    "fully-developed": Nu_rectangular_Shah_London,
+}
+
+
+def _laminar_local(name, Re, Pr, x, D_h, alpha, shape, heated, condition):
+    """Local laminar Nu at x [m] from the entry and the Validity records used."""
+    nu_fd, v_fd = _fully_developed(shape, alpha, heated, condition)
+    if LAMINAR_LOCAL_FORMS[name] is not Nu_Muzychka_Yovanovich_local:
+        return _out(np.broadcast_to(np.asarray(nu_fd, dtype=float), np.broadcast(Re, x).shape)), (v_fd,)
+    a = 1.0 if shape == "circle" else alpha
+    nu = Nu_Muzychka_Yovanovich_local(Re, Pr, x, D_h, a, condition, Nu_fd=nu_fd, shape=shape)
+    return nu, (Nu_Muzychka_Yovanovich_local.validity, v_fd)
+
+
+def nusselt_local(Re, Pr, x, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovich",
+                  turbulent="gnielinski", heated="4", mu_ratio=1.0, rel_roughness=0.0,
+                  condition="H1", mean: ConvectionResult | None = None) -> ConvectionResult:
+    """Local Nusselt number on D_h at x [m] from the entry of a channel of length L, all regimes [-].
+
+    The laminar part is the laminar model's local form (``LAMINAR_LOCAL_FORMS``: the local Muzychka &
+    Yovanovich constants, or the fully developed value for models that publish only a mean); the rest is
+    :func:`nusselt`'s own blend, so in the transition the local laminar value at Re = 2300 takes the laminar
+    share and the turbulent share is unchanged:
+
+        Nu_x = Nu_mean - (1 - w) (Nu_lam,mean - Nu_lam,x),   w = transition_weight(Re)
+
+    with both laminar values at min(Re, 2300).  The turbulent share drops Gnielinski's length factor
+    [1 + (D_h/L)^(2/3)], which is an entry effect of the mean over the length: locally, away from the entry, the
+    turbulent coefficient is the fully developed one (the lower, so the face there is not reported cooler)::
+
+        Nu_x -= w (Nu_turb(L/D_h) - Nu_turb(L/D_h -> infinity)),   at max(Re, 1e4)
+
+    ``mean``: the :func:`nusselt` result for the same arguments,
+    when already computed.  x broadcasts against Re (e.g. Re (G, 1, Nq) and x (1, P, 1)).  ``methods`` lists
+    the local form's record and the records of the mean blend.
+    """
+    if mean is None:
+        mean = nusselt(Re, Pr, L, D_h, alpha, shape, laminar, turbulent, heated, mu_ratio, rel_roughness, condition)
+    Re = np.asarray(Re, dtype=float)
+    Re_turb = np.maximum(Re, RE_TURBULENT_START)
+    L_over_D = np.asarray(L, dtype=float) / np.asarray(D_h, dtype=float)
+    entry = (np.asarray(_turbulent(turbulent, Re_turb, Pr, L_over_D, rel_roughness))
+             - np.asarray(_turbulent(turbulent, Re_turb, Pr, np.inf, rel_roughness)))
+    Re_lam = np.minimum(Re, RE_LAMINAR_END)
+    lam_mean, _ = _laminar(laminar, Re_lam, Pr, L, D_h, alpha, shape, heated, mu_ratio, condition)
+    lam_x, v_local = _laminar_local(laminar, Re_lam, Pr, np.asarray(x, dtype=float), D_h, alpha, shape, heated,
+                                    condition)
+    w = np.asarray(mean.transition_weight, dtype=float)
+    Nu = np.asarray(mean.Nu) - (1.0 - w) * (np.asarray(lam_mean) - np.asarray(lam_x)) - w * entry
+    used = tuple(v_local) + tuple(v for v in mean.methods if v not in v_local) if np.any(w < 1) else mean.methods
+    return ConvectionResult(Nu=_out(Nu), regime=mean.regime, methods=used, transition_weight=mean.transition_weight)

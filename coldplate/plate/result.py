@@ -81,3 +81,5 @@ class Result:
     module: ModuleResult | None = None  #: thermoelectric modules solved with the plate (from [module])
     circuit: CircuitResult | None = None  #: the operating point in its circuit ([circuit])
     planning: PlanningResult | None = None  #: least flow, water and money per year (once-through)
+    Nu_hot: float | None = None  #: local Nusselt number where the hottest point is (Nu is the length mean)
+    h_hot: float | None = None  #: local heat transfer coefficient there [W/(m^2 K)]

@@ -11,10 +11,13 @@ Chain (each step a published method, see DEVELOPERS.md):
    losses of plenums, ports and bends;
 4. Nusselt number → heat transfer coefficient → the passage's back-side
    resistances (fins, bond, tube wall, convection);
-5. the plate: Muzychka-Culham-Yovanovich spreading series with the back side
-   smeared into an effective coefficient over the plate, then a march along the
-   flow adding the coolant's local bulk temperature rise, so the hottest point of
-   the mounting face is found, not assumed.
+5. the plate: Muzychka-Culham-Yovanovich spreading series with the mean back side
+   smeared into an effective coefficient over the cooled length (between a channel
+   plate's plenums), then a march over that whole length: at each point the local
+   Nusselt number (the laminar model's local form), the back side and fin efficiency
+   at that coefficient, the change this makes to the base temperature with axial
+   conduction in the base, and the coolant's local bulk temperature, so the hottest
+   point of the mounting face is found, not assumed, beyond the footprint too.
 
 The check (``coldplate/check.py``) runs this with the modules, the supply and the findings.
 """
@@ -32,7 +35,7 @@ from hydraulics.friction import darcy_friction
 from hydraulics.losses import total_pressure_drop
 
 from coldplate.plate import conduction, psychro
-from coldplate.plate.convection import nusselt
+from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt, nusselt_local
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
 from coldplate.plate.result import MethodUse, Profile, Result
@@ -41,6 +44,9 @@ if TYPE_CHECKING:
     from coldplate.design.reader import Design
 
 MAX_ITERATIONS = 60
+#: Intervals of the march grid per segment, and grid points per profile point (see march_grid).
+GRID_PER_SEGMENT = 1
+PROFILE_EVERY = 1
 TOLERANCE_K = 1e-5
 
 
@@ -65,7 +71,6 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     m_dot = pr_in.rho * flow  # the volumetric flow is taken at inlet conditions
     H_in = enthalpy(coolant, T_in, p)
     total_area = geom.n_parallel * geom.flow_area
-    A_plate = d.plate.length * d.plate.width
     A_fp = d.heat.footprint_length * d.heat.footprint_width
 
     T_out = T_in + Q / (m_dot * pr_in.cp)
@@ -95,38 +100,48 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                          f"(last change {change:.3g} K)")
     _check_outlet(T_out, T_boil, coolant, p)
 
-    # --- the plate: spreading with the back side smeared over the plate, then the march
+    # --- the plate: spreading with the mean back side smeared over the cooled length, then the march with the
+    # local coefficient and the local bulk temperature at each point
+    off = geom.cooled_offset
+    L_cool, c_cool = cooled_span(d.plate.length, off, d.heat.footprint_length)
+    A_cool = L_cool * d.plate.width
     R_below = back.total
-    h_eff = 1.0 / (A_plate * R_below)
-    spread = conduction.spreading_MCY(d.plate.length, d.plate.width, d.heat.footprint_length,
-                                      d.heat.footprint_width, d.plate.base, d.plate.conductivity, h_eff)
-    def bulk(xs):
-        # A serpentine crosses the plate once per pass: take the outlet temperature everywhere (cautious).
-        frac = np.asarray(spread.absorbed_fraction(xs)) if geom.single_pass else np.ones_like(xs)
-        return T_in + (T_out - T_in) * frac
-
-    def top(xs):
-        """Bulk temperature and plate top-face temperature on the centre line at ``xs``."""
-        T_b = bulk(xs)
-        return T_b, T_b + Q * np.asarray(spread.top_rise_centreline(xs))
-
+    r_mean = A_cool * R_below  # 1 / h_eff [m² K/W]
+    h_eff = 1.0 / r_mean
+    spread = conduction.spreading_MCY(L_cool, d.plate.width, c_cool, d.heat.footprint_width, d.plate.base,
+                                      d.plate.conductivity, h_eff)
     n = d.model.segments
-    x = np.linspace(0.0, d.plate.length, n + 1)
-    T_bulk, T_top = top(x)
-    xf = march_points(d.plate.length, d.heat.footprint_length, n)  # the march over the footprint
-    T_bulk_f, T_top_f = top(xf)
+    xg = march_grid(L_cool, n)  # the local coefficient and the base's axial change, over the whole length
+    xf = march_points(L_cool, c_cool, n)  # where the hottest point is searched: the grid and the footprint
+    s_path = path_position(xg, L_cool, n, geom)
+    cv_x = nusselt_local(Re, pr.Pr, s_path, geom.heated_length, geom.D_h, geom.alpha, shape=geom.shape,
+                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated, mu_ratio=mu_ratio,
+                         rel_roughness=geom.rel_roughness, mean=cv)
+    h_x = np.asarray(cv_x.Nu) * pr.k / geom.D_h
+    h_at, where = np.unique(h_x, return_inverse=True)  # a serpentine has one local value
+    backs = [module.back_side(d.passage, d.plate, geom, float(hx)) for hx in h_at]
+    backs = [backs[i] for i in np.ravel(where)]
+    r_x = A_cool * np.array([bk.total for bk in backs])
+    delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
+                                               spread.cooled_flux_centreline(xg), r_x, r_mean)
+    frac = (np.asarray(spread.absorbed_fraction(xf)) if geom.single_pass else np.ones_like(xf))
+    T_bulk_f = T_in + (T_out - T_in) * frac
+    T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xf), np.interp(xf, xg, delta))
+    on_grid = np.searchsorted(xf, xg[::PROFILE_EVERY])  # the profile: points of the grid (all in xf)
+    x_prof, T_bulk, T_top = xf[on_grid], T_bulk_f[on_grid], T_top_f[on_grid]
     i_hot = int(np.argmax(T_top_f))
-    x_hot = float(xf[i_hot])
+    x_hot = float(xf[i_hot]) + off
     T_plate_max = float(T_top_f[i_hot])
+    back_hot = module.back_side(d.passage, d.plate, geom, float(np.interp(xf[i_hot], xg, h_x)))
     R_int = conduction.R_interface(d.interface.resistance_area, A_fp)
     T_face_max = T_plate_max + Q * R_int
     R_th = (T_face_max - T_in) / Q
 
-    R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_plate)
+    R_base = conduction.R_layer(d.plate.base, d.plate.conductivity, A_cool)
     R_coolant = (float(T_bulk_f[i_hot]) - T_in) / Q
     theta_hot = (T_plate_max - float(T_bulk_f[i_hot])) / Q
-    parts = [("interface", R_int), ("spreading", theta_hot - R_base - R_below), ("base conduction", R_base)]
-    parts += list(back.parts)
+    parts = [("interface", R_int), ("spreading", theta_hot - R_base - back_hot.total), ("base conduction", R_base)]
+    parts += list(back_hot.parts)
     parts.append(("coolant temperature rise", R_coolant))
 
     # --- pressure drop
@@ -139,10 +154,10 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
 
     litres_per_day = flow * 1000.0 * d.supply.seconds_per_day if d.supply.once_through else 0.0
-    methods = _methods(fr.methods, cv.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
+    methods = _methods(fr.methods, cv_x.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
                        alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
     methods += (_use("spreading", conduction.spreading_MCY,
-                     {"c/a": d.heat.footprint_length / d.plate.length, "d/b": d.heat.footprint_width / d.plate.width,
+                     {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
                       "Bi": h_eff * d.plate.base / d.plate.conductivity}),)
     methods += tuple(_use(role, fn, values) for role, fn, values in back.methods)
     methods += (_use("dew point", psychro.dew_point,
@@ -157,8 +172,9 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         water_use_L_per_day=litres_per_day,
         water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0,
         methods=methods,
-        profile=Profile(tuple(map(float, x)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
+        profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
         iterations=iteration, assumptions=_assumptions(d), load=Q,
+        Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
     )
     return result
 
@@ -186,11 +202,51 @@ def friction_pressure_drop(f, length, D_h, rho, V):
     return f * length / D_h * 0.5 * rho * V**2
 
 
-def march_points(plate_length: float, footprint_length: float, segments: int) -> np.ndarray:
-    """Where the march looks for the hottest point: 4·segments + 1 points over the centred footprint [m]
-    (shared with the sizing evaluator, so both take the maximum over the same points)."""
-    x0 = 0.5 * (plate_length - footprint_length)
-    return np.linspace(x0, x0 + footprint_length, 4 * segments + 1)
+def cooled_span(plate_length: float, offset: float, footprint_length: float) -> tuple[float, float]:
+    """The cooled length between the plenums [m] and the part of the centred footprint over it [m].
+
+    The plate model is the cooled length alone, its ends adiabatic: the plate over the plenums is given no
+    cooling and no spreading (a hotter face), and heat of a footprint reaching over a plenum is put on the
+    cooled length's ends (``findings.plate`` says so when a footprint does)."""
+    L = plate_length - 2.0 * offset
+    return L, min(footprint_length, L)
+
+
+def march_grid(length: float, segments: int) -> np.ndarray:
+    """The march's grid [m from the cooled length's inlet end]: GRID_PER_SEGMENT · segments + 1 evenly spaced
+    points over the whole cooled length, where the local coefficient, the back side and the base's axial change
+    are computed (linear in between).  Every PROFILE_EVERY-th point is a point of the profile."""
+    return np.linspace(0.0, length, GRID_PER_SEGMENT * segments + 1)
+
+
+def march_points(length: float, footprint_length: float, segments: int) -> np.ndarray:
+    """Where the march looks for the hottest point [m from the cooled length's inlet end]: the grid over the
+    whole cooled length, outlet end included (the coolant's rise can put the hottest point beyond the
+    footprint), and segments + 1 points over the centred footprint, where the spreading field peaks.  The
+    profile's points are among them, so the profile never shows a point hotter than the one reported.  Shared
+    with the sizing evaluator, so both take the maximum over the same points."""
+    x0 = 0.5 * (length - footprint_length)
+    return np.unique(np.concatenate([march_grid(length, segments),
+                                     np.linspace(x0, x0 + footprint_length, segments + 1)]))
+
+
+def path_position(x, length: float, segments: int, geom) -> np.ndarray:
+    """Distance from the passage's entry [m] at which the local coefficient is taken for points x [m] of the
+    cooled length: x itself for a single pass, not less than half a segment (the entry's coefficient is
+    unbounded; a shorter distance would only raise it); for a serpentine, which crosses the plate once per
+    pass, the end of the path everywhere (its smallest local coefficient, cautious)."""
+    x = np.asarray(x, dtype=float)
+    if not geom.single_pass:
+        return np.full(x.shape, float(geom.heated_length))
+    return np.maximum(x, 0.5 * length / segments)
+
+
+def local_rise(top, delta):
+    """Top-face rise per watt above the local bulk water [K/W]: the spreading series' rise ``top`` with the mean
+    back side plus the change ``delta`` that the local back side makes
+    (:func:`coldplate.plate.conduction.base_axial_perturbation`).  Never below zero: the mounting face is never
+    reported cooler than the water under it.  Floats or numpy arrays (the sizing evaluator passes arrays)."""
+    return np.maximum(np.asarray(top) + np.asarray(delta), 0.0)
 
 
 def _check_outlet(T_out, T_boil, coolant, p):
@@ -239,13 +295,16 @@ def _methods(friction_methods, convection_methods, **values) -> tuple[MethodUse,
 def _assumptions(d: Design) -> tuple[str, ...]:
     out = [
         "steady state; the heated footprint is centred on the plate with a uniform heat flux",
-        "the passage's back-side resistances are smeared over the plate area as one effective coefficient "
-        "for the spreading series; the coolant's bulk temperature rise is added along the flow",
+        "the passage's back-side resistances are smeared over the cooled length as one effective coefficient "
+        "for the spreading series; along the flow the local coefficient (and fin efficiency) changes the base "
+        "temperature, conducted along the base only; the coolant's bulk temperature rise is added along the flow",
         "coolant properties at the bulk mean temperature and the line pressure; flow given at inlet conditions",
         "the sides and the lid of the plate are adiabatic (no heat to room air)",
     ]
     if d.passage.kind == "channels":
         out.append("flow is shared evenly between channels; the walls are fins with an adiabatic tip at the lid")
+        out.append("the plate over the plenums is given no cooling (the channels' conductance is smeared over the "
+                   "channel length only)")
         if d.passage.port_diameter is None:
             out.append("no port diameter given: port losses are not included in the pressure drop")
     elif d.passage.kind == "tube":
@@ -256,6 +315,9 @@ def _assumptions(d: Design) -> tuple[str, ...]:
                        "the outlet temperature (cautious), and the profile's bulk temperature is that value")
     else:
         out.append("flow spreads evenly across the cavity width")
+    if LAMINAR_LOCAL_FORMS[d.model.laminar] is not Nu_Muzychka_Yovanovich_local:
+        out.append(f"the laminar model ({d.model.laminar}) publishes only a length mean: in laminar flow the march "
+                   "takes the fully developed value as the local coefficient (the least along the channel)")
     if d.supply.static_pressure is None:
         out.append("no static pressure given: properties and boiling point at atmospheric pressure")
     return tuple(out)

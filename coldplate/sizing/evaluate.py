@@ -11,8 +11,12 @@ One physics, two evaluation modes.  Every step calls the same function the one-d
   own step: :func:`hydraulics.friction.darcy_friction`, :func:`coldplate.convection.nusselt`), and
   :func:`coldplate.solve.friction_pressure_drop`;
 * back side: :func:`coldplate.passages.channels.fin_areas` (fin efficiency of the walls);
+* the local coefficient along the march: :func:`coldplate.plate.convection.nusselt_local` at the check's
+  march grid (:func:`coldplate.plate.solve.march_grid`, ``path_position``), the walls' fin efficiency at
+  that coefficient;
 * spreading and the march for the hottest point: :class:`~coldplate.sizing.platetable.PlateTable`
-  (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the check's march points);
+  (the series :func:`coldplate.conduction.spreading_MCY` at tabulated h_eff, the base's axial change with the
+  local back side, the check's march points);
 * minor losses: :func:`coldplate.passages.channels.loss_coefficients` (fluids' Rennels formulas).
 * tubes: the tube module's ``geometry``, ``conduction_parts`` (per base thickness), ``convection`` and
   ``bend_loss_coefficient`` (arrays over flows), the same functions its ``back_side`` and ``minor_losses``
@@ -21,8 +25,9 @@ One physics, two evaluation modes.  Every step calls the same function the one-d
 Candidates are given as axes that broadcast: geometry arrays of length G (count, width, depth — or
 inner diameter and passes for a tube), base thicknesses (Nt) and flows (Nq); the result arrays have shape
 (G, Nt, Nq).  Work that depends on fewer axes is done on fewer elements (friction and Nusselt on G × Nq,
-the spreading series per base thickness and h_eff node), which is what makes a million candidates a
-second possible.  Tubes loop over geometries and base thicknesses in Python (tube searches are small) and
+the local coefficient and back side on G × Nq × grid points, the spreading series per base thickness and
+h_eff node); what is left per candidate is the interpolation and the base's axial change at each march point
+(tens of thousands to a few hundred thousand candidates a second on the 2-core development machine).  Tubes loop over geometries and base thicknesses in Python (tube searches are small) and
 are vectorised over flows.
 """
 from __future__ import annotations
@@ -40,12 +45,15 @@ from coldplate.design.reader import Design
 from coldplate.design.errors import DesignError
 from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
-from coldplate.plate.solve import friction_pressure_drop, passage_flow
+from coldplate.plate.convection import nusselt_local
+from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.sizing.platetable import PlateTable
 from coldplate.sizing.proptable import PropertyTable
 
 #: Keep the bulk outlet this far below the boiling point / end of the property data [K].
 TOP_MARGIN_K = 0.5
+#: Elements (geometries × flows × march points) of the local-coefficient arrays formed at once.
+LOCAL_BLOCK = 1 << 20
 
 
 @dataclass(frozen=True)
@@ -87,7 +95,7 @@ class Evaluator:
         self.H_in = enthalpy(c, self.T_in, self.p)
         self.props = PropertyTable(c, self.p, self.T_in, self.T_top)
         self.plate = PlateTable.for_design(d)
-        self.A_plate = d.plate.length * d.plate.width
+        self.A_cool = self.plate.area  # the back side is smeared over the cooled length between the plenums
         self.R_int = conduction.R_interface(d.interface.resistance_area,
                                             d.heat.footprint_length * d.heat.footprint_width)
 
@@ -141,8 +149,27 @@ class Evaluator:
                 d.passage.roughness / D_h[rows], d.model)
             f[rows] = fr.f
         _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
-        h_eff = effective * h / self.A_plate  # 1 / (A_plate R_below), R_below = 1 / (h A_effective)
-        R_plate = np.stack([self.plate.rise(float(t), h_eff[:, 0, :], st.s.ravel()) for t in base], axis=1)
+        h_eff = effective * h / self.A_cool  # 1 / (A_cool R_below), R_below = 1 / (h A_effective)
+        G, Nq, P = n.shape[0], flow.size, self.plate.xg.size
+        x = path_position(self.plate.xg, self.plate.a, self.plate.segments, SimpleNamespace(single_pass=True))
+        R_plate = np.empty((G, base.size, Nq))
+        step = max(1, LOCAL_BLOCK // (Nq * P))
+        for a in range(0, G, step):
+            blk = slice(a, a + step)
+            r_x = np.empty((min(step, G - a), Nq, P))
+            kinds = heated[blk]
+            for kind in np.unique(kinds):
+                rows = np.flatnonzero(kinds == kind) + a
+                e = lambda v: v[rows][..., None] if np.ndim(v) else v  # noqa: E731  (g, 1, 1, 1): march points last
+                cv_x = nusselt_local(Re[rows][..., None], pr.Pr[..., None], x, e(L), e(D_h), e(alpha),
+                                     laminar=d.model.laminar, turbulent=d.model.turbulent, heated=str(kind),
+                                     rel_roughness=d.passage.roughness / e(D_h))
+                h_x = np.asarray(cv_x.Nu) * pr.k[..., None] / e(D_h)
+                _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), e(L), e(wall), d.plate.conductivity,
+                                                           h_x)
+                r_x[rows - a] = (self.A_cool / (h_x * eff_x))[:, 0]
+            for b, t in enumerate(base):
+                R_plate[blk, b] = self.plate.rise(float(t), h_eff[blk, 0, :], st.s[:, 0, :], r_x)
         dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
         for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
@@ -182,9 +209,14 @@ class Evaluator:
                         + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
             V_all[g, 0], Re_all[g, 0] = V, Re
             r_conv = tube_passage.convection(passage, geom, h)[0]
+            x = path_position(self.plate.xg, self.plate.a, self.plate.segments, geom)
+            cv_x = nusselt_local(np.asarray(Re)[:, None], pr.Pr[:, None], x, geom.heated_length, geom.D_h,
+                                 geom.alpha, shape=geom.shape, laminar=d.model.laminar, turbulent=d.model.turbulent,
+                                 heated=geom.heated, rel_roughness=geom.rel_roughness)
+            r_conv_x = tube_passage.convection(passage, geom, np.asarray(cv_x.Nu) * pr.k[:, None] / geom.D_h)[0]
             for b, t in enumerate(base):
-                fixed = tube_passage.conduction_parts(passage, replace(d.plate, base=float(t)), geom)
-                R_below = sum(r for _, r in fixed) + r_conv
-                R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_plate * R_below), st.s,
-                                                single_pass=geom.single_pass)
+                fixed = sum(r for _, r in tube_passage.conduction_parts(passage, replace(d.plate, base=float(t)),
+                                                                         geom))
+                R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_cool * (fixed + r_conv)), st.s,
+                                                self.A_cool * (fixed + r_conv_x), single_pass=geom.single_pass)
         return self._finish(R_plate, dp, st, V_all, Re_all, (G, Nt, Nq))

@@ -1,50 +1,68 @@
 """The plate's hottest point for many candidates: the spreading series and the march, tabulated.
 
-For a fixed plate (sides a, b, conductivity k), footprint (c, d) and march points x_i, the one-design
-check (:func:`coldplate.solve.solve_plate`) finds the hottest top-face point as
+For a fixed plate (cooled length a between the plenums, width b, conductivity k), footprint (c, d), march
+grid (:func:`coldplate.plate.solve.march_grid`) and search points x_i (``march_points``), the one-design check
+(:func:`coldplate.plate.solve.solve_plate`) finds the hottest top-face point as
 
-    R_plate = max_i [ s · F_i(t, h) + G_i(t, h) ]                                  [K/W]
+    R_plate = max_i [ s · F_i(t, h) + max(0, G_i(t, h) + δ_i) ]                          [K/W]
 
-with F_i the fraction of the heat absorbed by the coolant up to x_i and G_i the top-face rise per watt on the
-centre line (both from :func:`coldplate.conduction.spreading_MCY` at base thickness t and the smeared
-back-side coefficient h = h_eff), and s = (T_out − T_in)/Q the coolant's rise per watt (F_i = 1 for a
-serpentine).  Only t and h come from the expensive series, so :class:`PlateTable` evaluates the series at
-fixed nodes h_j = 10^(j/N) per base thickness (cached), forms Ψ_j = max_i (s F_i + G_i) − 1/(h_j a b) exactly
-for every s asked for, and interpolates Ψ in log h with a cubic through the four nodes around each
-candidate; the
-known one-dimensional part 1/(h a b) is added back exactly.  The same spreading function and the same march
-points are used as in the check, so there is one formula for each; the only difference is the interpolation
-in h, whose error the sizing tests bound (≤ 0.02 % of R_plate with the default N = 16 nodes a decade).
+with F_i the fraction of the heat absorbed by the coolant up to x_i, G_i the top-face rise per watt on the
+centre line (both from :func:`coldplate.plate.conduction.spreading_MCY` at base thickness t and the smeared
+mean back-side coefficient h = h_eff), s = (T_out − T_in)/Q the coolant's rise per watt (F_i = 1 for a
+serpentine) and δ_i the change the local back side makes
+(:func:`coldplate.plate.conduction.base_axial_perturbation` on the grid from the series' cooled-face flux q and
+the candidate's local back-side resistances r there, interpolated linearly to x_i).  Only t and h come from the expensive series, so
+:class:`PlateTable` evaluates it at fixed nodes h_j = 10^(j/N) per base thickness (cached) and interpolates
+F_i, G_i − 1/(h a b) and q_i in log h with a cubic through the four nodes around each candidate; the known
+one-dimensional part 1/(h a b) is added back exactly.  The same functions and the same march points are used
+as in the check, so there is one formula for each; the only difference is the interpolation in h, whose error
+the sizing tests bound (≤ 0.02 % of R_plate with the default N = 16 nodes a decade).
 """
 from __future__ import annotations
 
 import numpy as np
 
-from coldplate.plate.conduction import spreading_MCY
-from coldplate.plate.solve import march_points
+from coldplate.plate.conduction import base_axial_perturbation, spreading_MCY
+from coldplate.plate.passages import PASSAGES
+from coldplate.plate.solve import cooled_span, local_rise, march_grid, march_points
 
 #: Nodes per decade of h_eff (see the module docstring for the error this gives).
 NODES_PER_DECADE = 16
-#: Values of s handled at once when the table's rows are formed.
-S_BLOCK = 4096
+#: Candidates handled at once (the temporaries are block × march points).
+BLOCK = 8192
 
 
 class PlateTable:
     """Tabulated spreading and march of one plate and footprint, for any base thickness and h_eff."""
 
     def __init__(self, length, width, footprint_length, footprint_width, conductivity, segments,
-                 nodes_per_decade: int = NODES_PER_DECADE):
-        self.a, self.b, self.c, self.d, self.k = length, width, footprint_length, footprint_width, conductivity
-        self.x = march_points(length, footprint_length, segments)
+                 nodes_per_decade: int = NODES_PER_DECADE, cooled_offset: float = 0.0):
+        self.length, self.offset = length, cooled_offset
+        self.a, self.c = cooled_span(length, cooled_offset, footprint_length)
+        self.b, self.d, self.k = width, footprint_width, conductivity
+        self.segments = int(segments)
+        self.x = march_points(self.a, self.c, self.segments)  # the hottest-point search
+        self.xg = march_grid(self.a, self.segments)  # the local back side and the base's axial change
+        self.spacing = float(self.xg[1] - self.xg[0])
+        # linear interpolation from the grid to the search points (np.interp in the check): grid rows i, i + 1
+        self._left = np.clip(np.searchsorted(self.xg, self.x, side="right") - 1, 0, self.xg.size - 2)
+        t = (self.x - self.xg[self._left]) / (self.xg[self._left + 1] - self.xg[self._left])
+        self._t = t[:, None]
         self.n = int(nodes_per_decade)
-        self._nodes: dict[tuple[float, bool, int], tuple[np.ndarray, np.ndarray]] = {}
+        self._nodes: dict[tuple[float, bool, int], tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
         self.series_evaluations = 0
 
     @classmethod
     def for_design(cls, design, nodes_per_decade: int = NODES_PER_DECADE) -> "PlateTable":
         d = design
+        offset = PASSAGES[d.passage.kind].geometry(d.passage, d.plate).cooled_offset
         return cls(d.plate.length, d.plate.width, d.heat.footprint_length, d.heat.footprint_width,
-                   d.plate.conductivity, d.model.segments, nodes_per_decade)
+                   d.plate.conductivity, d.model.segments, nodes_per_decade, offset)
+
+    @property
+    def area(self) -> float:
+        """The cooled area a·b [m²] over which the back side is smeared."""
+        return self.a * self.b
 
     def _node(self, t: float, single_pass: bool, j: int):
         key = (t, single_pass, j)
@@ -53,47 +71,63 @@ class PlateTable:
             h = 10.0 ** (j / self.n)
             s = spreading_MCY(self.a, self.b, self.c, self.d, t, self.k, h)
             F = np.asarray(s.absorbed_fraction(self.x)) if single_pass else np.ones_like(self.x)
-            G = np.asarray(s.top_rise_centreline(self.x)) - 1.0 / (h * self.a * self.b)
-            got = self._nodes[key] = (F, G)
+            G = np.asarray(s.top_rise_centreline(self.x)) - 1.0 / (h * self.area)
+            q = np.asarray(s.cooled_flux_centreline(self.xg))
+            got = self._nodes[key] = (F, G, q)
             self.series_evaluations += 1
         return got
 
-    def rise(self, t: float, h_eff, s, single_pass: bool = True):
+    def rise(self, t: float, h_eff, s, r_local, single_pass: bool = True):
         """Top-face rise per watt at the hottest march point, above the inlet water [K/W].
 
-        ``t`` base thickness [m] (one value); ``h_eff`` [W/(m² K)], an array whose last axis runs with ``s``;
-        ``s`` (T_out − T_in)/Q [K/W], a 1-D array along that axis.  NaN h_eff gives NaN.
+        ``t`` base thickness [m] (one value); ``h_eff`` mean smeared coefficient [W/(m² K)] and ``s``
+        (T_out − T_in)/Q [K/W], arrays of one shape (candidates); ``r_local`` the back side's local resistance
+        times the cooled area [m² K/W] at the march grid's points (``xg``), that shape plus a last axis along
+        them.  NaN h_eff gives NaN.
         """
         h = np.asarray(h_eff, dtype=float)
-        s = np.atleast_1d(np.asarray(s, dtype=float))
-        bad = ~np.isfinite(h) | (h <= 0)
+        shape = h.shape
+        h = h.ravel()
+        s = np.broadcast_to(np.asarray(s, dtype=float), shape).ravel()
+        r = np.broadcast_to(np.asarray(r_local, dtype=float), shape + (self.xg.size,)).reshape(-1, self.xg.size)
+        bad = ~np.isfinite(h) | (h <= 0) | ~np.all(np.isfinite(r), axis=-1)
+        out = np.full(h.shape, np.nan)
         if bad.all():
-            return np.full(h.shape, np.nan)
-        hs = np.where(bad, np.nanmax(np.where(bad, np.nan, h)), h)  # stand-ins inside the range (masked below)
-        u = np.log10(hs) * self.n
-        j0 = np.floor(u).astype(np.int64)
-        w = u - j0
-        lo, hi = int(j0.min()) - 1, int(j0.max()) + 2
-        psi = np.empty((hi - lo + 1, s.size))
-        for row, j in enumerate(range(lo, hi + 1)):
-            F, G = self._node(float(t), bool(single_pass), j)
-            for a in range(0, s.size, S_BLOCK):  # blocks of s keep the temporary (block × march points) small
-                psi[row, a:a + S_BLOCK] = np.max(s[a:a + S_BLOCK, None] * F[None, :] + G[None, :], axis=1)
-        # cubic Lagrange interpolation through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1),
-        # gathered from the flattened table: element (j, q) sits at j * Nq + q
-        ns = s.size
-        k = (j0 - lo) * ns + np.arange(ns)
-        flat = psi.ravel()
-        wm, w1, w2 = w + 1.0, w - 1.0, w - 2.0
-        ww = w * wm
-        out = (w1 * w2 * (wm * 0.5 * flat[k] - w * (1.0 / 6.0) * flat[k - ns])
-               + ww * (w1 * (1.0 / 6.0) * flat[k + 2 * ns] - w2 * 0.5 * flat[k + ns]))
-        out += 1.0 / (hs * (self.a * self.b))
-        return np.where(bad, np.nan, out)
+            return out.reshape(shape)
+        ok = np.flatnonzero(~bad)
+        u_all = np.log10(h[ok]) * self.n
+        order = np.argsort(u_all, kind="stable")  # blocks of neighbouring h: few nodes per block
+        ok, u_all = ok[order], u_all[order]
+        j_all = np.floor(u_all).astype(np.int64)
+        P = self.x.size
+        kt = self.k * float(t)
+        for a in range(0, ok.size, BLOCK):
+            sel, u, j0 = ok[a:a + BLOCK], u_all[a:a + BLOCK], j_all[a:a + BLOCK]
+            lo, hi = int(j0[0]) - 1, int(j0[-1]) + 2
+            nodes = [self._node(float(t), bool(single_pass), j) for j in range(lo, hi + 1)]
+            table = np.concatenate([np.stack([nd[i] for nd in nodes]) for i in range(3)], axis=1)  # (nodes, 2P+Pg)
+            # cubic Lagrange weights through the nodes j0-1 .. j0+2 (w in [0, 1) between j0 and j0+1), as a
+            # sparse-by-rows weight matrix, so F, G and q at every point come from one matrix product
+            w = u - j0
+            wm, w1, w2 = w + 1.0, w - 1.0, w - 2.0
+            weights = np.zeros((sel.size, len(nodes)))
+            rows, jj = np.arange(sel.size), j0 - lo
+            for k, lk in enumerate((-w * w1 * w2 / 6.0, wm * w1 * w2 / 2.0, -wm * w * w2 / 2.0, wm * w * w1 / 6.0)):
+                weights[rows, jj + k - 1] = lk
+            FGq = table.T @ weights.T  # (2P + Pg, block): the points on the leading axis
+            F, G, q = FGq[:P], FGq[P:2 * P], FGq[2 * P:]
+            hb = h[sel]
+            delta = base_axial_perturbation(self.spacing, kt, q, np.ascontiguousarray(r[sel].T), 1.0 / hb,
+                                            x_first=True)
+            delta = (1.0 - self._t) * delta[self._left] + self._t * delta[self._left + 1]
+            rise = local_rise(G + 1.0 / (hb * self.area), delta)
+            out[sel] = np.max(s[sel] * F + rise, axis=0)
+        return out.reshape(shape)
 
-    def exact_rise(self, t: float, h_eff: float, s: float, single_pass: bool = True) -> float:
+    def exact_rise(self, t: float, h_eff: float, s: float, r_local, single_pass: bool = True) -> float:
         """The same quantity from the series at h_eff itself (no interpolation), for checks [K/W]."""
         sp = spreading_MCY(self.a, self.b, self.c, self.d, t, self.k, h_eff)
         F = np.asarray(sp.absorbed_fraction(self.x)) if single_pass else 1.0
-        return float(np.max(s * F + np.asarray(sp.top_rise_centreline(self.x))))
-
+        delta = base_axial_perturbation(self.spacing, self.k * t, sp.cooled_flux_centreline(self.xg),
+                                        np.asarray(r_local, dtype=float), 1.0 / h_eff)
+        return float(np.max(s * F + local_rise(sp.top_rise_centreline(self.x), np.interp(self.x, self.xg, delta))))

@@ -27,6 +27,10 @@ class Geometry:
     #: True when the coolant crosses the plate once along its length, so its local bulk temperature follows
     #: the heat absorbed up to x; False for a serpentine, where the solve takes the outlet temperature.
     single_pass: bool = True
+    #: Plate length before the cooled part along the flow, and the same after it [m]: a channel field's
+    #: plenums.  The plate model cools only the length between (the channels' conductance is smeared over the
+    #: channel length, not over the plenums).
+    cooled_offset: float = 0.0
 
     @property
     def rel_roughness(self) -> float:

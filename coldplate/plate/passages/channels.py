@@ -54,6 +54,7 @@ def geometry(passage, plate) -> Geometry:
         roughness=passage.roughness,
         description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
                      f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),
+        cooled_offset=passage.plenum_length,
     )
 
 
