@@ -47,8 +47,9 @@ def nearest(key: str, choices: Iterable[str]) -> list[str]:
     return sorted(set(choices), key=lambda c: (-difflib.SequenceMatcher(None, key.lower(), c.lower()).ratio(), c))
 
 
-def check_range(field: str, raw, v: float, kind: str, bound: Bound) -> None:
-    """Refuse ``v`` (parsed from ``raw``) outside ``bound``, naming the range in the user's units."""
+def check_range(field: str, raw, v: float, kind: str, bound: Bound, why: str = "") -> None:
+    """Refuse ``v`` (parsed from ``raw``) outside ``bound``, naming the range in the user's units; ``why``
+    names a limit that comes from the rest of the design (a channel no wider than its plate)."""
     low, high = bound.low, bound.high
     low_ok = above(v, low) if bound.low_open else at_least(v, low)
     if low_ok and at_most(v, high):
@@ -66,8 +67,11 @@ def check_range(field: str, raw, v: float, kind: str, bound: Bound) -> None:
     elif kind == "fraction" and isinstance(raw, str) and v > 1 and "%" not in raw:
         hint = f"; a number without a unit is a fraction of one: write '{raw.strip()} %'"
     where = "below" if not low_ok else "above"
-    raise DesignError(field, f"{given} is {where} the plausible range, {show(low, kind)} to {show(high, kind)}"
-                             f"{hint}")
+    if why:
+        limit = show(low if not low_ok else high, kind)
+        raise DesignError(field, f"{given} is {where} {limit}, {why}")
+    raise DesignError(field, f"{given} is {where} the plausible range: between {show(low, kind)} and "
+                             f"{show(high, kind)}{hint}")
 
 
 class Table:
@@ -113,11 +117,18 @@ class Table:
             return None
         return self.data[key]
 
+    def word(self, key: str) -> str:
+        """A name to look up in one of our tables (a material): a short string, so no refusal echoes a page."""
+        raw = self.raw(key)
+        if not isinstance(raw, str) or not raw.strip() or len(raw) > 60:
+            raise DesignError(self.field(key), f"{quoted(raw)} is not a name; write one of the names listed for it")
+        return raw
+
     def value(self, key: str, kind: str, *, required=True, low=None, high=None, low_inclusive=False,
-              default=None) -> float | None:
+              default=None, why="the limit the rest of the design sets") -> float | None:
         """The value of ``key`` in SI: its plausible range (:mod:`~coldplate.design.ranges`) is checked, and
         ``low``/``high`` add limits that depend on the rest of the design (``low`` is excluded unless
-        ``low_inclusive``)."""
+        ``low_inclusive``), named in a refusal by ``why``."""
         raw = self.raw(key, required and default is None)
         if raw is None:
             return default
@@ -129,7 +140,7 @@ class Table:
         if low is not None or high is not None:
             extra = Bound(key, low if low is not None else -float("inf"), high if high is not None else float("inf"),
                           low_open=not low_inclusive)
-            check_range(field, raw, v, kind, extra)
+            check_range(field, raw, v, kind, extra, why)
         return v
 
     def integer(self, key: str, low: int, high: int) -> int:

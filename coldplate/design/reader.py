@@ -267,7 +267,7 @@ def design_from_dict(data: dict) -> Design:
 def _plate(t: Table) -> Plate:
     which = t.exactly_one("material", "conductivity")
     if which == "material":
-        key = t.raw("material")
+        key = t.word("material")
         try:
             mat = materials.material(key)
         except (KeyError, TypeError) as exc:
@@ -328,7 +328,7 @@ def _passage(t: Table, plate: Plate):
     t.keys = PASSAGE_KEYS[kind]
     if kind == "channels":
         count = t.integer("count", 1, 2000)
-        w = t.value("width", "length", high=plate.width)
+        w = t.value("width", "length", high=plate.width, why="the plate's width")
         d = t.value("depth", "length")
         plen = t.value("plenum_length", "length", required=False, default=DEFAULT_PLENUM_LENGTH)
         port = t.value("port_diameter", "length", required=False)
@@ -348,7 +348,7 @@ def _passage(t: Table, plate: Plate):
             raise DesignError(t.field("outer_diameter"), "must be larger than inner_diameter")
         passes = t.integer("passes", 1, 200)
         rb = t.value("bend_radius", "length")
-        mkey = t.raw("material")
+        mkey = t.word("material")
         try:
             mat = materials.material(mkey)
         except (KeyError, TypeError) as exc:

@@ -98,7 +98,7 @@ def _part(t: Table, i: int):
         which = t.exactly_one("material", "roughness")
         if which == "material":
             try:
-                e = materials.roughness(t.raw("material"))
+                e = materials.roughness(t.word("material"))
             except (KeyError, TypeError) as exc:
                 raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
         else:
