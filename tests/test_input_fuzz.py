@@ -41,7 +41,7 @@ UNITS = ["", "W / 0", "W**(1/0)", "(W", "W)", "W" + "*mm/mm" * 500, "degc", "del
          "K", "%", "inch", "psi", "bar", "kPa", "L/min", "gpm", "mm", "um", "nm", "m", "km", "W/(m*K)",
          "K*m**2/W", "EUR/m**3", "EUR", "s", "h", "m**3/s", "ohm", "V/K", "ft**3/min", "1/0", "**", "e",
          "W W", "m/s", "L", "kWh", "A", "🙂", "\u00b5m", "m\x00m", "m # note"]
-STRANGE = [True, False, 0, -1, 1.5, 2**63, 2**70, -(2**64), float("nan"), float("inf"), "", " ", "x" * 300,
+STRANGE = [True, False, 0, -1, 1.5, 2**63, 2**70, -(2**64), 10**400, float("nan"), float("inf"), "", " ", "x" * 300,
            [], ["1 mm"], ["1 mm", "2 mm", "3 mm"], {}, {"from": 1, "to": 2**64}, {"from": "1 mm"}, "1e306 EUR",
            "0 EUR/m**3"]
 

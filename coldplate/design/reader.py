@@ -24,7 +24,7 @@ from coldplate.design.errors import DesignError, StateError
 from coldplate.design.fields import Table, check_range, nearest
 from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES
 from coldplate.modules.reader import Module, read_module
-from coldplate.design.units import parse_value
+from coldplate.design.units import parse_value, quoted
 
 # ---------------------------------------------------------------- dataclasses
 
@@ -378,18 +378,18 @@ def _supply(t: Table) -> Supply:
     source = t.choice("source", SOURCES)
     hraw = t.raw("hours_per_day")
     if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
-        hours = float(hraw)
-        if not math.isfinite(hours):
+        if not math.isfinite(hraw) if isinstance(hraw, float) else False:
             raise DesignError(t.field("hours_per_day"), "must be a finite number")
+        hours = float(hraw) if -1e6 < hraw < 1e6 else math.inf  # a whole number past 64 bits is not a float
     else:
         hours = parse_value(hraw, "time", t.field("hours_per_day")) / 3600.0
     if not (0 < hours <= 24):
-        raise DesignError(t.field("hours_per_day"), f"{hraw!r} must be above 0 and at most 24")
+        raise DesignError(t.field("hours_per_day"), f"{quoted(hraw)} must be above 0 and at most 24")
     days = t.raw("days_per_year", required=False)
     if days is None:
         days = 365.0
     elif isinstance(days, bool) or not isinstance(days, (int, float)) or not (0 < days <= 366):
-        raise DesignError(t.field("days_per_year"), f"{days!r} must be a number above 0 and at most 366")
+        raise DesignError(t.field("days_per_year"), f"{quoted(days)} must be a number above 0 and at most 366")
     p = t.value("static_pressure", "pressure", required=False)
     limit = t.value("discharge_limit", "temperature", required=False, default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
@@ -442,6 +442,6 @@ def _model(t: Table) -> Model:
     if seg is None:
         seg = Model.segments
     elif isinstance(seg, bool) or not isinstance(seg, int) or not (4 <= seg <= 2000):
-        raise DesignError(t.field("segments"), f"{seg!r} must be a whole number from 4 to 2000")
+        raise DesignError(t.field("segments"), f"{quoted(seg)} must be a whole number from 4 to 2000")
     t.finish()
     return Model(lam, turb, seg)

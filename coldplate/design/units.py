@@ -138,13 +138,13 @@ def parse_value(text: object, kind: str, field: str) -> float:
         raise DesignError(field, f"expected a value with a unit such as {_EXAMPLE[kind]}, got {quoted(text)}")
     if isinstance(text, (int, float)):
         if kind == "fraction":
-            value = float(text)
+            value = float(text) if abs(text) < 1e300 else math.inf  # whole numbers past a float: not finite
             _finite(value, field)
             return value
         raise DesignError(field, f"a bare number has no unit; write it with one, e.g. {_EXAMPLE[kind]}")
     if _DECIMAL_COMMA.match(text):
         fixed = text.replace(",", ".", 1).strip()
-        raise DesignError(field, f"{quoted(text)} has a decimal comma; write a decimal point: {fixed!r}")
+        raise DesignError(field, f"{quoted(text)} has a decimal comma; write a decimal point: {quoted(fixed)}")
     match = _NUMBER_UNIT.match(text)
     if not match:
         raise DesignError(field, f"cannot read {quoted(text)}; write a number then a unit, e.g. {_EXAMPLE[kind]}")

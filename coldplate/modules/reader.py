@@ -13,6 +13,7 @@ from dataclasses import dataclass
 from coldplate.modules import model as te
 from coldplate.design.errors import DesignError
 from coldplate.design.fields import Table
+from coldplate.design.units import quoted
 
 WIRINGS = ("series", "parallel", "series-parallel")
 #: Hot-side temperature a standard module may run at when the datasheet gives none: 80 degC
@@ -103,7 +104,7 @@ def _difference(t: Table, key: str) -> float:
     """A temperature difference: kelvin or delta_degC; degC/degF would be read as absolute temperatures."""
     raw = t.raw(key)
     if isinstance(raw, str) and re.search(r"(?<!delta_)(deg[CF]|celsius|fahrenheit)", raw):
-        raise DesignError(t.field(key), f"{raw!r} is a temperature, not a difference: write it in K or delta_degC")
+        raise DesignError(t.field(key), f"{quoted(raw)} is a temperature, not a difference: write it in K or delta_degC")
     v = t.value(key, "temperature_difference")
     return v
 

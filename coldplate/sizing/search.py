@@ -196,7 +196,7 @@ def _one(v, unit, whole, field, low, high):
 def _range(raw: dict, unit: str, whole: bool, field: str, low: float, high: float) -> np.ndarray:
     unknown = sorted(set(raw) - {"from", "to", "steps", "spacing"})
     if unknown:
-        raise DesignError(field, f"unknown key {unknown[0]!r} in a range (known: from, to, steps, spacing)")
+        raise DesignError(field, f"unknown key {quoted(unknown[0])} in a range (known: from, to, steps, spacing)")
     for key in ("from", "to"):
         if key not in raw:
             raise DesignError(field, f"a range needs 'from' and 'to' (missing {key!r})")

@@ -19,7 +19,7 @@ from coldplate.plate import materials
 from coldplate.design.errors import DesignError
 from coldplate.design.fields import Table, check_range
 from coldplate.design.ranges import MONEY
-from coldplate.design.units import parse_value
+from coldplate.design.units import parse_value, quoted
 
 
 @dataclass(frozen=True)
@@ -123,7 +123,7 @@ def _part(t: Table, i: int):
         coeff = t.raw(which)
         if isinstance(coeff, bool) or not isinstance(coeff, (int, float)) or not (0 < coeff < 1e4) \
                 or not math.isfinite(coeff):
-            raise DesignError(t.field(which), f"{coeff!r} must be a positive number ({'m³/h at 1 bar' if which == 'kv' else 'US gal/min at 1 psi'})")
+            raise DesignError(t.field(which), f"{quoted(coeff)} must be a positive number ({'m³/h at 1 bar' if which == 'kv' else 'US gal/min at 1 psi'})")
         Kv = float(coeff) if which == "kv" else Kv_from_Cv(float(coeff))
         solenoid = t.raw("solenoid", required=False) or False
         if not isinstance(solenoid, bool):
@@ -165,7 +165,7 @@ def _money(t: Table, key: str, per: str | None, example: str):
                                         f"e.g. {example!r}")
     amount = float(m.group(1))
     if not math.isfinite(amount) or amount < 0:
-        raise DesignError(t.field(key), f"{raw!r} must be a finite amount, zero or more")
+        raise DesignError(t.field(key), f"{quoted(raw)} must be a finite amount, zero or more")
     if per is None:
         check_range(t.field(key), raw, amount, "money", MONEY[key])
         return amount, m.group(2)
