@@ -2,8 +2,8 @@
 
 One regression test per defect found by fuzzing mutated design files (defects 1 to 8 of the hostile-input
 issue); each failed before its fix.  Sources of the expected values: the project's input contract (exit 2,
-one line naming the field and what is accepted); unit conversions exact by definition (1 psi = 6894.757293168
-Pa, 1 inch = 25.4 mm: NIST SP 811, appendix B); psychrolib (an independent implementation of the ASHRAE
+one line naming the field and what is accepted); unit conversions exact by definition (1 psi = 1 lbf/in²,
+1 inch = 25.4 mm: NIST SP 811, appendix B); psychrolib (an independent implementation of the ASHRAE
 psychrometric equations) for the frost point at the humidity floor; common practice for the plausible ranges.
 """
 from __future__ import annotations
@@ -15,18 +15,16 @@ import pytest
 
 from coldplate.cli import main
 from coldplate.design.errors import DesignError
-from coldplate.design.fields import Table
-from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES, RH_FLOOR
 from coldplate.design.reader import design_from_dict, parse_design
 from coldplate.design.units import parse_value
 from coldplate.sizing.writer import toml_text
-from hydraulics.validity import REL_TOL, Bound, at_least, at_most
+from hydraulics.validity import Bound
 
 from .helpers import example_dict, modified
 
 BASE = example_dict("reagent-block-channels")
 SIZING = example_dict("laser-mount-sizing")
-PSI = 6894.757293168  # Pa, exact by definition (NIST SP 811 B.8)
+PSI = 0.45359237 * 9.80665 / 0.0254**2  # Pa: 1 lbf/in², exact by the definitions of lb, g_n and inch (NIST SP 811)
 INCH = 0.0254  # m, exact by definition
 
 
@@ -69,6 +67,8 @@ def test_unit_strings_that_crashed_the_parser_are_refused(tmp_path, capsys, text
 @pytest.mark.parametrize("kind,text,needle", [
     ("flow", "1,5 L/min", "decimal comma"),
     ("temperature", "16 degc", "'degC'"),
+    ("length", "5 MM", "did you mean 'mm'?"),  # pint reads MM as something else, not a length
+    ("power", "1,500 W", "no separator"),
     ("temperature", "16 delta_degC", "temperature difference where a temperature is needed"),
     ("temperature_difference", "68 degC", "a temperature where a temperature difference is needed"),
 ])
@@ -105,6 +105,7 @@ def test_every_room_at_the_humidity_floor_solves(room_degC):
     psychrolib (an independent implementation of the same ASHRAE equations) within 0.05 K."""
     import psychrolib
 
+    from coldplate.design.ranges import RH_FLOOR
     from coldplate.plate.psychro import condensation_point
 
     psychrolib.SetUnitSystem(psychrolib.SI)
@@ -122,11 +123,12 @@ def test_a_design_at_the_humidity_floor_checks(tmp_path, capsys):
 
 # ---------------------------------------------------------------- 3: whole numbers past 64 bits in [search]
 
-@pytest.mark.parametrize("count", [{"from": 10**30, "to": 10**30 + 5}, {"from": 1, "to": 2**63 - 1},
-                                   [2**64 + 1], 2**63 - 1])
+@pytest.mark.parametrize("count", [{"from": 10**30, "to": 10**30 + 5}, {"from": 1, "to": 2**63 - 1, "steps": 3},
+                                   {"from": 2**63 - 2, "to": 2**63 - 1}, [2**64 + 1], 2**63 - 1])
 def test_huge_whole_numbers_in_search_give_one_line(tmp_path, capsys, count):
     data = modified(SIZING, search__count=count)
-    refused(tmp_path, capsys, data, "[search] count:", command="size")
+    line = refused(tmp_path, capsys, data, "[search] count:", command="size")
+    assert "-9.2" not in line and "e+18" not in line  # the number as written, not an overflowed cast
 
 
 # ---------------------------------------------------------------- 4: absurd tariffs, finite outputs
@@ -153,13 +155,17 @@ def test_the_largest_accepted_tariff_keeps_json_finite(tmp_path, capsys):
 def test_fifty_bar_written_in_psi_is_accepted_like_fifty_bar():
     loop = modified(BASE, supply__source="recirculating", supply__discharge="return")
     in_bar = design_from_dict(modified(loop, supply__static_pressure="50 bar"))
-    in_psi = design_from_dict(modified(loop, supply__static_pressure=f"{5e6 / PSI!r} psi"))
+    in_psi = design_from_dict(modified(loop, supply__static_pressure="725.1886886510462 psi"))  # 5e6 Pa / PSI
+    assert 725.1886886510462 * PSI == pytest.approx(5e6, rel=1e-14)
     assert in_psi.supply.static_pressure == pytest.approx(in_bar.supply.static_pressure, rel=1e-12)
 
 
 def test_five_mm_written_in_inches_is_accepted_at_the_limit():
+    from coldplate.design.ranges import RANGES
+
     high = RANGES["[interface] thickness"].high  # 5 mm
-    thick = modified(BASE, interface__thickness=f"{high / INCH!r} inch", interface__conductivity="1000 W/(m*K)")
+    assert 0.19685039370078744 * INCH == pytest.approx(high, rel=1e-14)  # its SI float lands just above 5 mm
+    thick = modified(BASE, interface__thickness="0.19685039370078744 inch", interface__conductivity="1000 W/(m*K)")
     assert design_from_dict(thick).interface.resistance_area == pytest.approx(high / 1000, rel=1e-12)
 
 
@@ -168,6 +174,8 @@ def test_the_coldest_room_is_accepted_at_its_limit():
 
 
 def test_one_comparison_rule():
+    from hydraulics.validity import REL_TOL, at_least, at_most
+
     assert at_most(5e-3 * (1 + 0.5 * REL_TOL), 5e-3) and not at_most(5e-3 * (1 + 2 * REL_TOL), 5e-3)
     assert at_least(223.15 * (1 - 0.5 * REL_TOL), 223.15) and not at_least(223.15 * (1 - 2 * REL_TOL), 223.15)
     assert not at_least(-1e-300, 0.0) and at_most(0.0, 0.0)  # at zero the rule is exact
@@ -183,7 +191,7 @@ def test_min_width_in_inches_sizes_like_millimetres():
     from coldplate.sizing.search import read_search
 
     flows = []
-    for text in ("0.8 mm", f"{0.8e-3 / INCH!r} inch"):
+    for text in ("0.8 mm", "0.03149606299212599 inch"):  # 0.8 mm / INCH; its SI float lands just above 0.8 mm
         data = modified(SIZING, search__min_width=text)
         design = design_from_dict(data)
         spec = read_search(data, design)
@@ -211,6 +219,12 @@ def test_a_typo_beside_the_real_key_lists_every_known_key_nearest_first(tmp_path
     known = line.split("known here: ")[1].rstrip(")").split(", ")
     assert known[0] == "count"
     assert {"count", "width", "depth", "base", "flow", "face_limit", "min_width", "max_water"} <= set(known)
+
+
+def test_a_typo_for_an_optional_key_lists_the_key_meant_first(tmp_path, capsys):
+    data = modified(SIZING, search__count=None, search__cont=SIZING["search"]["count"])
+    line = refused(tmp_path, capsys, data, "[search] cont:", command="size")
+    assert "did you mean `count`?" in line and line.split("known here: ")[1].startswith("count, ")
 
 
 def test_a_typo_in_a_circuit_part_is_named():
@@ -244,6 +258,8 @@ def test_a_byte_order_mark_is_accepted(tmp_path, capsys):
 
 
 def test_a_key_that_does_not_apply_is_not_called_unknown():
+    from coldplate.design.fields import Table
+
     t = Table({"kind": "tube", "count": 3}, "passage", ("kind", "count"))
     t.raw("kind")
     with pytest.raises(DesignError) as exc:
@@ -269,6 +285,8 @@ def test_implausible_geometry_is_refused_naming_the_range(tmp_path, capsys, chan
 
 def test_the_two_ways_of_writing_the_interface_share_one_range(tmp_path, capsys):
     """5 mm at 0.4 W/(m K) is 0.0125 m² K/W, just as written per area: both are refused with one range."""
+    from coldplate.design.ranges import INTERFACE_RESISTANCE
+
     as_area = modified(BASE, interface__conductivity=None, interface__thickness=None,
                        interface__resistance="0.0125 K*m**2/W")
     as_layer = modified(BASE, interface__conductivity="0.4 W/(m*K)", interface__thickness="5 mm")
@@ -281,6 +299,8 @@ def test_the_two_ways_of_writing_the_interface_share_one_range(tmp_path, capsys)
 
 
 def test_every_range_is_a_bound_with_its_field_and_a_source():
+    from coldplate.design.ranges import RANGES
+
     for field, bound in RANGES.items():
         assert isinstance(bound, Bound) and bound.variable == field
         assert bound.low < bound.high and bound.note

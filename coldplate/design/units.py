@@ -144,7 +144,8 @@ def parse_value(text: object, kind: str, field: str) -> float:
         raise DesignError(field, f"a bare number has no unit; write it with one, e.g. {_EXAMPLE[kind]}")
     if _DECIMAL_COMMA.match(text):
         fixed = text.replace(",", ".", 1).strip()
-        raise DesignError(field, f"{quoted(text)} has a decimal comma; write a decimal point: {quoted(fixed)}")
+        raise DesignError(field, f"{quoted(text)} has a decimal comma: write decimals with a point, "
+                                 f"{quoted(fixed)}, and thousands with no separator")
     match = _NUMBER_UNIT.match(text)
     if not match:
         raise DesignError(field, f"cannot read {quoted(text)}; write a number then a unit, e.g. {_EXAMPLE[kind]}")
@@ -162,8 +163,10 @@ def parse_value(text: object, kind: str, field: str) -> float:
             raise DesignError(field, f"unit '{name}' is not accepted: {hint}")
     q = _quantity(number, unit, text, kind, field)
     if not q.check(KINDS[kind]):
+        case = _CASE.get(unit.lower())
+        hint = f"; did you mean {case!r}?" if case and case != unit else ""
         raise DesignError(field, f"{quoted(text)} is not a {kind.replace('_', ' ')} (expected a unit like "
-                                 f"{_EXAMPLE[kind]})")
+                                 f"{_EXAMPLE[kind]}){hint}")
     names = dict(q._units)
     if kind == "temperature" and any(n.startswith("delta_") for n in names):
         raise DesignError(field, f"{quoted(text)} is a temperature difference where a temperature is needed; "
