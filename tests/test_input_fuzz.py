@@ -3,8 +3,9 @@
 Each mutant changes one to three things in an example's data: a value scaled by up to 100 either way (its
 unit kept, so many mutants are read and solved), a number (zero, negative, huge, tiny, a whole
 number past 64 bits, NaN), a unit (undefined, wrong case, unbalanced brackets, division by zero, a long
-product, a decimal comma, a temperature difference), a key (misspelt, deleted, emptied), or a value's type (to anything TOML can hold).
-Every outcome must keep the contract (the project's, README "Errors"): the design is read and solves to
+product, a decimal comma, a temperature difference), a key (misspelt, deleted, emptied), or a value's type
+(to anything TOML can hold).
+Every outcome must keep the contract (the project's, DEVELOPERS.md "Errors"): the design is read and solves to
 finite numbers (JSON without NaN or Infinity) or the physics is refused with one SolveError line, or the
 input is refused with one DesignError line naming its field; never another exception, never a warning.
 The ``[search]`` table of the sizing example is read as ``coldplate size`` reads it.

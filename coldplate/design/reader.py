@@ -189,6 +189,8 @@ PASSAGE_KEYS = {
     "tube": ("kind", "inner_diameter", "outer_diameter", "passes", "bend_radius", "material", "bond", "roughness"),
     "cavity": ("kind", "height", "port_diameter", "roughness"),
 }
+#: Before the kind is read: any passage kind's keys.
+ANY_PASSAGE_KEY = tuple(sorted({k for keys in PASSAGE_KEYS.values() for k in keys}))
 
 # ---------------------------------------------------------------- reading
 
@@ -251,7 +253,7 @@ def design_from_dict(data: dict) -> Design:
     module = read_module(data["module"]) if "module" in data else None
     heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface", KEYS["interface"]))
-    passage = _passage(Table(data["passage"], "passage", sorted({k for ks in PASSAGE_KEYS.values() for k in ks})), plate)
+    passage = _passage(Table(data["passage"], "passage", ANY_PASSAGE_KEY), plate)
     supply = _supply(Table(data["supply"], "supply", KEYS["supply"]))
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant", KEYS["coolant"]), supply)
     room = _room(Table(data["room"], "room", KEYS["room"]))

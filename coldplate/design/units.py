@@ -191,7 +191,8 @@ def _quantity(number: float, unit: str, text: str, kind: str, field: str):
     except pint.errors.UndefinedUnitError as exc:
         bad = [str(u) for u in getattr(exc, "unit_names", ()) or ()] or [unit]
         hint = next((f"; did you mean {_CASE[b.lower()]!r}?" for b in bad if b.lower() in _CASE), "")
-        raise DesignError(field, f"unknown unit {bad[0]!r} in {quoted(text)}{hint or ', e.g. ' + _EXAMPLE[kind]}") from None
+        hint = hint or f", e.g. {_EXAMPLE[kind]}"
+        raise DesignError(field, f"unknown unit {bad[0]!r} in {quoted(text)}{hint}") from None
     except RecursionError:
         raise DesignError(field, f"cannot read the unit of {quoted(text)}; write a plain unit, e.g. "
                                  f"{_EXAMPLE[kind]}") from None

@@ -104,7 +104,8 @@ def _difference(t: Table, key: str) -> float:
     """A temperature difference: kelvin or delta_degC; degC/degF would be read as absolute temperatures."""
     raw = t.raw(key)
     if isinstance(raw, str) and re.search(r"(?<!delta_)(deg[CF]|celsius|fahrenheit)", raw):
-        raise DesignError(t.field(key), f"{quoted(raw)} is a temperature, not a difference: write it in K or delta_degC")
+        raise DesignError(t.field(key), f"{quoted(raw)} is a temperature, not a difference: write it in K or "
+                                        "delta_degC")
     v = t.value(key, "temperature_difference")
     return v
 

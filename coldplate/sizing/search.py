@@ -17,7 +17,7 @@ from coldplate.design.reader import Design
 from coldplate.design.errors import DesignError
 from hydraulics.validity import Bound
 
-from coldplate.design.fields import Table, check_range
+from coldplate.design.fields import Table, check_range, nearest
 from coldplate.design.ranges import RANGES
 from coldplate.design.units import parse_value, quoted
 
@@ -196,7 +196,8 @@ def _one(v, unit, whole, field, low, high):
 def _range(raw: dict, unit: str, whole: bool, field: str, low: float, high: float) -> np.ndarray:
     unknown = sorted(set(raw) - {"from", "to", "steps", "spacing"})
     if unknown:
-        raise DesignError(field, f"unknown key {quoted(unknown[0])} in a range (known: from, to, steps, spacing)")
+        order = nearest(unknown[0], ("from", "to", "steps", "spacing"))
+        raise DesignError(field, f"unknown key {quoted(unknown[0])} in a range (known: {', '.join(order)})")
     for key in ("from", "to"):
         if key not in raw:
             raise DesignError(field, f"a range needs 'from' and 'to' (missing {key!r})")

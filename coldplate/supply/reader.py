@@ -61,6 +61,7 @@ PART_KEYS = {"hose": _LINE_KEYS, "tube": _LINE_KEYS,
              "valve": ("kind", "name", "kv", "cv", "solenoid", "diameter"),
              "backflow": ("kind", "name", "device", "loss", "rated_flow", "opening_loss"),
              "rise": ("kind", "name", "height"), "plate": ("kind", "name")}
+ANY_PART_KEY = tuple(sorted({k for keys in PART_KEYS.values() for k in keys}))  #: before the kind is read
 
 
 # ---------------------------------------------------------------- [circuit]
@@ -70,7 +71,7 @@ def read_circuit(data) -> Circuit:
     raw = t.raw("part")
     if not isinstance(raw, list) or not raw or not all(isinstance(p, dict) for p in raw):
         raise DesignError(t.field("part"), "list the parts in flow order as [[circuit.part]] tables")
-    parts = tuple(_part(Table(p, f"circuit.part {i}", sorted({k for ks in PART_KEYS.values() for k in ks})), i) for i, p in enumerate(raw, 1))
+    parts = tuple(_part(Table(p, f"circuit.part {i}", ANY_PART_KEY), i) for i, p in enumerate(raw, 1))
     plates = [i for i, p in enumerate(parts, 1) if isinstance(p, PlateSlot)]
     if len(plates) != 1:
         raise DesignError(t.field("part"), f"exactly one part must be kind = \"plate\" (where the plate sits); "
@@ -123,7 +124,8 @@ def _part(t: Table, i: int):
         coeff = t.raw(which)
         if isinstance(coeff, bool) or not isinstance(coeff, (int, float)) or not (0 < coeff < 1e4) \
                 or not math.isfinite(coeff):
-            raise DesignError(t.field(which), f"{quoted(coeff)} must be a positive number ({'m³/h at 1 bar' if which == 'kv' else 'US gal/min at 1 psi'})")
+            unit = "m³/h at 1 bar" if which == "kv" else "US gal/min at 1 psi"
+            raise DesignError(t.field(which), f"{quoted(coeff)} must be a positive number ({unit})")
         Kv = float(coeff) if which == "kv" else Kv_from_Cv(float(coeff))
         solenoid = t.raw("solenoid", required=False) or False
         if not isinstance(solenoid, bool):
