@@ -67,7 +67,8 @@ def test_unit_strings_that_crashed_the_parser_are_refused(tmp_path, capsys, text
 @pytest.mark.parametrize("kind,text,needle", [
     ("flow", "1,5 L/min", "decimal comma"),
     ("temperature", "16 degc", "'degC'"),
-    ("length", "5 MM", "did you mean 'mm'?"),  # pint reads MM as something else, not a length
+    ("length", "5 MM", "did you mean 'mm'?"),
+    ("power", "85 W)", "unbalanced brackets"),  # pint reads MM as something else, not a length
     ("power", "1,500 W", "no separator"),
     ("temperature", "16 delta_degC", "temperature difference where a temperature is needed"),
     ("temperature_difference", "68 degC", "a temperature where a temperature difference is needed"),

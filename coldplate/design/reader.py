@@ -319,8 +319,8 @@ def _interface(t: Table) -> Interface:
     k = t.value("conductivity", "conductivity")
     th = t.value("thickness", "length")
     # one range for the interface however it is written: as the resistance per area it makes
-    check_range(t.field("thickness") + " / conductivity", f"{th:g} m / {k:g} W/(m K)", th / k, "area_resistance",
-                INTERFACE_RESISTANCE)
+    check_range(t.field("thickness") + " / conductivity", f"{t.data['thickness']} at {t.data['conductivity']}",
+                th / k, "area_resistance", INTERFACE_RESISTANCE)
     t.finish()
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
@@ -380,7 +380,7 @@ def _supply(t: Table) -> Supply:
     source = t.choice("source", SOURCES)
     hraw = t.raw("hours_per_day")
     if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
-        if not math.isfinite(hraw) if isinstance(hraw, float) else False:
+        if isinstance(hraw, float) and not math.isfinite(hraw):
             raise DesignError(t.field("hours_per_day"), "must be a finite number")
         hours = float(hraw) if -1e6 < hraw < 1e6 else math.inf  # a whole number past 64 bits is not a float
     else:

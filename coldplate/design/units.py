@@ -158,6 +158,9 @@ def parse_value(text: object, kind: str, field: str) -> float:
     if len(unit) > MAX_UNIT_LENGTH:
         raise DesignError(field, f"the unit of {quoted(text)} is longer than {MAX_UNIT_LENGTH} characters; "
                                  f"write a plain unit, e.g. {_EXAMPLE[kind]}")
+    if unit.count("(") != unit.count(")"):
+        raise DesignError(field, f"the unit of {quoted(text)} has unbalanced brackets; write a plain unit, e.g. "
+                                 f"{_EXAMPLE[kind]}")
     for name, hint in _REFUSED_UNITS.items():
         if re.search(rf"(?<![A-Za-z_]){name}(?![A-Za-z_])", unit):
             raise DesignError(field, f"unit '{name}' is not accepted: {hint}")
