@@ -135,6 +135,7 @@ def test_huge_whole_numbers_in_search_give_one_line(tmp_path, capsys, count):
 # ---------------------------------------------------------------- 4: absurd tariffs, finite outputs
 
 @pytest.mark.parametrize("key,value", [("tariff", "1e306 EUR/m**3"), ("tariff", "1e12 EUR/L"),
+                                       ("tariff", "1e-300 EUR/m**3"), ("tariff", "0 EUR/m**3"),
                                        ("electricity_tariff", "1e300 EUR/kWh"), ("chiller_price", "1e300 EUR")])
 def test_absurd_money_is_refused(tmp_path, capsys, key, value):
     data = example_dict("tap-to-drain-circuit")
@@ -142,13 +143,26 @@ def test_absurd_money_is_refused(tmp_path, capsys, key, value):
     refused(tmp_path, capsys, data, f"[supply] {key}:")
 
 
-def test_the_largest_accepted_tariff_keeps_json_finite(tmp_path, capsys):
+@pytest.mark.parametrize("tariff,price,hours,days", [("1e7 EUR/m**3", "2400 EUR", 10, 250),
+                                                     ("1e-6 EUR/m**3", "1e12 EUR", 1 / 60, 1)])
+def test_the_extreme_accepted_money_keeps_every_output_finite(tmp_path, capsys, tariff, price, hours, days):
+    """At either end of the money and running-time ranges the cost, break-even and payback stay finite: with
+    a tariff of a millionth per m³ and a 1e12 chiller run a minute a day, the payback is a huge finite number."""
     data = example_dict("tap-to-drain-circuit")
-    data["supply"]["tariff"] = "1e7 EUR/m**3"
+    data["supply"].update(tariff=tariff, chiller_price=price, hours_per_day=hours, days_per_year=days,
+                          electricity_tariff="0 EUR/kWh")
     code, err, out = run(tmp_path, capsys, data, "check", "--format", "json")
     assert code == 0, err
-    assert "Infinity" not in out and "NaN" not in out
-    json.loads(out)  # and it parses
+    json.loads(out, parse_constant=lambda c: pytest.fail(f"JSON holds {c}"))
+    code, err, text = run(tmp_path, capsys, data, "check")
+    assert code == 0, err
+    assert not any(w in text.split() for w in ("inf", "nan", "-inf")), text
+
+
+def test_running_time_below_a_minute_a_day_is_refused(tmp_path, capsys):
+    line = refused(tmp_path, capsys, modified(BASE, supply__hours_per_day="30 s"), "[supply] hours_per_day")
+    assert "between 1 min and 24 h" in line
+    refused(tmp_path, capsys, modified(BASE, supply__days_per_year=0.5), "[supply] days_per_year")
 
 
 # ---------------------------------------------------------------- 5: values exactly at a limit in other units

@@ -20,7 +20,8 @@ from coldplate.design.units import parse_value, quoted
 SI_LABEL = {"length": "m", "power": "W", "flow": "m³/s", "pressure": "Pa (gauge)", "conductivity": "W/(m K)",
             "area_resistance": "m² K/W", "fraction": "(as a fraction)", "current": "A", "voltage": "V",
             "electrical_resistance": "ohm", "thermal_resistance": "K/W", "thermal_conductance": "W/K",
-            "seebeck": "V/K", "temperature_difference": "K", "time": "s", "volume": "m³", "energy": "J"}
+            "seebeck": "V/K", "temperature_difference": "K", "time": "s", "volume": "m³", "energy": "J",
+            "hours": "h"}
 
 
 #: How a kind of value is shown to a user: degC, mm, L/min, bar, %, money per m³ or kWh; SI otherwise.
@@ -33,6 +34,8 @@ _SHOW = {
     "money_volume": lambda x: f"{x:g} per m³",
     "money_energy": lambda x: f"{x * 3.6e6:g} per kWh",
     "money": lambda x: f"{x:g}",
+    "hours": lambda x: f"{x:g} h" if x >= 1 else f"{x * 60:g} min",
+    "days": lambda x: f"{x:g} day" + ("" if x == 1 else "s"),
 }
 
 
@@ -56,7 +59,8 @@ def check_range(field: str, raw, v: float, kind: str, bound: Bound, why: str = "
         return
     given = quoted(raw)
     seen = show(v, kind)
-    if seen.split(" ", 1)[-1] not in str(raw):  # the value again in the range's units, when written in others
+    number = isinstance(raw, (int, float)) and seen.split(" ", 1)[0] == f"{raw:g}"
+    if not number and seen.split(" ", 1)[-1] not in str(raw):  # the value again in the range's units
         given += f" ({seen})"
     if not low_ok and low == 0:
         what = "zero or negative" if bound.low_open else "negative"

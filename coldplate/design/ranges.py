@@ -65,6 +65,9 @@ RANGES: dict[str, Bound] = dict((
     _b("[supply] discharge_limit", 273.15, 373.15, "common practice: between freezing and boiling"),
     _b("[supply] face_limit", 273.15, 573.15),
     _b("[supply] chiller_power", 1.0, 1e6),
+    # running time, in hours a day and days a year (not SI: as the design file writes them)
+    _b("[supply] hours_per_day", 1 / 60, 24.0, "a minute a day to all day"),
+    _b("[supply] days_per_year", 1.0, 366.0, "a day a year to every day of a leap year"),
     # [room]: a room people or instruments work in
     _b("[room] temperature", 223.15, 333.15),
     _b("[room] relative_humidity", RH_FLOOR, 1.0,
@@ -107,9 +110,10 @@ RANGES: dict[str, Bound] = dict((
 ))
 
 #: Money: plausible amounts per SI unit, wide enough for every currency (some count 10 000 to the euro),
-#: small enough that a year's cost stays a finite number: water per m³, electricity per J, a chiller's price.
+#: narrow enough that every cost, break-even and payback stays a finite number: water per m³ (above zero:
+#: water and its drain are never free, and a zero price has no break-even), electricity per J, a chiller's price.
 MONEY = {
-    "tariff": Bound("[supply] tariff", 0.0, 1e7, "common practice: up to 10 million of a currency per m³"),
+    "tariff": Bound("[supply] tariff", 1e-6, 1e7, "common practice: a millionth to 10 million of a currency per m³"),
     "electricity_tariff": Bound("[supply] electricity_tariff", 0.0, 1e6 / 3.6e6,
                                 "common practice: up to 1 million of a currency per kWh"),
     "chiller_price": Bound("[supply] chiller_price", 0.0, 1e12, "common practice"),

@@ -380,18 +380,18 @@ def _supply(t: Table) -> Supply:
     source = t.choice("source", SOURCES)
     hraw = t.raw("hours_per_day")
     if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
-        if isinstance(hraw, float) and not math.isfinite(hraw):
-            raise DesignError(t.field("hours_per_day"), "must be a finite number")
-        hours = float(hraw) if -1e6 < hraw < 1e6 else math.inf  # a whole number past 64 bits is not a float
+        if not -1e6 < hraw < 1e6:  # NaN, infinity, a whole number past 64 bits: never a float to compare
+            raise DesignError(t.field("hours_per_day"), f"{quoted(hraw)} must be a number of hours from 1/60 to 24")
+        hours = float(hraw)
     else:
         hours = parse_value(hraw, "time", t.field("hours_per_day")) / 3600.0
-    if not (0 < hours <= 24):
-        raise DesignError(t.field("hours_per_day"), f"{quoted(hraw)} must be above 0 and at most 24")
+    check_range(t.field("hours_per_day"), hraw, hours, "hours", RANGES["[supply] hours_per_day"])
     days = t.raw("days_per_year", required=False)
     if days is None:
         days = 365.0
-    elif isinstance(days, bool) or not isinstance(days, (int, float)) or not (0 < days <= 366):
-        raise DesignError(t.field("days_per_year"), f"{quoted(days)} must be a number above 0 and at most 366")
+    elif isinstance(days, bool) or not isinstance(days, (int, float)) or not -1e6 < days < 1e6:
+        raise DesignError(t.field("days_per_year"), f"{quoted(days)} must be a number of days from 1 to 366")
+    check_range(t.field("days_per_year"), days, float(days), "days", RANGES["[supply] days_per_year"])
     p = t.value("static_pressure", "pressure", required=False)
     limit = t.value("discharge_limit", "temperature", required=False, default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
