@@ -8,7 +8,9 @@ product, a decimal comma, a temperature difference), a key (misspelt, deleted, e
 Every outcome must keep the contract (the project's, DEVELOPERS.md "Errors"): the design is read and solves to
 finite numbers (JSON without NaN or Infinity) or the physics is refused with one SolveError line, or the
 input is refused with one DesignError line naming its field; never another exception, never a warning.
-The ``[search]`` table of the sizing example is read as ``coldplate size`` reads it.
+The ``[search]`` table of the sizing example is read as ``coldplate size`` reads it.  One mutant in five
+edits the file's text instead (stray characters, a byte-order mark, a doubled line): it must parse or be
+refused in one line.
 
 In CI a few hundred mutants run (``COLDPLATE_FUZZ_MUTANTS``, default 300); set it to thousands locally, and
 ``COLDPLATE_FUZZ_SEED`` to another seed for a fresh campaign.  Source for the expectations: the project's
@@ -26,7 +28,8 @@ import pytest
 
 from coldplate.check import solve
 from coldplate.design.errors import ColdplateError, DesignError
-from coldplate.design.reader import design_from_dict
+from coldplate.design.reader import design_from_dict, parse_design
+from coldplate.sizing.writer import toml_text
 from coldplate.sizing.search import read_search
 from reports.jsonout import render_json
 
@@ -35,6 +38,7 @@ from .helpers import EXAMPLES, example_dict
 MUTANTS = int(os.environ.get("COLDPLATE_FUZZ_MUTANTS", "300"))
 SEED = int(os.environ.get("COLDPLATE_FUZZ_SEED", "20261202"))
 BASES = {p.stem: example_dict(p.stem) for p in EXAMPLES}
+TEXTS = {name: toml_text(data) for name, data in BASES.items()}
 
 NUMBERS = ["0", "-1", "-0", "1e308", "1e-308", "1e-15", "3e-15", "1e30", "9223372036854775807",
            "18446744073709551617", "nan", "inf", "-inf", "1e-5", "0.5", "1000000", "1,5", ".5", "5.", "+7"]
@@ -127,6 +131,37 @@ def mutate(rng: random.Random, data: dict) -> dict:
     return data
 
 
+def mutate_text(rng: random.Random, text: str) -> str:
+    """One to three character edits to a design file's text (a byte-order mark, a stray quote, a lost
+    bracket, a doubled line), for the TOML parser and what follows it."""
+    for _ in range(rng.randint(1, 3)):
+        i = rng.randrange(len(text) + 1)
+        how = rng.choice(("insert", "delete", "replace", "bom", "line"))
+        if how == "bom":
+            text = "\ufeff" + text
+        elif how == "line":
+            lines = text.splitlines(keepends=True)
+            j = rng.randrange(len(lines))
+            lines.insert(j, lines[rng.randrange(len(lines))])
+            text = "".join(lines)
+        else:
+            c = rng.choice('"[]{}=,.#\n \t\\0123456789eE-+%_ \u00b5\u00b0xyz')
+            cut = 0 if how == "insert" else 1
+            text = text[:i] + ("" if how == "delete" else c) + text[i + cut:]
+    return text
+
+
+def text_outcome(text: str) -> str:
+    """The contract on a mutated file's text: parse_design reads it or refuses it in one line."""
+    try:
+        design = parse_design(text)
+    except DesignError as exc:
+        assert "\n" not in str(exc) and "\r" not in str(exc), str(exc)
+        return "refused"
+    assert design.title
+    return "read"
+
+
 def _no_constants(name):
     raise AssertionError(f"JSON holds {name}")
 
@@ -158,14 +193,15 @@ def outcome(data: dict) -> str:
 def test_mutants_keep_the_input_contract():
     rng = random.Random(SEED)
     names = sorted(BASES)
-    seen = {"refused": 0, "unsolvable": 0, "solved": 0}
+    seen = {"refused": 0, "unsolvable": 0, "solved": 0, "read": 0}
     for i in range(MUTANTS):
         name = names[i % len(names)]
-        data = mutate(rng, BASES[name])
+        as_text = i % 5 == 4  # one mutant in five edits the file's text instead of its data
+        data = mutate_text(rng, TEXTS[name]) if as_text else mutate(rng, BASES[name])
         with warnings.catch_warnings():
             warnings.simplefilter("error")  # a warning would be a second line on stderr
             try:
-                seen[outcome(data)] += 1
+                seen[text_outcome(data) if as_text else outcome(data)] += 1
             except Exception as exc:
                 pytest.fail(f"mutant {i} of {name} (seed {SEED}) broke the contract: {type(exc).__name__}: "
                             f"{exc}\n{data}")
