@@ -69,7 +69,7 @@ def check_range(field: str, raw, v: float, kind: str, bound: Bound, why: str = "
     if kind == "fraction" and isinstance(raw, (int, float)) and v > 1:
         hint = f"; a bare number is a fraction of one: write '{raw:g} %'"
     elif kind == "fraction" and isinstance(raw, str) and v > 1 and "%" not in raw:
-        hint = f"; a number without a unit is a fraction of one: write '{raw.strip()} %'"
+        hint = f"; a number without a unit is a fraction of one: write '{v:g} %'"
     where = "below" if not low_ok else "above"
     if why:
         limit = show(low if not low_ok else high, kind)

@@ -17,8 +17,9 @@ from __future__ import annotations
 from hydraulics.validity import Bound
 
 #: Relative humidity below this is refused [-]: 0.1 %.  At the coldest room the reader accepts (-50 degC)
-#: the frost point of air this dry is about -88 degC, still inside the Hyland-Wexler ice equation's range
-#: (down to -100 degC; ASHRAE Handbook Fundamentals 2017 ch. 1), so every accepted room can be solved.
+#: the frost point of air this dry is about -95 degC (psychrolib agrees), still inside the Hyland-Wexler
+#: ice equation's range (down to -100 degC; ASHRAE Handbook Fundamentals 2017 ch. 1), so every accepted
+#: room can be solved.
 RH_FLOOR = 1e-3
 
 _CP = "common practice"
