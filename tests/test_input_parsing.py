@@ -103,7 +103,8 @@ def test_humidity_below_the_floor_is_refused_naming_it(tmp_path, capsys):
 @pytest.mark.parametrize("room_degC", [-50.0, 0.0, 25.0, 60.0])
 def test_every_room_at_the_humidity_floor_solves(room_degC):
     """At the floor the frost/dew point is solvable at every accepted room temperature, and agrees with
-    psychrolib (an independent implementation of the same ASHRAE equations) within 0.01 K (measured: at most 0.0007 K, at 0 degC)."""
+    psychrolib (an independent implementation of the same ASHRAE equations) within 0.01 K (measured: at most
+    0.0007 K, at 0 degC)."""
     import psychrolib
 
     from coldplate.design.ranges import RH_FLOOR
