@@ -328,3 +328,21 @@ def test_every_example_still_reads():
 
     for path in EXAMPLES:
         load_design(path)
+
+
+def test_a_refinement_step_off_the_plate_warns_nothing():
+    """SLSQP may try channels that do not fit (a wall of negative width): the evaluation is non-finite,
+    read as an unmet limit, and prints no numpy warning (a stray stderr line)."""
+    import warnings
+
+    import numpy as np
+
+    from coldplate.sizing.evaluate import Evaluator
+    from coldplate.sizing.refine import _evaluate
+
+    design = design_from_dict(SIZING)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        e = _evaluate(Evaluator(design), "channels", {"count": 30, "width": 3e-3, "depth": 5e-3, "base": 3e-3,
+                                                      "flow": 1e-5})
+    assert not np.isfinite(e.R_th).any()

@@ -69,12 +69,14 @@ def _better(a: Candidate, b: Candidate) -> bool:
 
 
 def _evaluate(evaluator, kind, values: dict):
-    if kind == "channels":
-        e = evaluator.channels([values["count"]], [values["width"]], [values["depth"]], [values["base"]],
-                               [values["flow"]])
-    else:
-        e = evaluator.tubes([values["inner_diameter"]], [values["passes"]], [values["base"]], [values["flow"]])
-    return e
+    """One candidate through the evaluator.  SLSQP's trial steps may leave the plate (a wall of negative
+    width): numpy's warnings there would be stray lines on stderr, and the non-finite numbers they flag are
+    already read as unmet limits by :func:`margins`."""
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        if kind == "channels":
+            return evaluator.channels([values["count"]], [values["width"]], [values["depth"]], [values["base"]],
+                                      [values["flow"]])
+        return evaluator.tubes([values["inner_diameter"]], [values["passes"]], [values["base"]], [values["flow"]])
 
 
 def _most(value, limit, scale):
