@@ -22,7 +22,8 @@ PACKAGES = ("coldplate", "hydraulics", "reports")
 #: the longest prefix wins.  A module may import its own concept in its own layer, and any layer below.
 LAYERS = (
     (0, "hydraulics", ("hydraulics",)),
-    (1, "design machinery", ("coldplate.design.errors", "coldplate.design.units", "coldplate.design.fields")),
+    (1, "design machinery", ("coldplate.design.errors", "coldplate.design.units", "coldplate.design.ranges",
+                               "coldplate.design.fields")),
     (2, "plate", ("coldplate.plate",)),
     (2, "finding record", ("coldplate.findings.base",)),
     (3, "plate findings", ("coldplate.findings.plate",)),

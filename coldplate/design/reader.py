@@ -7,6 +7,7 @@ tests rely on them); README.md documents them.
 """
 from __future__ import annotations
 
+import difflib
 import math
 import tomllib
 from dataclasses import dataclass
@@ -15,13 +16,15 @@ from pathlib import Path
 from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
 
 from hydraulics.circuit import Circuit
+from hydraulics.validity import at_most
 
 from coldplate.plate import materials
 from coldplate.supply.reader import read_circuit, read_supply_extras
 from coldplate.design.errors import DesignError, StateError
-from coldplate.design.fields import Table
+from coldplate.design.fields import Table, check_range, nearest
+from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES
 from coldplate.modules.reader import Module, read_module
-from coldplate.design.units import parse_value
+from coldplate.design.units import parse_value, quoted
 
 # ---------------------------------------------------------------- dataclasses
 
@@ -169,6 +172,26 @@ DEFAULT_DISCHARGE_LIMIT = 333.15
 #: Default plenum length at each end of a channel field, when not given [m].
 DEFAULT_PLENUM_LENGTH = 0.005
 
+#: Every key each table may hold (so a misspelt key is named as unknown, with the nearest known one).
+KEYS = {
+    "plate": ("material", "conductivity", "length", "width", "base", "pressure_rating"),
+    "heat": ("load", "footprint"),
+    "interface": ("resistance", "conductivity", "thickness"),
+    "supply": ("source", "hours_per_day", "days_per_year", "static_pressure", "discharge_limit", "discharge",
+               "drive", "pump_flow", "pump_head", "face_limit", "tariff", "chiller_power", "electricity_tariff",
+               "chiller_price"),
+    "coolant": ("fluid", "fraction", "basis", "inlet_temperature", "flow"),
+    "room": ("temperature", "relative_humidity"),
+    "correlations": ("laminar", "turbulent", "segments"),
+}
+PASSAGE_KEYS = {
+    "channels": ("kind", "count", "width", "depth", "plenum_length", "port_diameter", "roughness"),
+    "tube": ("kind", "inner_diameter", "outer_diameter", "passes", "bend_radius", "material", "bond", "roughness"),
+    "cavity": ("kind", "height", "port_diameter", "roughness"),
+}
+#: Before the kind is read: any passage kind's keys.
+ANY_PASSAGE_KEY = tuple(sorted({k for keys in PASSAGE_KEYS.values() for k in keys}))
+
 # ---------------------------------------------------------------- reading
 
 
@@ -181,7 +204,7 @@ def load_data(path: str | Path) -> dict:
     """A design file's TOML data as read, not yet checked (feature tables read their own parts from it)."""
     path = Path(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        text = path.read_text(encoding="utf-8-sig")  # a byte-order mark at the start is accepted
     except FileNotFoundError:
         raise DesignError("", f"design file {str(path)!r} does not exist") from None
     except (OSError, UnicodeDecodeError) as exc:
@@ -195,6 +218,8 @@ def parse_design(text: str) -> Design:
 
 
 def _toml(text: str) -> dict:
+    if text.startswith("\ufeff"):  # a UTF-8 byte-order mark, as some editors write one
+        text = text[1:]
     try:
         return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
@@ -211,7 +236,12 @@ def design_from_dict(data: dict) -> Design:
     known = _TOP + _OPTIONAL + _FEATURE_TABLES
     unknown = sorted(set(data) - set(known))
     if unknown:
-        raise DesignError(unknown[0], f"unknown top-level key or table (known: {', '.join(known)})")
+        key = unknown[0]
+        if key == "":
+            raise DesignError('""', "an empty key (\"\" = ...) is not a key or table; remove it or name it")
+        order = nearest(key, known)
+        mean = f"; did you mean `{order[0]}`?" if difflib.get_close_matches(key, order, 1, 0.6) else ""
+        raise DesignError(key, f"unknown top-level key or table `{key}`{mean} (known: {', '.join(order)})")
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
@@ -219,15 +249,15 @@ def design_from_dict(data: dict) -> Design:
         if name not in data:
             raise DesignError(f"[{name}]", "table is missing")
 
-    plate = _plate(Table(data["plate"], "plate"))
+    plate = _plate(Table(data["plate"], "plate", KEYS["plate"]))
     module = read_module(data["module"]) if "module" in data else None
-    heat = _heat(Table(data["heat"], "heat"), plate, module is not None)
-    interface = _interface(Table(data["interface"], "interface"))
-    passage = _passage(Table(data["passage"], "passage"), plate)
-    supply = _supply(Table(data["supply"], "supply"))
-    coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
-    room = _room(Table(data["room"], "room"))
-    model = _model(Table(data.get("correlations", {}), "correlations"))
+    heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)
+    interface = _interface(Table(data["interface"], "interface", KEYS["interface"]))
+    passage = _passage(Table(data["passage"], "passage", ANY_PASSAGE_KEY), plate)
+    supply = _supply(Table(data["supply"], "supply", KEYS["supply"]))
+    coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant", KEYS["coolant"]), supply)
+    room = _room(Table(data["room"], "room", KEYS["room"]))
+    model = _model(Table(data.get("correlations", {}), "correlations", KEYS["correlations"]))
     circuit = read_circuit(data["circuit"]) if "circuit" in data else None
     if supply.drive != "flow" and circuit is None:
         raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
@@ -239,18 +269,18 @@ def design_from_dict(data: dict) -> Design:
 def _plate(t: Table) -> Plate:
     which = t.exactly_one("material", "conductivity")
     if which == "material":
-        key = t.raw("material")
+        key = t.word("material")
         try:
             mat = materials.material(key)
         except (KeyError, TypeError) as exc:
             raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
         k, key = mat.conductivity, mat.key
     else:
-        k, key = t.value("conductivity", "conductivity", low=0, high=5000), None
-    length = t.value("length", "length", low=0, high=2.0)
-    width = t.value("width", "length", low=0, high=2.0)
-    base = t.value("base", "length", low=0, high=0.2)
-    rating = t.value("pressure_rating", "pressure", required=False, low=0, high=1e8)
+        k, key = t.value("conductivity", "conductivity"), None
+    length = t.value("length", "length")
+    width = t.value("width", "length")
+    base = t.value("base", "length")
+    rating = t.value("pressure_rating", "pressure", required=False)
     t.finish()
     return Plate(key, k, length, width, base, rating)
 
@@ -260,16 +290,18 @@ def _heat(t: Table, plate: Plate, module: bool = False) -> Heat:
         raise DesignError(t.field("load"), "remove it: with a [module] table the plate's load is the modules' "
                                            "hot-side heat, and the cold-side load is [module] cold_load")
     # With modules the plate's load is solved, not given: NaN here, the solve passes the real load.
-    load = math.nan if module else t.value("load", "power", low=0, high=1e5)
+    load = math.nan if module else t.value("load", "power")
     fp = t.raw("footprint")
     if not isinstance(fp, list) or len(fp) != 2:
         raise DesignError(t.field("footprint"), "must be an array of two lengths, along the flow and across, e.g. [\"40 mm\", \"40 mm\"]")
     fl = parse_value(fp[0], "length", t.field("footprint") + " (along the flow)")
     fw = parse_value(fp[1], "length", t.field("footprint") + " (across)")
     for v, what, limit, pname in ((fl, "along the flow", plate.length, "length"), (fw, "across", plate.width, "width")):
+        check_range(t.field("footprint") + f" ({what})", fp[0] if what == "along the flow" else fp[1], v, "length",
+                    RANGES["[heat] footprint"])
         if v <= 0:
             raise DesignError(t.field("footprint"), f"the length {what} must be above zero")
-        if v > limit * (1 + 1e-9):
+        if not at_most(v, limit):
             raise DesignError(t.field("footprint"), f"{v * 1e3:.4g} mm {what} is larger than the plate {pname} {limit * 1e3:.4g} mm")
     t.finish()
     return Heat(load, fl, fw)
@@ -279,28 +311,30 @@ def _interface(t: Table) -> Interface:
     if t.has("resistance"):
         if t.has("conductivity") or t.has("thickness"):
             raise DesignError("[interface]", "give either resistance, or conductivity and thickness (both given)")
-        r = t.value("resistance", "area_resistance", low=0, low_inclusive=True, high=1e-2)
+        r = t.value("resistance", "area_resistance")
         t.finish()
         return Interface(r, f"R'' = {r:.3g} m²K/W")
     if not (t.has("conductivity") and t.has("thickness")):
         raise DesignError("[interface]", "give either resistance, or conductivity and thickness (neither complete)")
-    k = t.value("conductivity", "conductivity", low=0, high=2000)
-    th = t.value("thickness", "length", low=0, high=0.005)
+    k = t.value("conductivity", "conductivity")
+    th = t.value("thickness", "length")
+    # one range for the interface however it is written: as the resistance per area it makes
+    check_range(t.field("thickness") + " / conductivity", f"{t.data['thickness']} at {t.data['conductivity']}",
+                th / k, "area_resistance", INTERFACE_RESISTANCE)
     t.finish()
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
 
 def _passage(t: Table, plate: Plate):
     kind = t.choice("kind", PASSAGE_KINDS)
+    t.keys = PASSAGE_KEYS[kind]
     if kind == "channels":
         count = t.integer("count", 1, 2000)
-        w = t.value("width", "length", low=0, high=plate.width)
-        d = t.value("depth", "length", low=0, high=0.1)
-        plen = t.value("plenum_length", "length", required=False, low=0, low_inclusive=True,
-                       default=DEFAULT_PLENUM_LENGTH)
-        port = t.value("port_diameter", "length", required=False, low=0, high=0.1)
-        rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
-                        default=materials.roughness("machined-metal"))
+        w = t.value("width", "length", high=plate.width, why="the plate's width")
+        d = t.value("depth", "length")
+        plen = t.value("plenum_length", "length", required=False, default=DEFAULT_PLENUM_LENGTH)
+        port = t.value("port_diameter", "length", required=False)
+        rough = t.value("roughness", "length", required=False, default=materials.roughness("machined-metal"))
         wall = (plate.width - count * w) / (count + 1)
         if wall <= 0:
             raise DesignError(t.field("count"), f"{count} channels of {w * 1e3:.4g} mm do not fit the plate width "
@@ -310,20 +344,19 @@ def _passage(t: Table, plate: Plate):
         t.finish()
         return Channels(count, w, d, plen, port, rough)
     if kind == "tube":
-        di = t.value("inner_diameter", "length", low=0, high=0.1)
-        do = t.value("outer_diameter", "length", low=0, high=0.1)
+        di = t.value("inner_diameter", "length")
+        do = t.value("outer_diameter", "length")
         if do <= di:
             raise DesignError(t.field("outer_diameter"), "must be larger than inner_diameter")
         passes = t.integer("passes", 1, 200)
-        rb = t.value("bend_radius", "length", low=0, high=0.5)
-        mkey = t.raw("material")
+        rb = t.value("bend_radius", "length")
+        mkey = t.word("material")
         try:
             mat = materials.material(mkey)
         except (KeyError, TypeError) as exc:
             raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
         bond = t.choice("bond", tuple(materials.BONDS))
-        rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
-                        default=materials.roughness("drawn-tubing"))
+        rough = t.value("roughness", "length", required=False, default=materials.roughness("drawn-tubing"))
         if passes > 1 and 2 * rb < do:
             raise DesignError(t.field("bend_radius"), "a return bend of this radius puts adjacent passes closer than the tube diameter")
         span = (passes - 1) * 2 * rb + do
@@ -332,10 +365,9 @@ def _passage(t: Table, plate: Plate):
                                                  f"wider than the plate ({plate.width * 1e3:.4g} mm)")
         t.finish()
         return Tube(di, do, passes, rb, mat.key, bond, rough)
-    h = t.value("height", "length", low=0, high=0.1)
-    port = t.value("port_diameter", "length", low=0, high=0.1)
-    rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
-                    default=materials.roughness("machined-metal"))
+    h = t.value("height", "length")
+    port = t.value("port_diameter", "length")
+    rough = t.value("roughness", "length", required=False, default=materials.roughness("machined-metal"))
     if port > plate.width:
         raise DesignError(t.field("port_diameter"), "is wider than the plate")
     if h > plate.width:
@@ -348,21 +380,20 @@ def _supply(t: Table) -> Supply:
     source = t.choice("source", SOURCES)
     hraw = t.raw("hours_per_day")
     if isinstance(hraw, (int, float)) and not isinstance(hraw, bool):
+        if not -1e6 < hraw < 1e6:  # NaN, infinity, a whole number past 64 bits: never a float to compare
+            raise DesignError(t.field("hours_per_day"), f"{quoted(hraw)} must be a number of hours from 1/60 to 24")
         hours = float(hraw)
-        if not math.isfinite(hours):
-            raise DesignError(t.field("hours_per_day"), "must be a finite number")
     else:
         hours = parse_value(hraw, "time", t.field("hours_per_day")) / 3600.0
-    if not (0 < hours <= 24):
-        raise DesignError(t.field("hours_per_day"), f"{hraw!r} must be above 0 and at most 24")
+    check_range(t.field("hours_per_day"), hraw, hours, "hours", RANGES["[supply] hours_per_day"])
     days = t.raw("days_per_year", required=False)
     if days is None:
         days = 365.0
-    elif isinstance(days, bool) or not isinstance(days, (int, float)) or not (0 < days <= 366):
-        raise DesignError(t.field("days_per_year"), f"{days!r} must be a number above 0 and at most 366")
-    p = t.value("static_pressure", "pressure", required=False, low=0, low_inclusive=True, high=5e6)
-    limit = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15,
-                    default=DEFAULT_DISCHARGE_LIMIT)
+    elif isinstance(days, bool) or not isinstance(days, (int, float)) or not -1e6 < days < 1e6:
+        raise DesignError(t.field("days_per_year"), f"{quoted(days)} must be a number of days from 1 to 366")
+    check_range(t.field("days_per_year"), days, float(days), "days", RANGES["[supply] days_per_year"])
+    p = t.value("static_pressure", "pressure", required=False)
+    limit = t.value("discharge_limit", "temperature", required=False, default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
     extras = read_supply_extras(t, source, discharge, p)
     if source == "potable" and discharge == "return":
@@ -380,13 +411,13 @@ def _coolant(t: Table, supply: Supply):
     if fluid == "water":
         fraction, basis = 0.0, "mass"
     else:
-        fraction = t.value("fraction", "fraction", low=0, high=1)
+        fraction = t.value("fraction", "fraction")
         basis = t.choice("basis", ("mass", "volume"))
     try:
         coolant = Coolant(fluid, fraction, basis)
     except ValueError as exc:
         raise DesignError(t.field("fraction"), str(exc)) from None
-    T_in = t.value("inlet_temperature", "temperature", low=0, high=500)
+    T_in = t.value("inlet_temperature", "temperature")
     try:
         coolant.check_liquid(T_in, supply.line_pressure)
     except _CoolantStateError as exc:
@@ -394,14 +425,14 @@ def _coolant(t: Table, supply: Supply):
     if supply.drive != "flow" and t.has("flow"):
         raise DesignError(t.field("flow"), f"the supply sets the flow (drive = {supply.drive!r}); remove this key "
                                            "or use drive = \"flow\"")
-    flow = t.value("flow", "flow", required=supply.drive == "flow", low=0, high=0.01)
+    flow = t.value("flow", "flow", required=supply.drive == "flow")
     t.finish()
     return coolant, T_in, flow
 
 
 def _room(t: Table) -> Room:
-    T = t.value("temperature", "temperature", low=223.15, high=333.15)
-    rh = t.value("relative_humidity", "fraction", low=0, high=1.0)
+    T = t.value("temperature", "temperature")
+    rh = t.value("relative_humidity", "fraction")
     t.finish()
     return Room(T, rh)
 
@@ -413,6 +444,6 @@ def _model(t: Table) -> Model:
     if seg is None:
         seg = Model.segments
     elif isinstance(seg, bool) or not isinstance(seg, int) or not (4 <= seg <= 2000):
-        raise DesignError(t.field("segments"), f"{seg!r} must be a whole number from 4 to 2000")
+        raise DesignError(t.field("segments"), f"{quoted(seg)} must be a whole number from 4 to 2000")
     t.finish()
     return Model(lam, turb, seg)

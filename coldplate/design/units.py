@@ -61,6 +61,7 @@ KINDS = {
     "seebeck": "[electric_potential] / [temperature]",
     "volume": "[length] ** 3",
     "energy": "[energy]",
+    "temperature_difference": "[temperature]",
 }
 
 _SI_UNIT = {
@@ -83,6 +84,7 @@ _SI_UNIT = {
     "seebeck": "V/K",
     "volume": "m**3",
     "energy": "J",
+    "temperature_difference": "K",
 }
 
 _EXAMPLE = {
@@ -105,7 +107,23 @@ _EXAMPLE = {
     "seebeck": "'0.05 V/K'",
     "volume": "'1 m**3'",
     "energy": "'1 kWh'",
+    "temperature_difference": "'68 K'",
 }
+
+#: Longest unit text read: a real unit is a few symbols; pint's parser recurses on long products.
+MAX_UNIT_LENGTH = 60
+#: Units a user may spell with the wrong case (lower-case key -> the spelling pint knows).
+_CASE = {u.lower(): u for u in (
+    "degC", "degF", "degK", "degR", "K", "Pa", "kPa", "MPa", "hPa", "mbar", "bar", "psi", "W", "kW", "mW", "MW",
+    "mm", "cm", "m", "um", "km", "inch", "ft", "L", "mL", "min", "h", "s", "ms", "day", "J", "kJ", "kWh", "Wh",
+    "A", "mA", "V", "mV", "uV", "ohm", "kohm", "mohm", "delta_degC", "delta_degF", "gallon", "percent")}
+_DECIMAL_COMMA = re.compile(r"^\s*[-+]?\d+,\d+(?:[eE][-+]?\d+)?(\s|$)")
+
+
+def quoted(raw: object, limit: int = 60) -> str:
+    """``raw`` as a message shows it: its repr, cut to ``limit`` characters (one line, never a page)."""
+    text = repr(raw)
+    return text if len(text) <= limit else text[: limit - 5] + "...'" if isinstance(raw, str) else text[:limit] + "..."
 
 
 def parse_value(text: object, kind: str, field: str) -> float:
@@ -113,41 +131,78 @@ def parse_value(text: object, kind: str, field: str) -> float:
 
     Raises :class:`DesignError` naming ``field`` for anything else: a bare number
     where a unit is needed, an unknown unit, a unit of the wrong kind, NaN or
-    infinity.  Fractions may also be given as a bare number between 0 and 1.
+    infinity, a decimal comma, a temperature difference where a temperature is
+    needed (or the reverse).  Fractions may also be given as a bare number.
     """
     if isinstance(text, bool) or not isinstance(text, (str, int, float)):
-        raise DesignError(field, f"expected a value with a unit such as {_EXAMPLE[kind]}, got {text!r}")
+        raise DesignError(field, f"expected a value with a unit such as {_EXAMPLE[kind]}, got {quoted(text)}")
     if isinstance(text, (int, float)):
         if kind == "fraction":
-            value = float(text)
+            value = float(text) if abs(text) < 1e300 else math.inf  # whole numbers past a float: not finite
             _finite(value, field)
             return value
         raise DesignError(field, f"a bare number has no unit; write it with one, e.g. {_EXAMPLE[kind]}")
+    if _DECIMAL_COMMA.match(text):
+        fixed = text.replace(",", ".", 1).strip()
+        raise DesignError(field, f"{quoted(text)} has a decimal comma: write decimals with a point, "
+                                 f"{quoted(fixed)}, and thousands with no separator")
     match = _NUMBER_UNIT.match(text)
     if not match:
-        raise DesignError(field, f"cannot read {text!r}; write a number then a unit, e.g. {_EXAMPLE[kind]}")
+        raise DesignError(field, f"cannot read {quoted(text)}; write a number then a unit, e.g. {_EXAMPLE[kind]}")
     number, unit = float(match.group(1)), match.group(2)
     _finite(number, field)
     if not unit:
         if kind == "fraction":
             return number
-        raise DesignError(field, f"{text!r} has no unit; write it with one, e.g. {_EXAMPLE[kind]}")
+        raise DesignError(field, f"{quoted(text)} has no unit; write it with one, e.g. {_EXAMPLE[kind]}")
+    if len(unit) > MAX_UNIT_LENGTH:
+        raise DesignError(field, f"the unit of {quoted(text)} is longer than {MAX_UNIT_LENGTH} characters; "
+                                 f"write a plain unit, e.g. {_EXAMPLE[kind]}")
+    if unit.count("(") != unit.count(")"):
+        raise DesignError(field, f"the unit of {quoted(text)} has unbalanced brackets; write a plain unit, e.g. "
+                                 f"{_EXAMPLE[kind]}")
     for name, hint in _REFUSED_UNITS.items():
         if re.search(rf"(?<![A-Za-z_]){name}(?![A-Za-z_])", unit):
             raise DesignError(field, f"unit '{name}' is not accepted: {hint}")
-    try:
-        q = Quantity(number, unit)
-    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError, AttributeError,
-            TypeError, ValueError, SyntaxError, AssertionError) as exc:
-        raise DesignError(field, f"unknown unit in {text!r} ({exc})") from None
+    q = _quantity(number, unit, text, kind, field)
     if not q.check(KINDS[kind]):
-        raise DesignError(field, f"{text!r} is not a {kind.replace('_', ' ')} (expected a unit like {_EXAMPLE[kind]})")
+        case = _CASE.get(unit.lower())
+        hint = f"; did you mean {case!r}?" if case and case != unit else ""
+        raise DesignError(field, f"{quoted(text)} is not a {kind.replace('_', ' ')} (expected a unit like "
+                                 f"{_EXAMPLE[kind]}){hint}")
+    names = dict(q._units)
+    if kind == "temperature" and any(n.startswith("delta_") for n in names):
+        raise DesignError(field, f"{quoted(text)} is a temperature difference where a temperature is needed; "
+                                 f"write it in degC, degF or K, e.g. {_EXAMPLE[kind]}")
+    if kind == "temperature_difference" and not q._is_multiplicative:
+        raise DesignError(field, f"{quoted(text)} is a temperature where a temperature difference is needed; "
+                                 "write it in K or delta_degC")
     try:
         value = float(q.to(_SI_UNIT[kind]).magnitude)
     except pint.errors.OffsetUnitCalculusError:
-        raise DesignError(field, f"{text!r}: write temperature differences in K or delta_degC") from None
+        raise DesignError(field, f"{quoted(text)}: write temperature differences in K or delta_degC") from None
+    except (OverflowError, ArithmeticError):
+        raise DesignError(field, f"{quoted(text)} is too large a number to read") from None
     _finite(value, field)
     return value
+
+
+def _quantity(number: float, unit: str, text: str, kind: str, field: str):
+    """``Quantity(number, unit)``, every failure of pint's parser a one-line DesignError naming ``field``."""
+    try:
+        return Quantity(number, unit)
+    except pint.errors.UndefinedUnitError as exc:
+        bad = [str(u) for u in getattr(exc, "unit_names", ()) or ()] or [unit]
+        hint = next((f"; did you mean {_CASE[b.lower()]!r}?" for b in bad if b.lower() in _CASE), "")
+        hint = hint or f", e.g. {_EXAMPLE[kind]}"
+        raise DesignError(field, f"unknown unit {bad[0]!r} in {quoted(text)}{hint}") from None
+    except RecursionError:
+        raise DesignError(field, f"cannot read the unit of {quoted(text)}; write a plain unit, e.g. "
+                                 f"{_EXAMPLE[kind]}") from None
+    except Exception as exc:  # the parser's own faults: unbalanced brackets, division by zero, stray symbols
+        what = "divides by zero" if isinstance(exc, ZeroDivisionError) else f"is not a unit ({type(exc).__name__})"
+        raise DesignError(field, f"the unit of {quoted(text)} {what}; write a plain unit, e.g. "
+                                 f"{_EXAMPLE[kind]}") from None
 
 
 def _finite(value: float, field: str) -> None:

@@ -13,6 +13,7 @@ from dataclasses import dataclass
 from coldplate.modules import model as te
 from coldplate.design.errors import DesignError
 from coldplate.design.fields import Table
+from coldplate.design.units import quoted
 
 WIRINGS = ("series", "parallel", "series-parallel")
 #: Hot-side temperature a standard module may run at when the datasheet gives none: 80 degC
@@ -29,6 +30,9 @@ MIN_SEEBECK = 2.0e-4
 ZT_MAX = 4.0
 _DATASHEET_KEYS = ("max_voltage", "max_temperature_difference", "rated_hot_side", "max_heat")
 _DIRECT_KEYS = ("seebeck", "resistance", "conductance")
+#: Every key [module] may hold (a misspelt key is named as unknown, with the nearest known one).
+_KEYS = ("max_current", *_DATASHEET_KEYS, *_DIRECT_KEYS, "count", "wiring", "strings", "cold_load", "current",
+         "cold_face_temperature", "cold_side_resistance", "hot_side_limit")
 
 
 @dataclass(frozen=True)
@@ -62,48 +66,46 @@ class Module:
 
 def read_module(data) -> Module:
     """The ``[module]`` table as a :class:`Module`."""
-    t = Table(data, "module")
+    t = Table(data, "module", _KEYS)
     direct = any(t.has(k) for k in _DIRECT_KEYS)
     if direct and any(t.has(k) for k in _DATASHEET_KEYS):
         raise DesignError("[module]", "give either the datasheet maxima (max_voltage, max_temperature_difference, "
                                       "rated_hot_side) or seebeck, resistance and conductance, not both")
-    I_max = t.value("max_current", "current", low=0, high=1000)
+    I_max = t.value("max_current", "current")
     extra = {}
     if direct:
-        S = t.value("seebeck", "seebeck", low=0, high=10)
-        R = t.value("resistance", "electrical_resistance", low=0, high=1e4)
-        K = t.value("conductance", "thermal_conductance", low=0, high=1e3)
+        S = t.value("seebeck", "seebeck")
+        R = t.value("resistance", "electrical_resistance")
+        K = t.value("conductance", "thermal_conductance")
     else:
-        V_max = t.value("max_voltage", "voltage", low=0, high=1000)
-        T_rated = t.value("rated_hot_side", "temperature", low=173.15, high=473.15)
+        V_max = t.value("max_voltage", "voltage")
+        T_rated = t.value("rated_hot_side", "temperature")
         dT_max = _difference(t, "max_temperature_difference")
         if dT_max >= T_rated:
             raise DesignError(t.field("max_temperature_difference"),
                               f"{dT_max:g} K is not below the rated hot-side temperature "
                               f"({T_rated:g} K): the cold side would be at or below absolute zero")
         S, R, K = te.luo_parameters(I_max, V_max, dT_max, T_rated)
-        q_max = t.value("max_heat", "power", required=False, low=0, high=1e5)
+        q_max = t.value("max_heat", "power", required=False)
         extra = dict(max_voltage=V_max, max_temperature_difference=dT_max, rated_hot_side=T_rated, max_heat=q_max)
 
     _physical(t, direct, S, R, K, extra.get("rated_hot_side"))
     count = t.integer("count", 1, 500) if t.has("count") else 1
     wiring = t.choice("wiring", WIRINGS, default="series")
     strings = _strings(t, wiring, count)
-    Q_c = t.value("cold_load", "power", low=0, low_inclusive=True, high=1e5)
+    Q_c = t.value("cold_load", "power")
     which = t.exactly_one("current", "cold_face_temperature")
     current = target = None
     if which == "current":
-        current = t.value("current", "current", low=0, low_inclusive=True, high=1000)
+        current = t.value("current", "current")
         if current > I_max:
             raise DesignError(t.field("current"), f"{current:g} A is above the module's max_current {I_max:g} A")
         if current == 0 and Q_c == 0:
             raise DesignError(t.field("current"), "with no cold-side load and no current there is nothing to solve")
     else:
-        target = t.value("cold_face_temperature", "temperature", low=173.15, high=473.15)
-    R_cold = t.value("cold_side_resistance", "thermal_resistance", required=False, low=0, low_inclusive=True,
-                     high=100, default=0.0)
-    limit = t.value("hot_side_limit", "temperature", required=False, low=273.15, high=573.15,
-                    default=DEFAULT_HOT_SIDE_LIMIT)
+        target = t.value("cold_face_temperature", "temperature")
+    R_cold = t.value("cold_side_resistance", "thermal_resistance", required=False, default=0.0)
+    limit = t.value("hot_side_limit", "temperature", required=False, default=DEFAULT_HOT_SIDE_LIMIT)
     t.finish()
     return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra)
 
@@ -128,8 +130,9 @@ def _difference(t: Table, key: str) -> float:
     """A temperature difference: kelvin or delta_degC; degC/degF would be read as absolute temperatures."""
     raw = t.raw(key)
     if isinstance(raw, str) and re.search(r"(?<!delta_)(deg[CF]|celsius|fahrenheit)", raw):
-        raise DesignError(t.field(key), f"{raw!r} is a temperature, not a difference: write it in K or delta_degC")
-    v = t.value(key, "temperature", low=0, high=400)
+        raise DesignError(t.field(key), f"{quoted(raw)} is a temperature, not a difference: write it in K or "
+                                        "delta_degC")
+    v = t.value(key, "temperature_difference")
     return v
 
 

@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
+from hydraulics.validity import at_most
+
 from coldplate.design.reader import Design, design_from_dict, load_data, parse_design
 from coldplate.plate.result import Result
 from coldplate.check import solve
@@ -113,7 +115,7 @@ def _why(outcome: SearchOutcome, refinement: Refinement | None, chosen: Candidat
     elif refinement is not None:
         out.append("Refinement between grid points found nothing better that still meets every limit.")
     def vs(value, limit):  # the one-design check is compared, not assumed to meet the limit
-        return "<=" if value <= limit * (1 + 1e-9) else "> (NOT MET)"
+        return "<=" if at_most(value, limit) else "> (NOT MET)"
 
     met = [f"mounting face {check.T_face_max - 273.15:.1f} degC {vs(check.T_face_max, lim.face)} "
            f"{lim.face - 273.15:.1f} degC"]

@@ -16,6 +16,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from hydraulics.validity import slack
+
 from coldplate.sizing.evaluate import Evaluator
 from coldplate.sizing.run import Candidate, SearchOutcome, candidate_from
 
@@ -67,31 +69,48 @@ def _better(a: Candidate, b: Candidate) -> bool:
 
 
 def _evaluate(evaluator, kind, values: dict):
-    if kind == "channels":
-        e = evaluator.channels([values["count"]], [values["width"]], [values["depth"]], [values["base"]],
-                               [values["flow"]])
-    else:
-        e = evaluator.tubes([values["inner_diameter"]], [values["passes"]], [values["base"]], [values["flow"]])
-    return e
+    """One candidate through the evaluator.  SLSQP's trial steps may leave the plate (a wall of negative
+    width): numpy's warnings there would be stray lines on stderr, and the non-finite numbers they flag are
+    already read as unmet limits by :func:`margins`."""
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        if kind == "channels":
+            return evaluator.channels([values["count"]], [values["width"]], [values["depth"]], [values["base"]],
+                                      [values["flow"]])
+        return evaluator.tubes([values["inner_diameter"]], [values["passes"]], [values["base"]], [values["flow"]])
+
+
+def _most(value, limit, scale):
+    """A "value <= limit" margin under the one comparison rule (the grid's: hydraulics.validity), scaled."""
+    return (limit + slack(limit) - value) / scale
+
+
+def _least(value, limit, scale):
+    """A "value >= limit" margin under the one comparison rule, scaled."""
+    return (value - limit + slack(limit)) / scale
 
 
 def margins(c: Candidate, outcome: SearchOutcome, design) -> np.ndarray:
-    """Every limit as a margin that is >= 0 when met, scaled to order one."""
+    """Every limit as a margin that is >= 0 when met, scaled to order one.
+
+    A limit is met under the same rule the grid uses (a value within the relative tolerance of a limit is
+    on it), so a limit written in other units ("0.0315 inch" for 0.8 mm) does not reject the refinement's
+    every step while the grid accepts the same point.
+    """
     lim, v = outcome.spec.limits, dict(c.values)
-    out = [(lim.face - c.T_face) / 1.0]
+    out = [_most(c.T_face, lim.face, 1.0)]
     if lim.pressure_drop is not None:
-        out.append((lim.pressure_drop - c.dp) / lim.pressure_drop)
+        out.append(_most(c.dp, lim.pressure_drop, lim.pressure_drop))
     if lim.discharge is not None:
-        out.append((lim.discharge - c.T_out) / 1.0)
+        out.append(_most(c.T_out, lim.discharge, 1.0))
     if lim.max_water is not None:
-        out.append((lim.max_water - c.flow * design.supply.hours_per_day / 24.0) / lim.max_water)
+        out.append(_most(c.flow * design.supply.hours_per_day / 24.0, lim.max_water, lim.max_water))
     if outcome.spec.kind == "channels":
         wall = (design.plate.width - v["count"] * v["width"]) / (v["count"] + 1)
         out.append(wall / 1e-4)
         if lim.min_width is not None:
-            out.append((v["width"] - lim.min_width) / lim.min_width)
+            out.append(_least(v["width"], lim.min_width, lim.min_width))
         if lim.min_wall is not None:
-            out.append((wall - lim.min_wall) / lim.min_wall)
+            out.append(_least(wall, lim.min_wall, lim.min_wall))
         height = v["depth"]
     else:
         tw = 0.5 * (design.passage.outer_diameter - design.passage.inner_diameter)
@@ -102,7 +121,7 @@ def margins(c: Candidate, outcome: SearchOutcome, design) -> np.ndarray:
             out.append((2 * rb - do) / 1e-3)
         height = 0.5 * do
     if lim.max_thickness is not None:
-        out.append((lim.max_thickness - v["base"] - height) / lim.max_thickness)
+        out.append(_most(v["base"] + height, lim.max_thickness, lim.max_thickness))
     m = np.array(out, dtype=float)
     return np.where(np.isfinite(m), m, -1e3)
 

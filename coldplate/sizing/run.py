@@ -15,6 +15,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from hydraulics.validity import at_least, at_most
+
 from coldplate.design.reader import Design
 from coldplate.sizing.evaluate import Evaluation, Evaluator
 from coldplate.sizing.pareto import pareto_mask
@@ -209,10 +211,9 @@ def _quantities(e: Evaluation, geo: _Geometries, sl, base, flow, hours):
 def _passes(value, limit, sense):
     if sense == "flag":
         return np.asarray(value, dtype=bool)
-    value = np.asarray(value)
-    slack = 1e-9 * abs(limit)  # a range's arithmetic must not miss a limit it lands on (0.8 mm vs 0.7999...)
+    # the one comparison rule: a range's arithmetic must not miss a limit it lands on (0.8 mm vs 0.7999...)
     with np.errstate(invalid="ignore"):
-        return value <= limit + slack if sense == "max" else value >= limit - slack
+        return at_most(value, limit) if sense == "max" else at_least(value, limit)
 
 
 def _reduced_points(e: Evaluation, feasible, g0, q0):

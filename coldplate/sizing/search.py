@@ -15,23 +15,33 @@ import numpy as np
 
 from coldplate.design.reader import Design
 from coldplate.design.errors import DesignError
-from coldplate.design.fields import Table
-from coldplate.design.units import parse_value
+from hydraulics.validity import Bound
 
-#: Free variables by passage kind: name -> (unit kind, whole number?, plausible low, high in SI).
+from coldplate.design.fields import Table, check_range, nearest
+from coldplate.design.ranges import RANGES
+from coldplate.design.units import parse_value, quoted
+
+def _plausible(field: str) -> tuple[float, float]:
+    b = RANGES[field]
+    return b.low, b.high
+
+
+#: Free variables by passage kind: name -> (unit kind, whole number?, plausible low, high in SI).  The
+#: continuous ones share the design file's plausible ranges (coldplate.design.ranges), so every candidate
+#: is a design the reader would accept; the whole numbers the reader's own limits.
 VARIABLES = {
     "channels": {
         "count": ("count", True, 1, 2000),
-        "width": ("length", False, 1e-5, 0.5),
-        "depth": ("length", False, 1e-5, 0.1),
-        "base": ("length", False, 1e-5, 0.2),
-        "flow": ("flow", False, 1e-9, 0.01),
+        "width": ("length", False, *_plausible("[passage] width")),
+        "depth": ("length", False, *_plausible("[passage] depth")),
+        "base": ("length", False, *_plausible("[plate] base")),
+        "flow": ("flow", False, *_plausible("[coolant] flow")),
     },
     "tube": {
-        "inner_diameter": ("length", False, 1e-4, 0.1),
+        "inner_diameter": ("length", False, *_plausible("[passage] inner_diameter")),
         "passes": ("count", True, 1, 200),
-        "base": ("length", False, 1e-5, 0.2),
-        "flow": ("flow", False, 1e-9, 0.01),
+        "base": ("length", False, *_plausible("[plate] base")),
+        "flow": ("flow", False, *_plausible("[coolant] flow")),
     },
 }
 #: Limits: name -> unit kind.
@@ -98,7 +108,7 @@ def read_search(data: dict, design: Design) -> SearchSpec:
                                             "\"pressure\", then check the pump on the result with coldplate check")
     if design.flow is None and not (isinstance(data["search"], dict) and "flow" in data["search"]):
         raise DesignError("[search] flow", "is needed: the supply sets this design's flow, so give the flows to search")
-    t = Table(data["search"], "search")
+    t = Table(data["search"], "search", (*VARIABLES[kind], *LIMITS))
     own = design_values(design)
     axes, given = {}, []
     for name, (unit, whole, low, high) in VARIABLES[kind].items():
@@ -120,10 +130,10 @@ def read_search(data: dict, design: Design) -> SearchSpec:
 
 
 def _limits(t: Table, design: Design) -> Limits:
-    face = t.value("face_limit", "temperature", low=200.0, high=600.0)
+    face = t.value("face_limit", "temperature")
     if face <= design.inlet_temperature:
         raise DesignError(t.field("face_limit"), "is not above the inlet temperature: no plate can meet it")
-    dp_given = t.value("pressure_drop_limit", "pressure", required=False, low=0, high=1e8)
+    dp_given = t.value("pressure_drop_limit", "pressure", required=False)
     static = design.supply.static_pressure
     if dp_given is not None and (static is None or dp_given <= static):
         dp, source = dp_given, "[search] pressure_drop_limit, for the plate alone"
@@ -134,18 +144,18 @@ def _limits(t: Table, design: Design) -> Limits:
     if dp is not None:
         source += " (fittings, hose and valves are not counted: leave them their share)"
     once = design.supply.once_through
-    discharge = t.value("discharge_limit", "temperature", required=False, low=273.15, high=373.15)
+    discharge = t.value("discharge_limit", "temperature", required=False)
     if discharge is None and once:
         discharge = design.supply.discharge_limit
     kind = design.passage.kind
-    min_width = t.value("min_width", "length", required=False, low=0, high=0.1)
-    min_wall = t.value("min_wall", "length", required=False, low=0, high=0.1)
+    min_width = t.value("min_width", "length", required=False)
+    min_wall = t.value("min_wall", "length", required=False)
     if kind != "channels":
         for key in ("min_width", "min_wall"):
             if t.has(key):
                 raise DesignError(t.field(key), "applies to channel plates only")
-    max_thickness = t.value("max_thickness", "length", required=False, low=0, high=0.5)
-    max_water = t.value("max_water", "flow", required=False, low=0, high=1.0)
+    max_thickness = t.value("max_thickness", "length", required=False)
+    max_water = t.value("max_water", "flow", required=False)
     if max_water is not None and not once:
         raise DesignError(t.field("max_water"), "the water returns to its loop, so it uses none; "
                                                 "bound the flow's range instead")
@@ -160,37 +170,38 @@ def _axis(t: Table, name: str, unit: str, whole: bool, low: float, high: float) 
             raise DesignError(field, "is an empty list; give at least one value")
         if len(raw) > MAX_STEPS:
             raise DesignError(field, f"lists more than {MAX_STEPS:,} values")
-        values = np.array([_one(v, unit, whole, field) for v in raw])
+        values = np.array([_one(v, unit, whole, field, low, high) for v in raw])
     elif isinstance(raw, dict):
-        values = _range(raw, unit, whole, field)
+        values = _range(raw, unit, whole, field, low, high)
     else:
-        values = np.array([_one(raw, unit, whole, field)])
-    bad = values[(values < low) | (values > high)]
-    if bad.size:
-        v = float(bad[0])
-        shown = f"{v:g}" if whole else f"{v:.4g} (SI)"
-        raise DesignError(field, f"value {shown} is outside the plausible range {low:g} to {high:g} "
-                                 f"({'a whole number' if whole else 'SI units'})")
+        values = np.array([_one(raw, unit, whole, field, low, high)])
     values = np.unique(values)
     return values.astype(int) if whole else values.astype(float)
 
 
-def _one(v, unit, whole, field):
+def _one(v, unit, whole, field, low, high):
+    """One value of a free variable, checked against its plausible range before numpy sees it (a whole
+    number past 64 bits, or near 2**63, must be refused here, not overflow an array)."""
     if whole:
         if isinstance(v, bool) or not isinstance(v, int):
-            raise DesignError(field, f"must be whole numbers, got {v!r}")
+            raise DesignError(field, f"must be whole numbers, got {quoted(v)}")
+        if not (low <= v <= high):
+            raise DesignError(field, f"{quoted(v)} is outside the plausible range, whole numbers {low:g} to {high:g}")
         return v
-    return parse_value(v, unit, field)
+    x = parse_value(v, unit, field)
+    check_range(field, v, x, unit, Bound(field, low, high))
+    return x
 
 
-def _range(raw: dict, unit: str, whole: bool, field: str) -> np.ndarray:
+def _range(raw: dict, unit: str, whole: bool, field: str, low: float, high: float) -> np.ndarray:
     unknown = sorted(set(raw) - {"from", "to", "steps", "spacing"})
     if unknown:
-        raise DesignError(field, f"unknown key {unknown[0]!r} in a range (known: from, to, steps, spacing)")
+        order = nearest(unknown[0], ("from", "to", "steps", "spacing"))
+        raise DesignError(field, f"unknown key {quoted(unknown[0])} in a range (known: {', '.join(order)})")
     for key in ("from", "to"):
         if key not in raw:
             raise DesignError(field, f"a range needs 'from' and 'to' (missing {key!r})")
-    lo, hi = _one(raw["from"], unit, whole, field), _one(raw["to"], unit, whole, field)
+    lo, hi = (_one(raw[k], unit, whole, field, low, high) for k in ("from", "to"))
     if hi < lo:
         raise DesignError(field, "the range runs backwards: 'to' is below 'from'")
     steps = raw.get("steps")
@@ -199,12 +210,12 @@ def _range(raw: dict, unit: str, whole: bool, field: str) -> np.ndarray:
             raise DesignError(field, "a range of lengths or flows needs 'steps' (how many values)")
         steps = hi - lo + 1
     if isinstance(steps, bool) or not isinstance(steps, int) or not (1 <= steps <= MAX_STEPS):
-        raise DesignError(field, f"steps must be a whole number from 1 to {MAX_STEPS:,}, got {steps!r}")
+        raise DesignError(field, f"steps must be a whole number from 1 to {MAX_STEPS:,}, got {quoted(steps)}")
     if steps == 1 and hi != lo:
         raise DesignError(field, "one step cannot span a range; give steps of 2 or more, or one value")
     spacing = raw.get("spacing", "linear")
     if spacing not in ("linear", "log"):
-        raise DesignError(field, f"spacing must be 'linear' or 'log', not {spacing!r}")
+        raise DesignError(field, f"spacing must be 'linear' or 'log', not {quoted(spacing)}")
     if spacing == "log":
         if lo <= 0:
             raise DesignError(field, "log spacing needs a range above zero")

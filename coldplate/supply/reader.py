@@ -17,8 +17,9 @@ from hydraulics.pump import PumpError, check_table
 
 from coldplate.plate import materials
 from coldplate.design.errors import DesignError
-from coldplate.design.fields import Table
-from coldplate.design.units import parse_value
+from coldplate.design.fields import Table, check_range
+from coldplate.design.ranges import MONEY
+from coldplate.design.units import parse_value, quoted
 
 
 @dataclass(frozen=True)
@@ -56,25 +57,32 @@ BACKFLOW_DEVICES: dict[str, BackflowKind] = {b.key: b for b in (
 
 PART_KINDS = ("hose", "tube", "fitting", "valve", "backflow", "rise", "plate")
 DRIVES = ("flow", "pressure", "pump")
+#: Every key a part of each kind may hold (a misspelt key is named as unknown, with the nearest known one).
+_LINE_KEYS = ("kind", "name", "inner_diameter", "length", "material", "roughness")
+PART_KEYS = {"hose": _LINE_KEYS, "tube": _LINE_KEYS,
+             "fitting": ("kind", "name", "fitting", "diameter", "count", "bore"),
+             "valve": ("kind", "name", "kv", "cv", "solenoid", "diameter"),
+             "backflow": ("kind", "name", "device", "loss", "rated_flow", "opening_loss"),
+             "rise": ("kind", "name", "height"), "plate": ("kind", "name")}
+ANY_PART_KEY = tuple(sorted({k for keys in PART_KEYS.values() for k in keys}))  #: before the kind is read
 
 
 # ---------------------------------------------------------------- [circuit]
 
 def read_circuit(data) -> Circuit:
-    t = Table(data, "circuit")
+    t = Table(data, "circuit", ("part", "back_pressure", "outlet_diameter", "air_gap"))
     raw = t.raw("part")
     if not isinstance(raw, list) or not raw or not all(isinstance(p, dict) for p in raw):
         raise DesignError(t.field("part"), "list the parts in flow order as [[circuit.part]] tables")
-    parts = tuple(_part(Table(p, f"circuit.part {i}"), i) for i, p in enumerate(raw, 1))
+    parts = tuple(_part(Table(p, f"circuit.part {i}", ANY_PART_KEY), i) for i, p in enumerate(raw, 1))
     plates = [i for i, p in enumerate(parts, 1) if isinstance(p, PlateSlot)]
     if len(plates) != 1:
         raise DesignError(t.field("part"), f"exactly one part must be kind = \"plate\" (where the plate sits); "
                                            f"found {len(plates)}")
-    back = t.value("back_pressure", "pressure", required=False, low=0, low_inclusive=True, high=5e6, default=0.0)
+    back = t.value("back_pressure", "pressure", required=False, default=0.0)
     sizes = [p.diameter for p in parts if isinstance(p, (Line, Fitting))]
-    outlet = t.value("outlet_diameter", "length", required=False, low=0, high=0.2,
-                     default=sizes[-1] if sizes else None)
-    gap = t.value("air_gap", "length", required=False, low=0, low_inclusive=True, high=2.0)
+    outlet = t.value("outlet_diameter", "length", required=False, default=sizes[-1] if sizes else None)
+    gap = t.value("air_gap", "length", required=False)
     t.finish()
     if back > 0 and gap is not None:
         raise DesignError(t.field("air_gap"), "an outlet held at a back pressure has no air gap; give one or the other")
@@ -83,30 +91,31 @@ def read_circuit(data) -> Circuit:
 
 def _part(t: Table, i: int):
     kind = t.choice("kind", PART_KINDS)
+    t.keys = PART_KEYS[kind]
     name = t.raw("name", required=False)
     if name is not None and (not isinstance(name, str) or not name.strip()):
         raise DesignError(t.field("name"), "must be a non-empty string")
     name = (name or f"{kind} {i}").strip()
     if kind in ("hose", "tube"):
-        D = t.value("inner_diameter", "length", low=0, high=0.2)
-        L = t.value("length", "length", low=0, high=1000.0)
+        D = t.value("inner_diameter", "length")
+        L = t.value("length", "length")
         which = t.exactly_one("material", "roughness")
         if which == "material":
             try:
-                e = materials.roughness(t.raw("material"))
+                e = materials.roughness(t.word("material"))
             except (KeyError, TypeError) as exc:
                 raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
         else:
-            e = t.value("roughness", "length", low=0, low_inclusive=True, high=0.01)
+            e = t.value("roughness", "length")
         t.finish()
         return Line(name, D, L, e)
     if kind == "fitting":
         fitting = t.choice("fitting", tuple(FITTINGS))
-        D = t.value("diameter", "length", low=0, high=0.2)
+        D = t.value("diameter", "length")
         count = t.integer("count", 1, 100) if t.has("count") else 1
         bore = None
         if FITTINGS[fitting].needs_other:
-            bore = t.value("bore", "length", low=0, high=0.2)
+            bore = t.value("bore", "length")
             if fitting == "expansion" and bore <= D:
                 raise DesignError(t.field("bore"), "an expansion's bore must be larger than its diameter")
             if fitting != "expansion" and bore >= D:
@@ -118,27 +127,27 @@ def _part(t: Table, i: int):
         coeff = t.raw(which)
         if isinstance(coeff, bool) or not isinstance(coeff, (int, float)) or not (0 < coeff < 1e4) \
                 or not math.isfinite(coeff):
-            raise DesignError(t.field(which), f"{coeff!r} must be a positive number ({'m³/h at 1 bar' if which == 'kv' else 'US gal/min at 1 psi'})")
+            unit = "m³/h at 1 bar" if which == "kv" else "US gal/min at 1 psi"
+            raise DesignError(t.field(which), f"{quoted(coeff)} must be a positive number ({unit})")
         Kv = float(coeff) if which == "kv" else Kv_from_Cv(float(coeff))
         solenoid = t.raw("solenoid", required=False) or False
         if not isinstance(solenoid, bool):
             raise DesignError(t.field("solenoid"), "must be true or false")
-        D = t.value("diameter", "length", required=False, low=0, high=0.2)
+        D = t.value("diameter", "length", required=False)
         t.finish()
         return Valve(name, Kv, solenoid, D)
     if kind == "backflow":
         device = t.choice("device", tuple(BACKFLOW_DEVICES))
         b = BACKFLOW_DEVICES[device]
-        dp = t.value("loss", "pressure", required=False, low=0, high=1e6, default=b.dp_rated)
-        q = t.value("rated_flow", "flow", required=False, low=0, high=0.01, default=b.flow_rated)
-        dp0 = t.value("opening_loss", "pressure", required=False, low=0, low_inclusive=True, high=1e6,
-                      default=min(b.dp_open, dp))
+        dp = t.value("loss", "pressure", required=False, default=b.dp_rated)
+        q = t.value("rated_flow", "flow", required=False, default=b.flow_rated)
+        dp0 = t.value("opening_loss", "pressure", required=False, default=min(b.dp_open, dp))
         if dp0 > dp:
             raise DesignError(t.field("opening_loss"), "cannot exceed the loss at the rated flow")
         t.finish()
         return Backflow(name, device, dp, q, dp0)
     if kind == "rise":
-        h = t.value("height", "length", low=-100.0, high=100.0)
+        h = t.value("height", "length")
         t.finish()
         return Rise(name, h)
     t.finish()
@@ -161,11 +170,14 @@ def _money(t: Table, key: str, per: str | None, example: str):
                                         f"e.g. {example!r}")
     amount = float(m.group(1))
     if not math.isfinite(amount) or amount < 0:
-        raise DesignError(t.field(key), f"{raw!r} must be a finite amount, zero or more")
+        raise DesignError(t.field(key), f"{quoted(raw)} must be a finite amount, zero or more")
     if per is None:
+        check_range(t.field(key), raw, amount, "money", MONEY[key])
         return amount, m.group(2)
     size = parse_value(f"1 {m.group(3)}", per, t.field(key))
-    return amount / size, m.group(2)
+    value = amount / size
+    check_range(t.field(key), raw, value, "money_volume" if per == "volume" else "money_energy", MONEY[key])
+    return value, m.group(2)
 
 
 def read_supply_extras(t: Table, source: str, discharge: str, static_pressure) -> dict:
@@ -180,9 +192,9 @@ def read_supply_extras(t: Table, source: str, discharge: str, static_pressure) -
                           f"a pump curve is only read with drive = \"pump\" (drive is {drive!r})")
     if drive == "pressure" and static_pressure is None:
         raise DesignError(t.field("static_pressure"), "drive = \"pressure\" needs the supply's static pressure")
-    out["face_limit"] = t.value("face_limit", "temperature", required=False, low=273.15, high=573.15)
+    out["face_limit"] = t.value("face_limit", "temperature", required=False)
     tariff, cur = _money(t, "tariff", "volume", "3.80 EUR/m**3")
-    power = t.value("chiller_power", "power", required=False, low=0, high=1e6)
+    power = t.value("chiller_power", "power", required=False)
     etariff, ecur = _money(t, "electricity_tariff", "energy", "0.30 EUR/kWh")
     price, pcur = _money(t, "chiller_price", None, "2500 EUR")
     planning = [k for k in ("tariff", "face_limit", "chiller_power", "electricity_tariff", "chiller_price")
