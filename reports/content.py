@@ -10,7 +10,7 @@ from __future__ import annotations
 import dataclasses
 import hashlib
 import math
-from .display_units import DisplayUnits, annotate, format_number
+from .display_units import DisplayUnits, annotate, exact_values, format_number
 from .optional_sections import circuit_section, module_inputs, module_section, planning_section
 
 
@@ -191,7 +191,9 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     def fig(name, caption):
         return (Figure(name, caption, figures[name]),) if name in figures else ()
 
-    findings = tuple(Finding(f.severity, f.id, annotate(f.message, u), annotate(f.action, u)) for f in r.findings)
+    exact = exact_values(r, r.module, r.circuit, r.planning, r.design) if u.system != "si" else ()
+    findings = tuple(Finding(f.severity, f.id, annotate(f.message, u, exact), annotate(f.action, u, exact))
+                     for f in r.findings)
     sections = [
         _inputs(r, u),
         _breakdown(r, u, fig("breakdown", "Parts of the thermal resistance, hottest point to inlet water.")),
