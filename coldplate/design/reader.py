@@ -65,7 +65,7 @@ class Tube:
     inner_diameter: float  #: [m]
     outer_diameter: float  #: [m]
     passes: int
-    bend_radius: float  #: centre-line [m]
+    bend_radius: float | None  #: centre-line [m]; None for a single pass (no return bend)
     material: str
     bond: str
     roughness: float  #: [m]
@@ -99,6 +99,7 @@ class Supply:
     chiller_power: float | None = None  #: electrical power of a recirculating chiller [W]
     electricity_tariff: float | None = None  #: [currency/J]
     chiller_price: float | None = None  #: [currency]
+    drain_air_gap: float | None = None  #: measured air gap above the drain's flood rim [m] (a [circuit] says air_gap)
 
     @property
     def seconds_per_day(self) -> float:
@@ -154,6 +155,13 @@ class Design:
     model: Model
     module: Module | None = None  #: thermoelectric modules on the plate, from [module]
     circuit: Circuit | None = None  #: the lines around the plate ([circuit])
+
+    @property
+    def drain_air_gap(self) -> float | None:
+        """The air gap at the drain the user gave ([supply] drain_air_gap or [circuit] air_gap) [m]."""
+        if self.circuit is not None and self.circuit.air_gap is not None:
+            return self.circuit.air_gap
+        return self.supply.drain_air_gap
 
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
@@ -223,12 +231,16 @@ def design_from_dict(data: dict) -> Design:
     module = read_module(data["module"]) if "module" in data else None
     heat = _heat(Table(data["heat"], "heat"), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface"))
-    passage = _passage(Table(data["passage"], "passage"), plate)
+    search = data.get("search")
+    passage = _passage(Table(data["passage"], "passage"), plate,
+                       searches_passes=isinstance(search, dict) and "passes" in search)
     supply = _supply(Table(data["supply"], "supply"))
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant"), supply)
     room = _room(Table(data["room"], "room"))
     model = _model(Table(data.get("correlations", {}), "correlations"))
     circuit = read_circuit(data["circuit"]) if "circuit" in data else None
+    if circuit is not None and circuit.air_gap is not None and supply.drain_air_gap is not None:
+        raise DesignError("[supply] drain_air_gap", "the [circuit] gives air_gap already; give the air gap once")
     if supply.drive != "flow" and circuit is None:
         raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
                                             "supply pushes water through)")
@@ -290,7 +302,7 @@ def _interface(t: Table) -> Interface:
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
 
-def _passage(t: Table, plate: Plate):
+def _passage(t: Table, plate: Plate, searches_passes: bool = False):
     kind = t.choice("kind", PASSAGE_KINDS)
     if kind == "channels":
         count = t.integer("count", 1, 2000)
@@ -315,7 +327,8 @@ def _passage(t: Table, plate: Plate):
         if do <= di:
             raise DesignError(t.field("outer_diameter"), "must be larger than inner_diameter")
         passes = t.integer("passes", 1, 200)
-        rb = t.value("bend_radius", "length", low=0, high=0.5)
+        # one pass has no return bend: bend_radius is asked for only with more (or with passes to search)
+        rb = t.value("bend_radius", "length", required=passes > 1 or searches_passes, low=0, high=0.5)
         mkey = t.raw("material")
         try:
             mat = materials.material(mkey)
@@ -324,9 +337,9 @@ def _passage(t: Table, plate: Plate):
         bond = t.choice("bond", tuple(materials.BONDS))
         rough = t.value("roughness", "length", required=False, low=0, low_inclusive=True, high=1e-3,
                         default=materials.roughness("drawn-tubing"))
-        if passes > 1 and 2 * rb < do:
+        if rb is not None and passes > 1 and 2 * rb < do:
             raise DesignError(t.field("bend_radius"), "a return bend of this radius puts adjacent passes closer than the tube diameter")
-        span = (passes - 1) * 2 * rb + do
+        span = (passes - 1) * 2 * (rb or 0.0) + do
         if span > plate.width:
             raise DesignError(t.field("passes"), f"{passes} passes at {2 * rb * 1e3:.4g} mm pitch need {span * 1e3:.4g} mm, "
                                                  f"wider than the plate ({plate.width * 1e3:.4g} mm)")
@@ -365,6 +378,9 @@ def _supply(t: Table) -> Supply:
                     default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
     extras = read_supply_extras(t, source, discharge, p)
+    gap = t.value("drain_air_gap", "length", required=False, low=0, low_inclusive=True, high=2.0)
+    if gap is not None and discharge != "drain":
+        raise DesignError(t.field("drain_air_gap"), "is for water discharged to a drain (discharge = \"drain\")")
     if source == "potable" and discharge == "return":
         raise DesignError(t.field("discharge"), "drinking water that has been through equipment must never return "
                                                 "to the drinking-water system; potable water runs to a drain")
@@ -372,7 +388,7 @@ def _supply(t: Table) -> Supply:
         raise DesignError(t.field("discharge"), "a recirculating supply returns its water; use source = \"process\" "
                                                 "or \"potable\" for water that runs to a drain")
     t.finish()
-    return Supply(source, hours, float(days), p, limit, discharge, **extras)
+    return Supply(source, hours, float(days), p, limit, discharge, **extras, drain_air_gap=gap)
 
 
 def _coolant(t: Table, supply: Supply):
