@@ -28,7 +28,9 @@ def _stop_at_start_up(signum, frame):  # pragma: no cover - exercised in a subpr
     os._exit(status)
 
 
-if __name__ == "__main__" or os.path.basename(sys.argv[0]) == "coldplate":  # run as the program, not imported
+#: Run as the program (``coldplate ...`` or ``python -m coldplate.cli``), not imported by other code.
+_AS_PROGRAM = __name__ == "__main__" or os.path.basename(sys.argv[0]) == "coldplate"
+if _AS_PROGRAM:
     for _sig in _STOP_WORDS:
         signal.signal(_sig, _stop_at_start_up)
 
@@ -109,9 +111,10 @@ def _report(args, version) -> str:
     from coldplate.design.reader import parse_design
     from coldplate.check import solve
 
-    from reports.make import check_targets, make_report, report_format, write_report
+    from reports.make import check_targets, make_report, remove_leftovers, report_format, write_report
 
     report_format(args.output)
+    remove_leftovers(args.output)  # of a killed earlier run of this report
     if not args.force:
         check_targets([args.output], False)
     try:
@@ -178,6 +181,9 @@ def main(argv=None) -> int:
         signal.signal(signal.SIGINT, signal.SIG_IGN)  # a second Ctrl-C cannot break the one line
         word, status = _STOP_WORDS[signal.SIGTERM if isinstance(exc, Terminated) else signal.SIGINT]
         print(f"coldplate: {word}; nothing written", file=sys.stderr)
+        if _AS_PROGRAM:  # every `finally` has run; end here, so the interpreter cannot report the signal again
+            sys.stderr.flush()
+            os._exit(status)
         return status
     finally:
         for sig, handler in previous.items():

@@ -60,13 +60,10 @@ def make_report(r, curve, fit, face, *, units="si", version="", source_name="", 
                         source_bytes=source_bytes)
 
 
-def check_targets(paths, force: bool, ours=frozenset()) -> None:
-    """Refuse (DesignError) to replace an existing file unless ``force``; refuse a missing directory.
-
-    ``ours``: files a killed earlier run of the same report had already moved into place; they are replaced.
-    """
+def check_targets(paths, force: bool) -> None:
+    """Refuse (DesignError) to replace an existing file unless ``force``; refuse a missing directory."""
     for p in map(Path, paths):
-        if p.exists() and not force and p not in ours:
+        if p.exists() and not force:
             raise DesignError("-o", f"{str(p)!r} exists; give --force to replace it")
         if p.exists() and not p.is_file():
             raise DesignError("-o", f"{str(p)!r} is not a file")
@@ -95,15 +92,15 @@ def _alive(pid: int) -> bool:
     return True
 
 
-def remove_leftovers(path: str | Path) -> frozenset[Path]:
-    """Remove the temporaries a killed run left for ``path``; returns the files it had moved into place."""
+def remove_leftovers(path: str | Path) -> None:
+    """Remove what a killed run (its process gone) left for ``path``: its temporary file or folder, and the
+    files it had moved into place from an unfinished folder (a Markdown report's figures without the report)."""
     path = Path(path)
-    moved = set()
     prefix = f".{path.name}."
     try:
         entries = list(path.parent.iterdir())
     except OSError:
-        return frozenset()
+        return
     for p in entries:
         pid = p.name[len(prefix):-len(".tmp")]
         if not (p.name.startswith(prefix) and p.name.endswith(".tmp") and pid.isdigit()) or _alive(int(pid)):
@@ -112,15 +109,20 @@ def remove_leftovers(path: str | Path) -> frozenset[Path]:
             try:
                 names = (p / _MANIFEST).read_text(encoding="utf-8").splitlines()
             except OSError:
-                names = []
-            moved |= {path.parent / n for n in names if n and "/" not in n and not (p / n).exists()}
+                names = []  # killed while filling the folder: nothing was moved yet
+            if names and (p / names[0]).exists():  # the report itself (moved last) was not: remove the rest
+                for n in names[1:]:
+                    if n and "/" not in n and not (p / n).exists():
+                        try:
+                            (path.parent / n).unlink()
+                        except FileNotFoundError:
+                            pass
             shutil.rmtree(p, ignore_errors=True)
         else:
             try:
                 p.unlink()
             except FileNotFoundError:
                 pass
-    return frozenset(moved)
 
 
 def _write_new(path: Path, text: str) -> None:
@@ -151,12 +153,12 @@ def write_together(files: dict[Path, str], force: bool = False) -> list[Path]:
 
     They are written into a temporary folder beside them (then a list of their names), then moved into place,
     the first file last; on an interrupt the files already moved are removed again.  A run killed outright
-    (SIGKILL) leaves its folder; the next run removes it and replaces the files that run had moved.
+    (SIGKILL) leaves its folder; the next run for the same report removes it, with the files it had moved.
     """
     paths = list(files)
     first = paths[0]
-    ours = remove_leftovers(first)
-    check_targets(paths, force, ours)
+    remove_leftovers(first)
+    check_targets(paths, force)
     stage = _temporary(first)
     moved: list[Path] = []
     try:
