@@ -262,6 +262,8 @@ def _no_constant(name):
     raise ValueError(f"JSON holds {name}")
 
 
+#: An exit-2 line names a field ("[table] key"), a top-level key, an option, or the file itself.
+_NAMES_WHAT = re.compile(r"\[[^\]]+\]|top-level key|^coldplate: error: \w+: |design file|TOML|(?:^|\s)(--[a-z][\w-]+|-o)\b", re.M)
 _NONFINITE_TEXT = re.compile(r"(?<![\w.])(nan|inf|infinity)(?![\w])", re.I)
 
 
@@ -275,8 +277,9 @@ def run(argv: list[str]) -> tuple[int, str, str]:
     return rc, out.getvalue(), err.getvalue()
 
 
-def violations(argv: list[str], rc: int, out: str, err: str, folder: Path) -> list[str]:
-    """What breaks the contract in one outcome (empty when it is kept)."""
+def violations(argv: list[str], rc: int, out: str, err: str, folder: Path, source: bytes = b"") -> list[str]:
+    """What breaks the contract in one outcome (empty when it is kept).  ``source``: the design file, whose own
+    strings (a part named "inf ...") are not numbers of ours."""
     bad = []
     files = sorted(p.name for p in folder.iterdir())
     if rc not in (0, 1, 2):
@@ -291,6 +294,8 @@ def violations(argv: list[str], rc: int, out: str, err: str, folder: Path) -> li
             bad.append("internal error")
         if rc == 2 and not err.startswith("coldplate: error: "):
             bad.append("exit 2 without 'coldplate: error:'")
+        if rc == 2 and not _NAMES_WHAT.search(err):
+            bad.append("exit 2 naming no field, option or file")
         if out and argv[0] != "size":
             bad.append("stdout written on failure")
         if files:
@@ -311,8 +316,14 @@ def violations(argv: list[str], rc: int, out: str, err: str, folder: Path) -> li
                 bad.append(f"JSON: {exc}")
             else:
                 bad += _impossible(doc)
-        elif _NONFINITE_TEXT.search(out):
-            bad.append(f"non-finite in text: {_NONFINITE_TEXT.search(out).group(0)!r}")
+        else:
+            ours = " ".join(out.split())
+            for s in sorted(set(re.findall(r'"((?:[^"\\]|\\.)*)"', source.decode("utf-8", "replace"))), key=len,
+                            reverse=True):
+                if _NONFINITE_TEXT.search(s):
+                    ours = ours.replace(" ".join(s.split()), "")
+            if _NONFINITE_TEXT.search(ours):
+                bad.append(f"non-finite in text: {_NONFINITE_TEXT.search(ours).group(0)!r}")
         if argv[0] == "report" and not any(n.startswith("report.") for n in files):
             bad.append("report not written")
     return bad
@@ -351,7 +362,7 @@ def campaign(n: int, seed: int, tmp_path: Path) -> tuple[int, list[str]]:
         argv = commands(b"[\"search\"]" in raw, out, rng) + [str(path)]
         try:
             rc, so, se = run(argv)
-            bad = violations(argv, rc, so, se, out)
+            bad = violations(argv, rc, so, se, out, raw)
         except Exception as exc:  # an internal fault escaped main (COLDPLATE_DEBUG=1)
             import traceback
 
@@ -384,5 +395,11 @@ def test_the_checker_sees_a_broken_contract(tmp_path):
     assert "traceback" in violations(["check", "f"], 1, "", "Traceback (most recent call last):\n x\n", tmp_path)
     assert any("stderr lines" in v for v in violations(["check", "f"], 2, "", "coldplate: error: a\nb\n", tmp_path))
     assert any("JSON" in v for v in violations(["check", "--format", "json", "f"], 0, '{"a": NaN}', "", tmp_path))
+    assert any("non-finite" in v for v in violations(["check", "f"], 0, "R = nan K/W", "", tmp_path))
+    part = b'name = "inf lbows"'
+    assert not any("non-finite" in v for v in violations(["check", "f"], 0, "at inf lbows", "", tmp_path, part))
     assert any("temporaries" in v for v in violations(["check", "f"], 0, "ok", "", tmp_path))
     assert any("files left" in v for v in violations(["check", "f"], 2, "", "coldplate: error: x\n", tmp_path))
+    assert any("naming no field" in v for v in violations(["check", "f"], 2, "", "coldplate: error: bad\n", tmp_path))
+    assert not any("naming no field" in v for v in violations(
+        ["check", "f"], 2, "", "coldplate: error: [plate] base: '-1 mm' is negative\n", tmp_path))
