@@ -176,18 +176,32 @@ def main(argv=None) -> int:
     try:
         with warnings.catch_warnings():
             warnings.simplefilter("error" if debug else "ignore")
-            return _run(argv, debug)
+            status = _run(argv, debug)
+        if status == EXIT_INTERRUPTED:  # `size` stopped in its search: it has printed the best so far
+            _end_stopped(status)
+        return status
     except (KeyboardInterrupt, Terminated) as exc:
-        signal.signal(signal.SIGINT, signal.SIG_IGN)  # a second Ctrl-C cannot break the one line
+        for sig in _STOP_WORDS:  # a second Ctrl-C cannot break the one line
+            signal.signal(sig, signal.SIG_IGN)
         word, status = _STOP_WORDS[signal.SIGTERM if isinstance(exc, Terminated) else signal.SIGINT]
         print(f"coldplate: {word}; nothing written", file=sys.stderr)
-        if _AS_PROGRAM:  # every `finally` has run; end here, so the interpreter cannot report the signal again
-            sys.stderr.flush()
-            os._exit(status)
+        _end_stopped(status)
         return status
     finally:
         for sig, handler in previous.items():
             signal.signal(sig, handler)
+
+
+def _end_stopped(status: int) -> None:
+    """As the program, end a stopped run here: every ``finally`` has run, and the interpreter's own exit could
+    report the signal a second time (it did now and then: status -2 after our line)."""
+    if _AS_PROGRAM:
+        for stream in (sys.stdout, sys.stderr):
+            try:
+                stream.flush()
+            except (OSError, ValueError):
+                pass
+        os._exit(status)
 
 
 def _run(argv, debug: bool) -> int:
