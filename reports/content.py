@@ -75,7 +75,7 @@ def _inputs(r, u: DisplayUnits) -> Section:
         Row("base (face to passage roof)", u.fmt("length", d.plate.base), u.label("length")),
     ]
     if d.plate.pressure_rating is not None:
-        rows.append(Row("plate pressure rating (gauge)", u.fmt("pressure", d.plate.pressure_rating),
+        rows.append(Row("plate pressure rating (gauge)", u.fmt("pressure", d.plate.pressure_rating, 3),
                         u.label("pressure")))
     rows.append(Row("passage", d.passage.kind, ""))
     for f in dataclasses.fields(d.passage):

@@ -286,3 +286,12 @@ def test_markdown_report_is_all_or_none_when_stopped_while_moving(tmp_path, caps
     assert rc == 130
     assert _one_line(capsys.readouterr().err) == "coldplate: interrupted; nothing written"
     assert list(tmp_path.iterdir()) == []
+
+
+def test_us_report_shows_the_plate_rating_rounded_sensibly(tmp_path, capsys):
+    out = tmp_path / "r.md"
+    assert main(["report", str(ROOT / "examples" / "tap-to-drain-circuit.toml"), "--units", "us", "-o", str(out)]) == 0
+    capsys.readouterr()
+    text = out.read_text(encoding="utf-8")
+    assert "| plate pressure rating (gauge) | 100 | psi |" in text  # 6.9 bar / 6894.757 Pa (NIST SP 811)
+    assert "100.08" not in text and "100.1 " not in text
