@@ -11,7 +11,7 @@ Source for the expectations: the project's input and output contract (README, "E
 
 Mutants are seeded: mutant ``i`` of seed ``s`` is the same on every machine, so a failure is reproducible with
 ``COLDPLATE_FUZZ_SEED=s`` and the mutant's index printed in the message.  The normal run tries a few hundred
-mutants (``COLDPLATE_FUZZ``, default 240); set ``COLDPLATE_FUZZ=5000`` for a campaign.  The commands run in
+mutants (``COLDPLATE_FUZZ``, default 300); set ``COLDPLATE_FUZZ=5000`` for a campaign.  The commands run in
 process through :func:`coldplate.cli.main` with ``COLDPLATE_DEBUG=1``, which turns warnings into errors and
 lets an internal fault escape as an exception, so the test sees its traceback.
 """
@@ -34,7 +34,7 @@ from coldplate.cli import main
 
 from .helpers import EXAMPLES
 
-N_MUTANTS = int(os.environ.get("COLDPLATE_FUZZ", "240"))
+N_MUTANTS = int(os.environ.get("COLDPLATE_FUZZ", "300"))
 SEED = int(os.environ.get("COLDPLATE_FUZZ_SEED", "12"))
 
 BASES = {p.stem: tomllib.loads(p.read_text(encoding="utf-8")) for p in EXAMPLES}
