@@ -2,7 +2,7 @@
 campaign or by a trial as a new user has a test here.
 
 Sources for the expectations: the project's contract (README: exit status, design-file reference, reports);
-for unit conversions NIST SP 811 (1 psi = 6 894.757 Pa, 1 bar = 1e5 Pa); for HTML escaping the HTML Living
+for unit conversions NIST SP 811 (1 psi = 6 894.757 Pa, 1 bar = 1e5 Pa; from memory); for HTML escaping the HTML Living
 Standard (a `<` starts a tag; `&lt;` is the character); for Markdown the CommonMark specification (any ASCII
 punctuation may be backslash-escaped; raw HTML passes through, which is why it is escaped).
 """
@@ -22,7 +22,7 @@ from coldplate.sizing.writer import toml_text
 
 from .helpers import ROOT, example_dict, modified, write
 
-PSI = 6894.757  # Pa, NIST SP 811 (Appendix B.8)
+PSI = 6894.757  # Pa per psi, NIST SP 811 (from memory; test_display_units.py checks the factor in use)
 
 
 def _one_line(err: str) -> str:
