@@ -4,18 +4,62 @@
 
 Only wiring: read the file, solve, format, set the exit status.  Bad input prints
 one line on stderr and exits with status 2; nothing is written half-way.
+
+Exit status: 0 ran; 1 the physics could not be solved (one line); 2 bad input (one line naming ``[table] key``);
+130 interrupted by Ctrl-C (SIGINT) and 143 stopped by SIGTERM (128 + the signal's number, as shells report a
+process killed by it), one line each, with every temporary file removed.  Library warnings never reach the
+terminal; ``COLDPLATE_DEBUG=1`` turns them into errors and shows the traceback of an internal fault.
 """
 from __future__ import annotations
 
-import argparse
 import os
+import signal
 import sys
 
-from coldplate.design.errors import ColdplateError, DesignError
+EXIT_INTERRUPTED = 130  # 128 + SIGINT
+EXIT_TERMINATED = 143  # 128 + SIGTERM
+_STOP_WORDS = {signal.SIGINT: ("interrupted", EXIT_INTERRUPTED), signal.SIGTERM: ("terminated", EXIT_TERMINATED)}
+
+
+def _stop_at_start_up(signum, frame):  # pragma: no cover - exercised in a subprocess
+    """Until main() takes over, a stop signal ends at once: nothing has been read or written yet."""
+    word, status = _STOP_WORDS[signum]
+    os.write(2, f"coldplate: {word} while starting; nothing written\n".encode())
+    os._exit(status)
+
+
+#: Run as the program (``coldplate ...`` or ``python -m coldplate.cli``), not imported by other code.
+_AS_PROGRAM = __name__ == "__main__" or os.path.basename(sys.argv[0]) == "coldplate"
+if _AS_PROGRAM:
+    for _sig in _STOP_WORDS:
+        signal.signal(_sig, _stop_at_start_up)
+
+import argparse  # noqa: E402  (after the handlers: an interrupt during these imports is answered too)
+import warnings  # noqa: E402
+
+from coldplate.design.errors import ColdplateError, DesignError  # noqa: E402
+
+
+class Terminated(BaseException):
+    """SIGTERM, raised like KeyboardInterrupt so every ``finally`` (temporary files) runs on the way out."""
+
+
+def _raise_terminated(signum, frame):
+    raise Terminated()
+
+
+class _Parser(argparse.ArgumentParser):
+    """Command-line mistakes in one line, like every other bad input (exit 2)."""
+
+    def error(self, message):
+        self.exit(2, f"coldplate: error: {message} (see '{self.prog} --help')\n")
 
 
 def _parser() -> argparse.ArgumentParser:
-    p = argparse.ArgumentParser(prog="coldplate", description="Check a water-cooled cold plate design.")
+    from coldplate import __version__
+
+    p = _Parser(prog="coldplate", description="Check a water-cooled cold plate design.")
+    p.add_argument("--version", action="version", version=f"coldplate {__version__}")
     sub = p.add_subparsers(dest="command", required=True)
     c = sub.add_parser("check", help="solve a design file and print the design check")
     c.add_argument("file", help="design file (TOML)")
@@ -67,9 +111,10 @@ def _report(args, version) -> str:
     from coldplate.design.reader import parse_design
     from coldplate.check import solve
 
-    from reports.make import check_targets, make_report, report_format, write_report
+    from reports.make import check_targets, make_report, remove_leftovers, report_format, write_report
 
     report_format(args.output)
+    remove_leftovers(args.output)  # of a killed earlier run of this report
     if not args.force:
         check_targets([args.output], False)
     try:
@@ -121,12 +166,51 @@ def _curves(args, version) -> str:
 
 
 def main(argv=None) -> int:
+    debug = bool(os.environ.get("COLDPLATE_DEBUG"))
+    previous = {}
+    try:
+        previous = {signal.SIGINT: signal.signal(signal.SIGINT, signal.default_int_handler),
+                    signal.SIGTERM: signal.signal(signal.SIGTERM, _raise_terminated)}
+    except ValueError:  # not the main thread: signals stay as they are
+        pass
+    try:
+        with warnings.catch_warnings():
+            warnings.simplefilter("error" if debug else "ignore")
+            status = _run(argv, debug)
+        if status == EXIT_INTERRUPTED:  # `size` stopped in its search: it has printed the best so far
+            _end_stopped(status)
+        return status
+    except (KeyboardInterrupt, Terminated) as exc:
+        for sig in _STOP_WORDS:  # a second Ctrl-C cannot break the one line
+            signal.signal(sig, signal.SIG_IGN)
+        word, status = _STOP_WORDS[signal.SIGTERM if isinstance(exc, Terminated) else signal.SIGINT]
+        print(f"coldplate: {word}; nothing written", file=sys.stderr)
+        _end_stopped(status)
+        return status
+    finally:
+        for sig, handler in previous.items():
+            signal.signal(sig, handler)
+
+
+def _end_stopped(status: int) -> None:
+    """As the program, end a stopped run here: every ``finally`` has run, and the interpreter's own exit could
+    report the signal a second time (it did now and then: status -2 after our line)."""
+    if _AS_PROGRAM:
+        for stream in (sys.stdout, sys.stderr):
+            try:
+                stream.flush()
+            except (OSError, ValueError):
+                pass
+        os._exit(status)
+
+
+def _run(argv, debug: bool) -> int:
     args = _parser().parse_args(argv)
     try:
         if args.command == "size":
             from coldplate.sizing.command import run as run_size
 
-            return run_size(args)
+            return run_size(args, write_stdout)
         from coldplate import __version__
 
         if args.command == "report":
@@ -146,18 +230,38 @@ def main(argv=None) -> int:
 
                 text = render_text(result, __version__, units=args.units)
     except DesignError as exc:
-        print(f"coldplate: error: {exc}", file=sys.stderr)
+        print(f"coldplate: error: {one_line(exc)}", file=sys.stderr)
         return 2
     except ColdplateError as exc:
-        print(f"coldplate: cannot solve: {exc}", file=sys.stderr)
+        print(f"coldplate: cannot solve: {one_line(exc)}", file=sys.stderr)
         return 1
     except Exception as exc:  # an internal fault: one line unless debugging is asked for
-        if os.environ.get("COLDPLATE_DEBUG"):
+        if debug:
             raise
-        print(f"coldplate: internal error ({type(exc).__name__}: {exc}); set COLDPLATE_DEBUG=1 for details",
-              file=sys.stderr)
+        print(f"coldplate: internal error ({type(exc).__name__}: {_first_line(exc)}); set COLDPLATE_DEBUG=1 "
+              "for details", file=sys.stderr)
         return 1
-    sys.stdout.write(text if text.endswith("\n") else text + "\n")
+    return write_stdout(text)
+
+
+def one_line(exc) -> str:
+    """An error's message on one line (a library's message may hold line breaks)."""
+    return " ".join(str(exc).split())
+
+
+def _first_line(exc) -> str:
+    text = str(exc).strip()
+    return text.splitlines()[0] if text else "no message"
+
+
+def write_stdout(text: str) -> int:
+    """Print the command's output; a reader that closed the pipe early (``| head``) is not an error."""
+    try:
+        sys.stdout.write(text if text.endswith("\n") else text + "\n")
+        sys.stdout.flush()
+    except BrokenPipeError:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())  # the interpreter's last flush has nowhere to fail
     return 0
 
 

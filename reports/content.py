@@ -10,7 +10,7 @@ from __future__ import annotations
 import dataclasses
 import hashlib
 import math
-from .display_units import DisplayUnits, annotate, format_number
+from .display_units import DisplayUnits, annotate, exact_values, format_number
 from .optional_sections import circuit_section, module_inputs, module_section, planning_section
 
 
@@ -75,7 +75,7 @@ def _inputs(r, u: DisplayUnits) -> Section:
         Row("base (face to passage roof)", u.fmt("length", d.plate.base), u.label("length")),
     ]
     if d.plate.pressure_rating is not None:
-        rows.append(Row("plate pressure rating (gauge)", u.fmt("pressure", d.plate.pressure_rating),
+        rows.append(Row("plate pressure rating (gauge)", u.fmt("pressure", d.plate.pressure_rating, 3),
                         u.label("pressure")))
     rows.append(Row("passage", d.passage.kind, ""))
     for f in dataclasses.fields(d.passage):
@@ -192,7 +192,9 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     def fig(name, caption):
         return (Figure(name, caption, figures[name]),) if name in figures else ()
 
-    findings = tuple(Finding(f.severity, f.id, annotate(f.message, u), annotate(f.action, u)) for f in r.findings)
+    exact = exact_values(r, r.module, r.circuit, r.planning, r.design) if u.system != "si" else ()
+    findings = tuple(Finding(f.severity, f.id, annotate(f.message, u, exact), annotate(f.action, u, exact))
+                     for f in r.findings)
     sections = [
         _inputs(r, u),
         _breakdown(r, u, fig("breakdown", "Parts of the thermal resistance, hottest point to inlet water.")),

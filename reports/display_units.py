@@ -8,6 +8,7 @@ ISO value, 1.4e-7 apart.
 """
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass
 from functools import lru_cache
@@ -80,14 +81,22 @@ class DisplayUnits:
 
 
 def format_number(x: float, kind: str = "", digits: int = 4) -> str:
+    """``digits`` significant figures in plain notation (0.0006798, 5465, 43,640: thousands separated from
+    10**digits up); exponent notation only below 1e-4 and from 1e12 up, where plain figures stop being
+    readable."""
     if kind == "temperature":
         return f"{x:.2f}"
-    if x != 0 and (abs(x) >= 1e9 or abs(x) < 1e-3):
+    if x != 0 and (abs(x) >= 1e12 or abs(x) < 1e-4):
         return f"{x:.{digits - 1}e}"
     if abs(x) >= 10**digits:
         return f"{x:,.0f}"
-    text = f"{x:.{digits}g}"
-    return f"{float(text):,.0f}" if "e" in text else text
+    if x == 0:
+        return "0"
+    decimals = max(digits - 1 - math.floor(math.log10(abs(x))), 0)
+    text = f"{x:.{decimals}f}"
+    if abs(float(text)) >= 10**digits:  # rounded up across the separator's threshold
+        return f"{x:,.0f}"
+    return text.rstrip("0").rstrip(".") if "." in text else text  # as the 'g' format: no trailing zeros
 
 
 _IN_TEXT = {  # unit in a finding's wording -> (kind, SI value of one such unit; None: offset)
@@ -101,10 +110,61 @@ _IN_TEXT = {  # unit in a finding's wording -> (kind, SI value of one such unit;
 _NUMBER_UNIT = re.compile(r"(?<![\w.])(-?\d+(?:[.,]\d+)*(?:\.\d+)?) ?(degC|kPa|bar|L/min|m/s|mm)(?![\w/])")
 
 
-def annotate(text: str, units: DisplayUnits) -> str:
+def exact_values(*objects, depth: int = 3) -> tuple[float, ...]:
+    """Every finite float held by these results (dataclasses, their fields, tuples of them), SI.
+
+    Findings quote rounded SI figures; :func:`annotate` converts the value a figure was rounded from, found
+    here, so the bracket agrees with the tables (1.773 kPa quoted as '1.8 kPa' is shown as 0.257 psi).
+    """
+    from dataclasses import fields, is_dataclass
+
+    out: list[float] = []
+    seen: set[int] = set()
+
+    def walk(x, level):
+        if isinstance(x, bool) or id(x) in seen:
+            return
+        if isinstance(x, (int, float)):
+            if np.isfinite(x):
+                out.append(float(x))
+            return
+        if level >= depth:
+            return
+        seen.add(id(x))
+        if is_dataclass(x) and not isinstance(x, type):
+            for f in fields(x):
+                walk(getattr(x, f.name, None), level + 1)
+        elif isinstance(x, (tuple, list)) and len(x) <= 64:
+            for y in x:
+                walk(y, level + 1)
+        elif isinstance(x, np.ndarray) and x.size <= 64 and x.dtype.kind == "f":
+            out.extend(float(v) for v in x.ravel() if np.isfinite(v))
+
+    for obj in objects:
+        walk(obj, 0)
+    return tuple(out)
+
+
+def _exact(number_text: str, unit: str, exact) -> float | None:
+    """The SI value among ``exact`` that rounds to the quoted figure in the quoted unit (None when none does)."""
+    kind, factor = _IN_TEXT[unit]
+    figure = number_text.replace(",", "")
+    decimals = len(figure.split(".")[1]) if "." in figure else 0
+    quoted = float(figure)
+    best = None
+    for v in exact:
+        shown = v - 273.15 if kind == "temperature" else abs(v / factor)  # '1.8 kPa below' quotes a magnitude
+        if f"{shown:.{decimals}f}" == f"{quoted:.{decimals}f}" and (best is None or abs(shown - quoted) < best[0]):
+            best = (abs(shown - quoted), shown * factor if kind != "temperature" else v)
+    return None if best is None else best[1]
+
+
+def annotate(text: str, units: DisplayUnits, exact=()) -> str:
     """Add the display-unit equivalent after each SI quantity quoted in a sentence from the solver.
 
-    Findings are worded by the solver in SI; with US units, '15.0 degC' becomes '15.0 degC (59.0 °F)'.
+    Findings are worded by the solver in SI; with US units, '15.0 degC' becomes '15.0 degC (59.0 °F)'.  The
+    equivalent is converted from the exact value the figure was rounded from when ``exact`` (SI values, from
+    :func:`exact_values`) holds one that rounds to it, else from the figure itself.
     """
     if units.system == "si":
         return text
@@ -112,7 +172,9 @@ def annotate(text: str, units: DisplayUnits) -> str:
     def repl(m):
         number, unit = float(m.group(1).replace(",", "")), m.group(2)
         kind, factor = _IN_TEXT[unit]
-        si = number + 273.15 if kind == "temperature" else number * factor
+        si = _exact(m.group(1), unit, exact)
+        if si is None:
+            si = number + 273.15 if kind == "temperature" else number * factor
         shown = units.value(kind, si)
         return f"{m.group(0)} ({format_number(shown, '', 3) if kind != 'temperature' else f'{shown:.1f}'} " \
                f"{units.label(kind)})"

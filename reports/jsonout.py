@@ -61,7 +61,12 @@ def result_to_dict(r, version: str = "") -> dict:
     }
 
 
-def render_json(r, version: str = "") -> str:
+def check_to_dict(r, version: str = "") -> dict:
+    """What ``coldplate check --format json`` prints, as a dict (the modules' keys included when present)."""
     out = result_to_dict(r, version)
     out.update(module_to_dict(r.module))
-    return json.dumps(out, indent=2, ensure_ascii=False)
+    return out
+
+
+def render_json(r, version: str = "") -> str:
+    return json.dumps(check_to_dict(r, version), indent=2, ensure_ascii=False)

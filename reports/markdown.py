@@ -1,14 +1,36 @@
 """The design report as Markdown, its figures as SVG files beside it (``<stem>.<figure>.svg``).
 
 Layout only: the words and numbers come from :mod:`reports.content`, as in the HTML report.
+
+Every piece of text is escaped (:func:`md`): many Markdown viewers render HTML, so a title or part name such as
+``<script>`` must reach the reader as text, and Markdown's own marks in it ([links], *emphasis*, `code`) as
+the characters typed.  The design file is quoted in a code fence longer than any run of backticks inside it.
 """
 from __future__ import annotations
 
+import re
+from urllib.parse import quote
+
 from .content import STANDING_CAUTION, Report, Section, finding_counts
+
+_HTML = {"&": "&amp;", "<": "&lt;", ">": "&gt;"}
+_MARKS = re.compile(r"([\\`*_\[\]|!#~])")
+
+
+def md(text) -> str:
+    """Text as Markdown shows it literally: HTML characters as entities, Markdown marks backslash-escaped."""
+    text = " ".join(str(text).splitlines())
+    text = "".join(_HTML.get(c, c) for c in text)
+    return _MARKS.sub(r"\\\1", text)
 
 
 def _cell(text: str) -> str:
-    return str(text).replace("|", "\\|").replace("\n", " ")
+    return md(text)
+
+
+def _fence(text: str) -> str:
+    longest = max((len(m) for m in re.findall(r"`+", text)), default=0)
+    return "`" * max(3, longest + 1)
 
 
 def _rows(rows) -> list[str]:
@@ -29,38 +51,40 @@ def figure_file(stem: str, name: str) -> str:
 
 
 def _section(s: Section, stem: str) -> list[str]:
-    out = [f"## {s.title}", ""]
+    out = [f"## {md(s.title)}", ""]
     if s.id == "assumptions":
-        out += [f"- {p}" for p in s.paragraphs] + [""]
+        out += [f"- {md(p)}" for p in s.paragraphs] + [""]
     else:
         for p in s.paragraphs:
-            out += [p, ""]
+            out += [md(p), ""]
     if s.rows:
         out += _rows(s.rows)
     if s.table:
         out += _table(s.table)
     for f in s.figures:
-        out += [f"![{f.caption}]({figure_file(stem, f.name)})", ""]
+        out += [f"![{md(f.caption)}]({quote(figure_file(stem, f.name))})", ""]
     return out
 
 
 def render_markdown(rep: Report, stem: str) -> tuple[str, dict[str, str]]:
     """The Markdown text and the figure files it links to ({file name: SVG text})."""
     units = "SI" if rep.units == "si" else "US customary"
-    out = [f"# {rep.title}", "", rep.job, "",
-           f"*coldplate {rep.version} · design file {rep.source_name} · SHA-256 `{rep.source_sha256}` · "
+    out = [f"# {md(rep.title)}", "", md(rep.job), "",
+           f"*coldplate {md(rep.version)} · design file {md(rep.source_name)} · SHA-256 `{rep.source_sha256}` · "
            f"units: {units}*", "", "## Results", ""]
     out += _rows(rep.headline)
-    out += [f"## Findings ({finding_counts(rep.findings)}), most severe first", "", f"> {STANDING_CAUTION}", ""]
+    out += [f"## Findings ({finding_counts(rep.findings)}), most severe first", "", f"> {md(STANDING_CAUTION)}", ""]
     for f in rep.findings:
-        out += [f"- **{f.severity.upper()}** `{f.id}`: {f.message}", f"  *What to do:* {f.action}"]
+        out += [f"- **{f.severity.upper()}** `{f.id}`: {md(f.message)}", f"  *What to do:* {md(f.action)}"]
     out += ["" if rep.findings else "No findings.", ""]
     files = {}
+    fence = _fence(rep.source_text)
     for s in rep.sections:
         out += _section(s, stem)
         for f in s.figures:
             files[figure_file(stem, f.name)] = f.svg
     out += ["## Traceability", "",
-            f"Software: coldplate {rep.version}. Design file: {rep.source_name}, SHA-256 `{rep.source_sha256}`. "
-            "The design file as read:", "", "```toml", rep.source_text.rstrip("\n"), "```", ""]
+            f"Software: coldplate {md(rep.version)}. Design file: {md(rep.source_name)}, SHA-256 "
+            f"`{rep.source_sha256}`. The design file as read:", "",
+            fence + "toml", rep.source_text.rstrip("\n"), fence, ""]
     return "\n".join(out), files

@@ -81,8 +81,8 @@ def circuit_section(c, u: DisplayUnits, figures) -> Section:
                               "plate outlet pressure (gauge)"),
                              ("plate_rating", "circuit.plate_pressure_rating_Pa", "plate pressure rating (gauge)")):
         value = getattr(c, name)
-        if value is not None:
-            rows.append(Row(label, P(value), lab, key))
+        if value is not None:  # a rating to 3 figures: 6.9 bar is 100 psi, not 100.08
+            rows.append(Row(label, u.fmt("pressure", value, 3) if name == "plate_rating" else P(value), lab, key))
     heights = dict(c.heights)
     head = ("after part", f"gauge pressure [{lab}]") + ((f"height above the supply [{u.label('length_m')}]",)
                                                       if heights else ())

@@ -5,7 +5,7 @@ from __future__ import annotations
 import json
 import textwrap
 
-from .jsonout import result_to_dict
+from .jsonout import check_to_dict
 
 WIDTH = 92
 #: Rows of the trade-off front shown in the text (all of them are in the JSON).
@@ -114,7 +114,7 @@ def sizing_to_dict(s, version: str = "") -> dict:
         "why": list(s.why),
         "binding": list(s.binding),
         "notes": list(s.notes),
-        "check": result_to_dict(s.check, version) if s.check else None,
+        "check": check_to_dict(s.check, version) if s.check else None,
         "design_file": s.text,
     }
 

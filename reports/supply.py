@@ -105,7 +105,7 @@ def supply_lines(r, table, units: str = "si") -> list[str]:
             rows.append(("supply pressure used", pres(c.supply_pressure)[0], f"{p_unit} (gauge)"))
         rows.append(("pressure the circuit needs", pres(c.needed_pressure)[0], f"{p_unit} (gauge) at the supply"))
         rows.append(("plate inlet / outlet", f"{pres(c.plate_inlet_pressure)[0]} / {pres(c.plate_outlet_pressure)[0]}",
-                     f"{p_unit} (gauge) while flowing; plate rated {pres(c.plate_rating, '.2f')[0]} {p_unit}"))
+                     f"{p_unit} (gauge) while flowing; plate rated {pres(c.plate_rating, '.3g')[0]} {p_unit}"))
         out += table(rows, "Supply circuit")
         out.append("")
         out += table([(name, pres(value)[0], p_unit) for name, value in c.points],

@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import textwrap
 
-from .display_units import DisplayUnits, annotate
+from .display_units import DisplayUnits, annotate, exact_values, format_number
 from .module_report import module_text
 from .supply import supply_lines
 
@@ -18,7 +18,7 @@ def _table(rows, title):
     wq = max(len(q) for q, _, _ in rows)
     wv = max(len(v) for _, v, _ in rows)
     for q, v, u in rows:
-        lines.append(f"  {q:<{wq}}  {v:>{wv}}  {u}")
+        lines.append(f"  {q:<{wq}}  {v:>{wv}}  {u}".rstrip())
     return lines
 
 
@@ -26,8 +26,8 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     d = r.design
     u = DisplayUnits(units)
 
-    def v(kind, x, spec=".4g"):
-        return format(u.value(kind, x), spec)
+    def v(kind, x, spec=None):  # one number format throughout: 4 significant figures, separators from 10 000
+        return format_number(u.value(kind, x), kind) if spec is None else format(u.value(kind, x), spec)
 
     def t(x):
         return v("temperature", x, ".2f")
@@ -36,7 +36,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     rows = [
         ("heat load", v("power", r.load), u.label("power")),
         ("coolant flow", v("flow", r.V_dot), u.label("flow")),
-        ("thermal resistance", v("thermal_resistance", r.R_th, ".4g"),
+        ("thermal resistance", v("thermal_resistance", r.R_th),
          f"{u.label('thermal_resistance')}  (hottest mounting face - inlet) / load"),
         ("mounting face, hottest", t(r.T_face_max),
          f"{deg}  at {v('length', r.x_hot, '.3g')} {u.label('length')} from the inlet edge"),
@@ -46,11 +46,11 @@ def render_text(r, version: str = "", units: str = "si") -> str:
          f"{u.label('pressure')}  (friction {v('pressure', r.dp_friction)} {u.label('pressure')})"),
         ("velocity in passage", v("velocity", r.velocity, ".3f"), u.label("velocity")),
         ("Reynolds / Prandtl", f"{r.Re:.0f} / {r.Pr:.2f}", r.regime),
-        ("Nusselt / heat transfer coeff.", f"{r.Nu:.2f} / {v('heat_transfer_coefficient', r.h)}",
-         f"- / {u.label('heat_transfer_coefficient')}"),
+        ("Nusselt number", f"{r.Nu:.2f}", ""),
+        ("heat transfer coefficient", v("heat_transfer_coefficient", r.h), u.label("heat_transfer_coefficient")),
     ]
     if r.eta_fin is not None:
-        rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", "-"))
+        rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", ""))
     if d.supply.once_through:
         rows.append(("water use (once-through)", v("volume_per_day", r.water_use_L_per_day, ",.0f"),
                      f"{u.label('volume_per_day')} at {d.supply.hours_per_day:g} h/day  "
@@ -67,9 +67,9 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     out += _table(rows, "Result")
     out.append("")
     R_unit = u.label("thermal_resistance")
-    parts = [(name, v("thermal_resistance", value, ".4g"), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
+    parts = [(name, v("thermal_resistance", value), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
              for name, value in r.resistances]
-    parts.append(("total", v("thermal_resistance", r.R_th, ".4g"), R_unit))
+    parts.append(("total", v("thermal_resistance", r.R_th), R_unit))
     out += _table(parts, "Thermal resistance, hottest point to inlet water")
     out.append("")
     out += module_text(r.module, units)
@@ -84,10 +84,12 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     out.append("")
     out.append(f"Findings ({len(r.findings)})")
     out.append("-" * len(out[-1]))
+    exact = exact_values(r, r.module, r.circuit, r.planning, d) if u.system != "si" else ()
     for f in r.findings:
         head = f"[{f.severity.upper()}] {f.id}: "
-        out += textwrap.wrap(head + annotate(f.message, u), WIDTH, subsequent_indent="    ")
-        out += textwrap.wrap("What to do: " + annotate(f.action, u), WIDTH, initial_indent="    ", subsequent_indent="    ")
+        out += textwrap.wrap(head + annotate(f.message, u, exact), WIDTH, subsequent_indent="    ")
+        out += textwrap.wrap("What to do: " + annotate(f.action, u, exact), WIDTH, initial_indent="    ",
+                             subsequent_indent="    ")
     if version:
         out += ["", f"coldplate {version}"]
     return "\n".join(out) + "\n"

@@ -119,7 +119,7 @@ def test_write_best_refuses_to_overwrite_without_force(tmp_path, capsys):
     assert "--force" in capsys.readouterr().err and out.read_text() == "keep me\n"
     assert main(["size", str(_file(tmp_path)), "--write-best", str(out), "--force"]) == 0
     assert load_design(out).title
-    assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".coldplate-")] == []
+    assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".")] == []  # no temporary left
 
 
 def test_write_best_into_a_missing_directory_is_refused_before_the_search(tmp_path, capsys):

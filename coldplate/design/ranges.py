@@ -70,6 +70,7 @@ RANGES: dict[str, Bound] = dict((
     # running time, in hours a day and days a year (not SI: as the design file writes them)
     _b("[supply] hours_per_day", 1 / 60, 24.0, "a minute a day to all day"),
     _b("[supply] days_per_year", 1.0, 366.0, "a day a year to every day of a leap year"),
+    _b("[supply] drain_air_gap", 0.0, 2.0, "common practice: from none to an outlet 2 m above the flood rim"),
     # [room]: a room people or instruments work in
     _b("[room] temperature", 223.15, 333.15),
     _b("[room] relative_humidity", RH_FLOOR, 1.0,

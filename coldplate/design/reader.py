@@ -68,7 +68,7 @@ class Tube:
     inner_diameter: float  #: [m]
     outer_diameter: float  #: [m]
     passes: int
-    bend_radius: float  #: centre-line [m]
+    bend_radius: float | None  #: centre-line [m]; None for a single pass (no return bend)
     material: str
     bond: str
     roughness: float  #: [m]
@@ -102,6 +102,7 @@ class Supply:
     chiller_power: float | None = None  #: electrical power of a recirculating chiller [W]
     electricity_tariff: float | None = None  #: [currency/J]
     chiller_price: float | None = None  #: [currency]
+    drain_air_gap: float | None = None  #: measured air gap above the drain's flood rim [m] (a [circuit] says air_gap)
 
     @property
     def seconds_per_day(self) -> float:
@@ -158,6 +159,13 @@ class Design:
     module: Module | None = None  #: thermoelectric modules on the plate, from [module]
     circuit: Circuit | None = None  #: the lines around the plate ([circuit])
 
+    @property
+    def drain_air_gap(self) -> float | None:
+        """The air gap at the drain the user gave ([supply] drain_air_gap or [circuit] air_gap) [m]."""
+        if self.circuit is not None and self.circuit.air_gap is not None:
+            return self.circuit.air_gap
+        return self.supply.drain_air_gap
+
 
 PASSAGE_KINDS = ("channels", "tube", "cavity")
 SOURCES = ("potable", "recirculating", "process")
@@ -179,7 +187,7 @@ KEYS = {
     "interface": ("resistance", "conductivity", "thickness"),
     "supply": ("source", "hours_per_day", "days_per_year", "static_pressure", "discharge_limit", "discharge",
                "drive", "pump_flow", "pump_head", "face_limit", "tariff", "chiller_power", "electricity_tariff",
-               "chiller_price"),
+               "chiller_price", "drain_air_gap"),
     "coolant": ("fluid", "fraction", "basis", "inlet_temperature", "flow"),
     "room": ("temperature", "relative_humidity"),
     "correlations": ("laminar", "turbulent", "segments"),
@@ -253,12 +261,16 @@ def design_from_dict(data: dict) -> Design:
     module = read_module(data["module"]) if "module" in data else None
     heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface", KEYS["interface"]))
-    passage = _passage(Table(data["passage"], "passage", ANY_PASSAGE_KEY), plate)
+    search = data.get("search")
+    passage = _passage(Table(data["passage"], "passage", ANY_PASSAGE_KEY), plate,
+                       searches_passes=isinstance(search, dict) and "passes" in search)
     supply = _supply(Table(data["supply"], "supply", KEYS["supply"]))
     coolant, T_in, flow = _coolant(Table(data["coolant"], "coolant", KEYS["coolant"]), supply)
     room = _room(Table(data["room"], "room", KEYS["room"]))
     model = _model(Table(data.get("correlations", {}), "correlations", KEYS["correlations"]))
     circuit = read_circuit(data["circuit"]) if "circuit" in data else None
+    if circuit is not None and circuit.air_gap is not None and supply.drain_air_gap is not None:
+        raise DesignError("[supply] drain_air_gap", "the [circuit] gives air_gap already; give the air gap once")
     if supply.drive != "flow" and circuit is None:
         raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
                                             "supply pushes water through)")
@@ -325,7 +337,7 @@ def _interface(t: Table) -> Interface:
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
 
-def _passage(t: Table, plate: Plate):
+def _passage(t: Table, plate: Plate, searches_passes: bool = False):
     kind = t.choice("kind", PASSAGE_KINDS)
     t.keys = PASSAGE_KEYS[kind]
     if kind == "channels":
@@ -349,7 +361,8 @@ def _passage(t: Table, plate: Plate):
         if do <= di:
             raise DesignError(t.field("outer_diameter"), "must be larger than inner_diameter")
         passes = t.integer("passes", 1, 200)
-        rb = t.value("bend_radius", "length")
+        # one pass has no return bend: bend_radius is asked for only with more (or with passes to search)
+        rb = t.value("bend_radius", "length", required=passes > 1 or searches_passes)
         mkey = t.word("material")
         try:
             mat = materials.material(mkey)
@@ -357,9 +370,9 @@ def _passage(t: Table, plate: Plate):
             raise DesignError(t.field("material"), str(exc).strip("'\"")) from None
         bond = t.choice("bond", tuple(materials.BONDS))
         rough = t.value("roughness", "length", required=False, default=materials.roughness("drawn-tubing"))
-        if passes > 1 and 2 * rb < do:
+        if rb is not None and passes > 1 and 2 * rb < do:
             raise DesignError(t.field("bend_radius"), "a return bend of this radius puts adjacent passes closer than the tube diameter")
-        span = (passes - 1) * 2 * rb + do
+        span = (passes - 1) * 2 * (rb or 0.0) + do
         if span > plate.width:
             raise DesignError(t.field("passes"), f"{passes} passes at {2 * rb * 1e3:.4g} mm pitch need {span * 1e3:.4g} mm, "
                                                  f"wider than the plate ({plate.width * 1e3:.4g} mm)")
@@ -396,6 +409,9 @@ def _supply(t: Table) -> Supply:
     limit = t.value("discharge_limit", "temperature", required=False, default=DEFAULT_DISCHARGE_LIMIT)
     discharge = t.choice("discharge", DISCHARGES, default=DEFAULT_DISCHARGE[source])
     extras = read_supply_extras(t, source, discharge, p)
+    gap = t.value("drain_air_gap", "length", required=False)
+    if gap is not None and discharge != "drain":
+        raise DesignError(t.field("drain_air_gap"), "is for water discharged to a drain (discharge = \"drain\")")
     if source == "potable" and discharge == "return":
         raise DesignError(t.field("discharge"), "drinking water that has been through equipment must never return "
                                                 "to the drinking-water system; potable water runs to a drain")
@@ -403,7 +419,7 @@ def _supply(t: Table) -> Supply:
         raise DesignError(t.field("discharge"), "a recirculating supply returns its water; use source = \"process\" "
                                                 "or \"potable\" for water that runs to a drain")
     t.finish()
-    return Supply(source, hours, float(days), p, limit, discharge, **extras)
+    return Supply(source, hours, float(days), p, limit, discharge, **extras, drain_air_gap=gap)
 
 
 def _coolant(t: Table, supply: Supply):

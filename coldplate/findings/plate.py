@@ -115,12 +115,26 @@ def cross_connection(r):
         f"Fit backflow protection at the supply: {device}. Never return cooling water to the drinking-water "
         "system. " + DEFER)
     outlet = d.circuit.outlet_diameter if d.circuit is not None else None
-    here = f" (here {max(2 * outlet, AIR_GAP_MIN) * 1e3:.0f} mm)" if outlet else ""
-    yield Finding(
-        "drain-air-gap", "caution",
-        "The discharge goes to a drain: a hose pushed into the drain can siphon waste water back.",
-        f"Discharge through an air gap of at least twice the outlet's diameter and not less than "
-        f"{AIR_GAP_MIN * 1e3:.0f} mm above the drain's flood rim (ASME A112.1.2){here}. " + DEFER)
+    need = max(2 * outlet, AIR_GAP_MIN) if outlet else None
+    here = f" (here {need * 1e3:.0f} mm)" if need else ""
+    gap = d.drain_air_gap
+    if gap is None:
+        yield Finding(
+            "drain-air-gap", "caution",
+            "The discharge goes to a drain: a hose pushed into the drain can siphon waste water back.",
+            f"Discharge through an air gap of at least twice the outlet's diameter and not less than "
+            f"{AIR_GAP_MIN * 1e3:.0f} mm above the drain's flood rim (ASME A112.1.2){here}. " + DEFER)
+    elif gap >= (need or AIR_GAP_MIN):  # a shorter gap is a warning of supply.findings.air_gap
+        against = (f"this outlet needs at least {need * 1e3:.0f} mm (twice its diameter, not less than "
+                   f"{AIR_GAP_MIN * 1e3:.0f} mm; ASME A112.1.2)" if need else
+                   f"enough if it is at least twice the outlet's diameter (and never less than "
+                   f"{AIR_GAP_MIN * 1e3:.0f} mm; ASME A112.1.2): the outlet's diameter is not given")
+        yield Finding(
+            "drain-air-gap", "note",
+            f"The discharge falls through the {gap * 1e3:.0f} mm air gap given above the drain's flood rim; "
+            f"{against}.",
+            "Keep the hose end fixed at that height in a bracket it cannot slip from, so it can never be pushed "
+            "into the drain. " + DEFER)
     yield Finding(
         "once-through-restriction", "note",
         f"Once-through cooling with drinking water uses {r.water_use_L_per_day:,.0f} L a day here; some "

@@ -3,7 +3,9 @@
 The progress bar goes to stderr, only when stderr is a terminal and ``--quiet`` is not given.  Ctrl-C stops
 the search between chunks; the best design found so far is printed and the exit status is 130.
 ``--write-best OUT.toml`` writes the recommendation as a design file atomically (a temporary file in the same
-folder, then a rename) and refuses to replace an existing file without ``--force``.
+folder, then a rename; the umask sets its permissions, as for reports) and refuses to replace an existing file
+without ``--force``.  With no feasible candidate the exit status is 1 with one line on stderr naming the
+limits that bind.
 """
 from __future__ import annotations
 
@@ -52,9 +54,9 @@ def add_parser(sub) -> None:
     s.add_argument("--quiet", action="store_true", help="no progress bar")
 
 
-def run(args) -> int:
+def run(args, write_stdout) -> int:
     from coldplate import __version__
-    from coldplate.sizing.recommend import read_file, size
+    from coldplate.sizing.recommend import binding_line, read_file, size
 
     out_path = Path(args.write_best) if args.write_best else None
     if out_path is not None and out_path.exists() and not args.force:
@@ -82,30 +84,25 @@ def run(args) -> int:
     interrupted = result.outcome.interrupted or any("interrupted" in n for n in result.notes)
     if out_path is not None and result.text is not None and not interrupted:
         _write_atomic(out_path, result.text)
-    sys.stdout.write(text if text.endswith("\n") else text + "\n")
-    if out_path is not None and not interrupted:
-        print(f"coldplate: wrote {out_path}" if result.text else f"coldplate: nothing written to {out_path}: "
-              "no design meets every limit", file=sys.stderr)
+    write_stdout(text)
     if interrupted:
         print("coldplate: interrupted; the best design of the part searched is shown above"
               + (" (nothing written)" if out_path else ""), file=sys.stderr)
         return EXIT_INTERRUPTED
-    return 0 if result.recommended is not None else 1
+    if result.recommended is None:  # exit 1, one line naming the limits that bind
+        print(f"coldplate: cannot size: {binding_line(result.outcome)}"
+              + (f"; nothing written to {out_path}" if out_path is not None else ""), file=sys.stderr)
+        return 1
+    if out_path is not None:
+        print(f"coldplate: wrote {out_path}", file=sys.stderr)
+    return 0
 
 
 def _write_atomic(path: Path, text: str) -> None:
-    import tempfile  # only when writing: keeps `coldplate check` start-up lean
+    """The recommendation as a design file, atomically, with the umask's permissions (reports.make)."""
+    from reports.make import write_atomic
 
-    folder = path.resolve().parent
     try:
-        fd, tmp = tempfile.mkstemp(prefix=".coldplate-", suffix=".toml", dir=folder)
+        write_atomic(path, text)
     except OSError as exc:
-        raise DesignError("--write-best", f"cannot write in {str(folder)!r}: {exc}") from None
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8") as fh:
-            fh.write(text)
-        os.replace(tmp, path)
-    except BaseException:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        raise
+        raise DesignError("--write-best", f"cannot write {str(path)!r}: {exc.strerror or exc}") from None

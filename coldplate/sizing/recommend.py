@@ -144,6 +144,23 @@ LIMIT_TEXT = {
 }
 
 
+def binding_line(outcome: SearchOutcome) -> str:
+    """One line for stderr when nothing is feasible: which limits bind, with the nearest values reached."""
+    if outcome.candidates == 0:
+        return "no combination of the [search] ranges can be built (no wall between channels, or the passes do not fit)"
+    alone = sorted((c for c in outcome.limits if c.only), key=lambda c: -c.only)
+    head = f"no design meets every limit ({outcome.evaluated:,} evaluated)"
+    if alone:
+        parts = []
+        for c in alone:
+            label, fmt = LIMIT_TEXT[c.name]
+            parts.append(f"[search] {c.name} ({label}) binds alone in {c.only:,}" if fmt is None else
+                         f"[search] {c.name} {fmt(c.limit)} binds alone in {c.only:,} (nearest {fmt(c.nearest)})")
+        return f"{head}: " + "; ".join(parts) + "; relax one of these or widen the ranges"
+    failing = [f"{c.name} fails {c.failed:,}" for c in outcome.limits if c.failed]
+    return f"{head}: every candidate fails two or more limits ({', '.join(failing)}); widen the ranges"
+
+
 def _binding(outcome: SearchOutcome) -> tuple[str, ...]:
     if outcome.candidates == 0:
         return ("No combination of the ranges can be built: the channels leave no wall between them, or the "

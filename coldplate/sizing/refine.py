@@ -115,7 +115,7 @@ def margins(c: Candidate, outcome: SearchOutcome, design) -> np.ndarray:
     else:
         tw = 0.5 * (design.passage.outer_diameter - design.passage.inner_diameter)
         do = v["inner_diameter"] + 2 * tw
-        rb = design.passage.bend_radius
+        rb = design.passage.bend_radius or 0.0  # None: one pass, not searched
         out.append((design.plate.width - (v["passes"] - 1) * 2 * rb - do) / 1e-3)
         if v["passes"] > 1:
             out.append((2 * rb - do) / 1e-3)

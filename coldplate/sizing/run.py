@@ -84,7 +84,7 @@ class _Geometries:
         else:
             di, p = (a.ravel() for a in np.meshgrid(ax["inner_diameter"], ax["passes"], indexing="ij"))
             tw = 0.5 * (design.passage.outer_diameter - design.passage.inner_diameter)
-            do, rb = di + 2 * tw, design.passage.bend_radius
+            do, rb = di + 2 * tw, design.passage.bend_radius or 0.0  # None: one pass, not searched
             ok = ((p - 1) * 2 * rb + do <= plate.width) & ((p == 1) | (2 * rb >= do))
             self.names = ("inner_diameter", "passes")
             self.cols = (di[ok], p[ok])

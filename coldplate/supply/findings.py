@@ -122,13 +122,14 @@ def backflow_fit(r):
 
 def air_gap(r):
     d, c = r.design, r.design.circuit
-    if c is None or not d.supply.once_through or c.air_gap is None:
+    gap = d.drain_air_gap
+    if not d.supply.once_through or gap is None:
         return
-    need = max(2.0 * (c.outlet_diameter or 0.0), AIR_GAP_MIN)
-    if c.air_gap < need:
+    need = max(2.0 * ((c.outlet_diameter if c is not None else None) or 0.0), AIR_GAP_MIN)
+    if gap < need:
         yield Finding(
             "drain-air-gap-short", "warning",
-            f"The air gap at the drain is {c.air_gap * 1e3:.0f} mm; this outlet needs at least {need * 1e3:.0f} mm "
+            f"The air gap at the drain is {gap * 1e3:.0f} mm; this outlet needs at least {need * 1e3:.0f} mm "
             "(twice its diameter, and not less than 25 mm).",
             "Fix the hose end higher above the drain's flood rim, in a bracket it cannot slip from. " + DEFER)
 

@@ -2,8 +2,9 @@
 
 The passes run along the plate length, joined by 180-degree return bends of
 centre-line radius ``bend_radius`` (so adjacent passes are ``2·bend_radius``
-apart).  Heat crosses, in series: the plate metal between passes to the groove
-(1-D conduction with a uniform source, its peak rise mid-strip), the bond over the groove's contact arc,
+apart; a single pass has no bend and needs no ``bend_radius``).  Heat crosses, in series: the plate metal between
+passes to the groove (1-D conduction with a uniform source, its peak rise mid-strip), the bond over the groove's
+contact arc,
 the tube wall, and convection inside the tube, where the unbonded half of the
 tube takes heat through the wall acting as a curved fin.  The groove is taken to hold half
 the tube's circumference (common practice for a half-round groove).
@@ -26,7 +27,7 @@ CONTACT_ARC = 0.5
 
 def tube_length(passage, plate) -> float:
     bends = max(passage.passes - 1, 0)
-    return passage.passes * plate.length + bends * math.pi * passage.bend_radius
+    return passage.passes * plate.length + bends * math.pi * (passage.bend_radius or 0.0)
 
 
 def geometry(passage, plate) -> Geometry:
@@ -44,7 +45,7 @@ def geometry(passage, plate) -> Geometry:
         heated="4",
         roughness=passage.roughness,
         description=(f"{passage.material} tube {di * 1e3:.3g}/{passage.outer_diameter * 1e3:.3g} mm, "
-                     f"{passage.passes} passes, {passage.bond} bond"),
+                     f"{passage.passes} {'pass' if passage.passes == 1 else 'passes'}, {passage.bond} bond"),
         single_pass=passage.passes == 1,
     )
 
@@ -56,7 +57,7 @@ def strips(passage, plate) -> tuple[tuple[float, float], ...]:
     ``2·bend_radius − D_o`` that drains to both sides (length half its width); the plate outside the outer
     passes drains to one side only (length its full width).
     """
-    do, pitch, n = passage.outer_diameter, 2 * passage.bend_radius, passage.passes
+    do, pitch, n = passage.outer_diameter, 2 * (passage.bend_radius or 0.0), passage.passes  # one pass: no pitch
     gap = max(pitch - do, 0.0)
     edge = max((plate.width - (n - 1) * pitch - do) / 2.0, 0.0)
     out = [(gap, gap / 2)] * (n - 1) + [(edge, edge)] * 2
