@@ -35,16 +35,19 @@ memory).  With p = 2 this is ``|T_fine - T_coarse|``.
 
 The linear solver (measured in ``benchmarks/field.py``)
 -------------------------------------------------------
-The direct sparse LU (``scipy.sparse.linalg.splu``, COLAMD ordering) is the default.  The plate is thin (a
-few cells through its thickness over a 2-D grid), so the fill-in is that of a 2-D problem and the
-factorisation is cheap; measured on the review case's default grid (about 43k unknowns) it took about the
-time of one ILU-preconditioned GMRES solve to 1e-10, and every further source then costs a
-back-substitution (a few per cent of the factorisation) where GMRES starts again.  The coupling of 8 sources
-therefore costs little more than one solve with LU, and 8 solves with GMRES.  The LU is also exact to round-off,
-which the energy balance (coolant heat = load to 1e-6) needs without a tolerance to tune.  The system is not
-symmetric (the coolant's upwind march), which rules out plain conjugate gradients for channel plates; an
-algebraic multigrid package would add a dependency for no gain at this size.  ``method="gmres"`` keeps the
-iterative path (ILU-preconditioned restarted GMRES) for the benchmark and for grids too large to factorise.
+The direct sparse LU (``scipy.sparse.linalg.splu``, minimum-degree ordering on A + A^T) is the default.
+Measured (benchmarks/field.py, this 2-core shared machine): on the review case's default grid (22k cells)
+the factorisation takes about 0.5 s and a back-substitution about 12 ms, while ILU-preconditioned GMRES
+(``spilu`` drop 1e-4, restart 50, to 1e-11) took over 200 iterations and 20-80 times as long for ONE
+right-hand side.  Every further source then costs the LU one back-substitution (a few per cent of the
+factorisation) where GMRES starts again, so the coupling matrix of 8 sources costs the LU little more than
+one solve.  The LU is also exact to round-off, which the energy balance (coolant heat = load to 1e-6) needs
+without a tolerance to tune.  The system is not symmetric (the coolant carries heat one way), which rules
+out plain conjugate gradients for channel plates.  The LU's cost grows faster than the cells (its fill is
+20-35 times the matrix here: 0.5 s at 22k cells, about 3.5 s at 39k on the example plate), so larger grids
+want a better ordering or an algebraic multigrid preconditioner (pyamg, not a dependency yet); that is left
+open.  ``method="gmres"`` keeps the iterative path for comparison.  COLAMD (SuperLU's default) filled
+about 2.5 times more than the minimum-degree ordering on A + A^T here.
 """
 from __future__ import annotations
 
