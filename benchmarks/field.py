@@ -77,9 +77,11 @@ def report(name, plate, sources, cooling, repeat):
     r = F.solve_field(plate, sources, cooling)
     t_default = _median(lambda: F.solve_field(plate, sources, cooling), repeat)
     t_single = _median(lambda: F.solve_field(plate, sources, cooling, uncertainty=False), repeat)
+    rss = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0  # before the solver comparison's ILU
     M, B = system_of(plate, sources, cooling)
     s = solvers(M, B, repeat)
     print(f"\n{name}")
+    print(f"  process peak RSS after the default solves {rss:.0f} MB (cumulative over the cases so far)")
     print(f"  cells {r.cells}, unknowns {r.unknowns}, LU fill {s['fill']} ({s['fill'] / M.nnz:.1f} x the matrix)")
     print(f"  default solve (two grids, with uncertainty) {t_default * 1e3:7.1f} ms;"
           f" one grid {t_single * 1e3:7.1f} ms")

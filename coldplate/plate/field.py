@@ -477,6 +477,12 @@ def _source_values(lv: _Level, sources, loads):
     return face, out, coupling
 
 
+def _read_only(a):
+    a = np.array(a, dtype=float)
+    a.flags.writeable = False
+    return a
+
+
 def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, level: int = DEFAULT_LEVEL,
                 rules: GridRules = GridRules(), method: str = "direct", uncertainty: bool = True) -> FieldResult:
     """Solve the plate's field for ``sources`` with ``cooling`` (:class:`ChannelCooling` or :class:`UniformBack`).
@@ -512,10 +518,12 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
     else:
         bulk, bulk_x, channel_heat = np.zeros((0, 0)), np.zeros(0), np.zeros(0)
     heat = float(channel_heat.sum()) if channel_heat.size else float(lv.wet_unit @ loads)
+    coupling, face, bulk, bulk_x, channel_heat = (_read_only(a) for a in (coupling, ref + face, bulk, bulk_x,
+                                                                           channel_heat))
     return FieldResult(
         sources=tuple(SourceField(s.name, float(s.load), ref + v[0], ref + v[1], v[2], float(u))
                       for s, v, u in zip(sources, values, U)),
-        coupling=coupling, face_x=grid.xc, face_y=grid.yc, face=ref + face,
+        coupling=coupling, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
         bulk_x=bulk_x, bulk=bulk, channel_heat=channel_heat, heat_to_coolant=heat,
         load=float(loads.sum()), reference=float(ref), hottest=ref + hottest, grid_uncertainty=float(U_hot),
         cells=lv.cells, unknowns=lv.unknowns, iterations=lv.iterations, method=method, level=int(level),
