@@ -37,14 +37,15 @@ The linear solver (measured in ``benchmarks/field.py``)
 -------------------------------------------------------
 The direct sparse LU (``scipy.sparse.linalg.splu``, minimum-degree ordering on A + A^T) is the default.
 Measured (benchmarks/field.py, this 2-core shared machine): on the review case's default grid (22k cells)
-the factorisation takes about 0.5 s and a back-substitution about 12 ms, while ILU-preconditioned GMRES
-(``spilu`` drop 1e-4, restart 50, to 1e-11) took over 200 iterations and 20-80 times as long for ONE
-right-hand side.  Every further source then costs the LU one back-substitution (a few per cent of the
+a back-substitution costs 2-5 % of the factorisation, while ILU-preconditioned GMRES (``spilu`` drop 1e-4,
+restart 50, to 1e-11) took 212-392 iterations and 7-80 times as long as the whole LU for ONE right-hand
+side.  Every further source then costs the LU one back-substitution (a few per cent of the
 factorisation) where GMRES starts again, so the coupling matrix of 8 sources costs the LU little more than
 one solve.  The LU is also exact to round-off, which the energy balance (coolant heat = load to 1e-6) needs
 without a tolerance to tune.  The system is not symmetric (the coolant carries heat one way), which rules
 out plain conjugate gradients for channel plates.  The LU's cost grows faster than the cells (its fill is
-20-35 times the matrix here: 0.5 s at 22k cells, about 3.5 s at 39k on the example plate), so larger grids
+20-50 times the matrix: 0.24-2.1 s to factorise 22k cells, 1.1-3.4 s for 39k on the example plate, 5.6-8 s
+for 87k with 8 sources, the spread being other work on this shared machine), so larger grids
 want a better ordering or an algebraic multigrid preconditioner.  pyamg was tried (outside the project, not a
 dependency): on the same two systems its smoothed aggregation took 6-9 s to set up and 1.5-3 s per solve
 (28-31 GMRES iterations), its AIR solver 1.7-6.4 s to set up and 0.6-1.9 s per solve, against 0.5-2 s for
