@@ -70,6 +70,9 @@ def test_grid_uncertainty_bounds_the_error_against_the_series(name, spreading):
     assert math.isfinite(r.grid_uncertainty) and r.grid_uncertainty > 0
     assert abs(r.hottest - ref) <= r.grid_uncertainty
     assert r.sources[0].grid_uncertainty == pytest.approx(r.grid_uncertainty)
+    # and the mean's own estimate covers the mean's error
+    ref_mean = 300.0 + 10.0 * conduction.spreading_MCY(a, b, c, d, t, k, h, n_terms=800).R_mean
+    assert abs(r.sources[0].face_mean - ref_mean) <= r.sources[0].mean_uncertainty
 
 
 def test_heat_to_a_fixed_fluid_equals_the_load(spreading):

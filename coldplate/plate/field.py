@@ -154,6 +154,7 @@ class SourceField:
     face_mean: float  #: mean face temperature [K]
     hottest_at: tuple[float, float]  #: (x, y) of the hottest cell centre [m]
     grid_uncertainty: float  #: of face_max [K] (nan when not estimated)
+    mean_uncertainty: float = math.nan  #: of face_mean [K], the same estimate (nan when not estimated)
 
 
 @dataclass(frozen=True)
@@ -500,12 +501,14 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
     ref = cooling.inlet if isinstance(cooling, ChannelCooling) else cooling.fluid
     hottest = max(v[0] for v in values)
     U = np.full(len(sources), math.nan)
+    U_mean = np.full(len(sources), math.nan)
     U_hot = coarse_hot = math.nan
     if uncertainty and level >= 1:
         lc = _solve_level(plate, sources, cooling, rules, level - 1, method)
         _, cvals, _ = _source_values(lc, sources, loads)
         factor = GCI_SAFETY / (2.0**GRID_ORDER - 1.0)
         U = np.array([factor * abs(f[0] - c[0]) for f, c in zip(values, cvals)])
+        U_mean = np.array([factor * abs(f[1] - c[1]) for f, c in zip(values, cvals)])
         coarse_hot = max(c[0] for c in cvals)
         U_hot = factor * abs(hottest - coarse_hot)
         coarse_hot += ref
@@ -522,8 +525,8 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
     coupling, face, bulk, bulk_x, channel_heat = (_read_only(a) for a in (coupling, ref + face, bulk, bulk_x,
                                                                            channel_heat))
     return FieldResult(
-        sources=tuple(SourceField(s.name, float(s.load), ref + v[0], ref + v[1], v[2], float(u))
-                      for s, v, u in zip(sources, values, U)),
+        sources=tuple(SourceField(s.name, float(s.load), ref + v[0], ref + v[1], v[2], float(u), float(um))
+                      for s, v, u, um in zip(sources, values, U, U_mean)),
         coupling=coupling, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
         bulk_x=bulk_x, bulk=bulk, channel_heat=channel_heat, heat_to_coolant=heat,
         load=float(loads.sum()), reference=float(ref), hottest=ref + hottest, grid_uncertainty=float(U_hot),
