@@ -1,0 +1,535 @@
+"""The plate as a field: a 3-D finite-volume conduction solve of a cold plate carrying several heat sources.
+
+Not yet wired into the check: this module is the computational core.  Inputs are plain dataclasses in SI
+(kelvin, metres, watts), so it does not depend on the design reader; the output is a frozen
+:class:`FieldResult`.
+
+The model
+---------
+The solid is the base (``base`` thick, under the whole mounting face) and, for a channel plate, the walls
+between the channels (``depth`` tall, the outer two at the plate's edges) and an optional lid below them.  The
+metal's conductivity k is constant.  Rectangular sources on the mounting face put a uniform flux
+``load / (size along × size across)`` into the metal; the rest of the mounting face, the plate's sides and
+(without a lid) the wall tips are adiabatic.  Each wetted face (channel floor, wall side, roof under a lid)
+passes heat to its channel's coolant through ``A / (distance to the cell centre / k + 1 / h)``, h the local
+coefficient at that x (the caller's; its mean over each cell by 3-point Gauss-Legendre, which never samples
+the inlet edge, where an entry coefficient is singular).
+
+The coolant of each channel is a bulk temperature at every x edge of the grid, solved in the same sparse
+system: for segment i of channel c (one x cell), ``m_c cp (T_i - T_(i-1)) = sum over its wetted faces of
+G (T_wall - (T_(i-1) + T_i) / 2)``, with T_0 the inlet temperature.  The flow is shared equally between
+the channels (no plenum maldistribution; see the note in ``ChannelCooling``).  The unknowns are the rises
+above the inlet, so the system is linear in the loads, and the field of several sources is the sum of each
+source's field per watt (superposition): one factorisation, one back-substitution per source.  The
+coupling matrix ``C[i, j]`` is the mean face rise of source i per watt of source j; with the coolant
+carried downstream it is not symmetric (water warmed by an upstream source heats a downstream one); with a
+fixed fluid temperature (``UniformBack``) the conduction operator is symmetric and so is C (reciprocity).
+
+Discretisation: cell-centred finite volumes, second order on the structured grid of
+:mod:`coldplate.plate.fieldgrid`; a face value on the mounting face is the cell value plus the flux's
+half-cell rise.  The grid uncertainty is Roache's grid convergence index from the requested grid and the
+one a level coarser (exactly every other edge): ``U = F_s |T_fine - T_coarse| / (2^p - 1)`` with the
+formal order p = 2 and the two-grid safety factor F_s = 3 (Roache, P.J. (1994) Perspective: a method for
+uniform reporting of grid refinement studies, J. Fluids Eng. 116:405-413; F_s = 3 for two grids, from
+memory).  With p = 2 this is ``|T_fine - T_coarse|``.
+
+The linear solver (measured in ``benchmarks/field.py``)
+-------------------------------------------------------
+The direct sparse LU (``scipy.sparse.linalg.splu``, minimum-degree ordering on A + A^T) is the default.
+Measured (benchmarks/field.py, this 2-core shared machine): on the review case's default grid (22k cells)
+a back-substitution costs 2-5 % of the factorisation, while ILU-preconditioned GMRES (``spilu`` drop 1e-4,
+restart 50, to 1e-11) took 212-392 iterations and 7-80 times as long as the whole LU for ONE right-hand
+side.  Every further source then costs the LU one back-substitution (a few per cent of the
+factorisation) where GMRES starts again, so the coupling matrix of 8 sources costs the LU little more than
+one solve.  The LU is also exact to round-off, which the energy balance (coolant heat = load to 1e-6) needs
+without a tolerance to tune.  The system is not symmetric (the coolant carries heat one way), which rules
+out plain conjugate gradients for channel plates.  The LU's cost grows faster than the cells (its fill is
+20-50 times the matrix: 0.24-2.1 s to factorise 22k cells, 1.1-3.4 s for 39k on the example plate, 5.6-8 s
+for 87k with 8 sources, the spread being other work on this shared machine), so larger grids
+want a better ordering or an algebraic multigrid preconditioner.  pyamg was tried (outside the project, not a
+dependency): on the same two systems its smoothed aggregation took 6-9 s to set up and 1.5-3 s per solve
+(28-31 GMRES iterations), its AIR solver 1.7-6.4 s to set up and 0.6-1.9 s per solve, against 0.5-2 s for
+the whole LU in the same session: it does not serve at these sizes, and each source would need its own solve.  ``method="gmres"`` keeps the iterative path for comparison.  COLAMD (SuperLU's default) filled
+about 2.5 times more than the minimum-degree ordering on A + A^T here.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Callable, Sequence, Union
+
+import numpy as np
+
+from coldplate.design.errors import DesignError
+from coldplate.plate.fieldgrid import BASE, CHANNEL_LAYER, LID, Grid, GridRules, build_grid
+
+#: The grid level solved by default (level 0 of :class:`GridRules` halved once); its Richardson partner is level 0.
+DEFAULT_LEVEL = 1
+#: Formal order of the discretisation and the two-grid safety factor of the grid convergence index (Roache 1994).
+GRID_ORDER, GCI_SAFETY = 2.0, 3.0
+#: Tolerance of the iterative path (relative residual); the direct path is exact to round-off.
+GMRES_RTOL = 1e-11
+
+Coefficient = Union[float, Callable[[np.ndarray], np.ndarray]]
+
+
+@dataclass(frozen=True)
+class FieldPlate:
+    """The metal block: ``length`` along the flow, ``width`` across, ``base`` below the mounting face [m];
+    ``conductivity`` [W/(m K)], constant."""
+
+    length: float
+    width: float
+    base: float
+    conductivity: float
+
+
+@dataclass(frozen=True)
+class FieldSource:
+    """A rectangular heat source on the mounting face with a uniform flux.
+
+    ``load`` [W]; ``size`` = (along the flow, across) [m]; ``at`` = its centre: (distance from the inlet edge
+    along the flow, offset across from the plate's centre line, positive toward the side of the last channel)
+    [m]; ``interface`` = its interface resistance per area [K m²/W] (the device-side face temperature adds
+    ``load / area × interface``).
+    """
+
+    name: str
+    load: float
+    size: tuple[float, float]
+    at: tuple[float, float]
+    interface: float = 0.0
+
+    @property
+    def area(self) -> float:
+        return self.size[0] * self.size[1]
+
+
+@dataclass(frozen=True)
+class ChannelCooling:
+    """Straight channels along the whole plate length under the base, coolant flowing from x = 0.
+
+    ``count`` channels ``width`` × ``depth`` [m], walls of equal thickness with the outer two at the plate's
+    edges; ``lid`` [m] of metal below the channels (0: none, the wall tips and the channel roofs adiabatic).
+    ``mass_flow`` [kg/s] through the whole plate, shared equally (a plenum's maldistribution would make some
+    channels hotter: not modelled here); ``cp`` [J/(kg K)]; ``inlet`` [K]; ``h`` [W/(m² K)] on every wetted
+    face: a number, a function of x [m] (distance from the inlet edge, numpy array in and out), or a sequence
+    of such functions, one per channel.  Use :func:`tabulated` for values at points along the flow.
+    """
+
+    count: int
+    width: float
+    depth: float
+    mass_flow: float
+    cp: float
+    inlet: float
+    h: Union[Coefficient, Sequence[Coefficient]]
+    lid: float = 0.0
+
+
+@dataclass(frozen=True)
+class UniformBack:
+    """The base alone, its bottom face at a uniform ``h`` [W/(m² K)] to a fluid held at ``fluid`` [K]
+    (the spreading problem's boundary; no channels, no coolant rise)."""
+
+    h: float
+    fluid: float
+
+
+def tabulated(x, h) -> Callable[[np.ndarray], np.ndarray]:
+    """h(x) from values ``h`` [W/(m² K)] at points ``x`` [m] along the flow (linear between, held beyond)."""
+    x, h = np.asarray(x, float), np.asarray(h, float)
+    if x.ndim != 1 or x.shape != h.shape or np.any(np.diff(x) <= 0):
+        raise ValueError("tabulated needs increasing x and one h per x")
+    return lambda q: np.interp(q, x, h)
+
+
+@dataclass(frozen=True)
+class SourceField:
+    """One source's result: face temperatures on the device side of its interface [K]."""
+
+    name: str
+    load: float  #: [W]
+    face_max: float  #: hottest face temperature [K]
+    face_mean: float  #: mean face temperature [K]
+    hottest_at: tuple[float, float]  #: (x, y) of the hottest cell centre [m]
+    grid_uncertainty: float  #: of face_max [K] (nan when not estimated)
+    mean_uncertainty: float = math.nan  #: of face_mean [K], the same estimate (nan when not estimated)
+
+
+@dataclass(frozen=True)
+class FieldResult:
+    """The solved field.  Temperatures in kelvin, positions in metres (axes as in :mod:`fieldgrid`)."""
+
+    sources: tuple[SourceField, ...]
+    coupling: np.ndarray  #: (N, N) [K/W]: mean face rise of source i per watt of source j (interface on the diagonal)
+    face_x: np.ndarray  #: (nx,) cell centres along the flow
+    face_y: np.ndarray  #: (ny,) cell centres across
+    face: np.ndarray  #: (nx, ny) mounting-face temperature, plate side of any interface
+    bulk_x: np.ndarray  #: (nx + 1,) x edges where the bulk temperatures sit (empty for UniformBack)
+    bulk: np.ndarray  #: (channels, nx + 1) coolant bulk temperature (inlet first)
+    channel_heat: np.ndarray  #: (channels,) heat into each channel's coolant [W], m cp (T_out - T_in)
+    heat_to_coolant: float  #: [W]
+    load: float  #: total source load [W]
+    reference: float  #: inlet (or fixed fluid) temperature [K]
+    hottest: float  #: hottest device-side face temperature over all sources [K]
+    grid_uncertainty: float  #: of ``hottest`` [K], Richardson / grid convergence index (nan when not estimated)
+    cells: int  #: solid cells (fluid nodes not counted)
+    unknowns: int  #: solid cells + coolant nodes
+    iterations: int  #: Krylov iterations over all right-hand sides (0 with the direct factorisation)
+    method: str  #: "direct" or "gmres"
+    level: int
+    coarse_hottest: float = field(default=math.nan)  #: hottest at the level below [K]
+
+    @property
+    def thermal_resistance(self) -> float:
+        """(hottest face - inlet) / total load [K/W]."""
+        return (self.hottest - self.reference) / self.load
+
+    def face_at(self, x, y):
+        """Mounting-face temperature (plate side) at (x, y) [m], bilinear between cell centres [K]."""
+        fx, fy = self.face_x, self.face_y
+        i = int(np.clip(np.searchsorted(fx, x) - 1, 0, fx.size - 2))
+        j = int(np.clip(np.searchsorted(fy, y) - 1, 0, fy.size - 2))
+        tx = float(np.clip((x - fx[i]) / (fx[i + 1] - fx[i]), 0.0, 1.0))
+        ty = float(np.clip((y - fy[j]) / (fy[j + 1] - fy[j]), 0.0, 1.0))
+        F = self.face
+        return float((1 - tx) * (1 - ty) * F[i, j] + tx * (1 - ty) * F[i + 1, j]
+                     + (1 - tx) * ty * F[i, j + 1] + tx * ty * F[i + 1, j + 1])
+
+
+# ------------------------------------------------------------------------------------------ input checks
+
+def _check(plate: FieldPlate, sources, cooling):
+    for key in ("length", "width", "base", "conductivity"):
+        v = getattr(plate, key)
+        if not (math.isfinite(v) and v > 0):
+            raise DesignError(f"[plate] {key}", f"must be a positive number, got {v!r}")
+    if not sources:
+        raise DesignError("[source]", "the field needs at least one source")
+    names = [s.name for s in sources]
+    if len(set(names)) != len(names):
+        raise DesignError("[source] name", "every source needs its own name")
+    eps = 1e-12
+    for s in sources:
+        f = f"[source] {s.name}"
+        if not (math.isfinite(s.load) and s.load >= 0):
+            raise DesignError(f"{f} load", f"must be zero or positive, got {s.load!r}")
+        if not all(math.isfinite(v) and v > 0 for v in s.size):
+            raise DesignError(f"{f} size", "both sides must be positive")
+        if not (math.isfinite(s.interface) and s.interface >= 0):
+            raise DesignError(f"{f} interface", "must be zero or positive")
+        (x, y), (c, d) = s.at, s.size
+        if x - c / 2 < -eps or x + c / 2 > plate.length + eps or abs(y) + d / 2 > plate.width / 2 + eps:
+            raise DesignError(f"{f} at", "the source leaves the plate's mounting face")
+    for i, a in enumerate(sources):
+        for b in sources[i + 1:]:
+            ox = min(a.at[0] + a.size[0] / 2, b.at[0] + b.size[0] / 2) - max(a.at[0] - a.size[0] / 2,
+                                                                              b.at[0] - b.size[0] / 2)
+            oy = min(a.at[1] + a.size[1] / 2, b.at[1] + b.size[1] / 2) - max(a.at[1] - a.size[1] / 2,
+                                                                              b.at[1] - b.size[1] / 2)
+            if ox > eps and oy > eps:
+                raise DesignError(f"[source] {a.name} at", f"overlaps source {b.name!r}")
+    if sum(s.load for s in sources) <= 0:
+        raise DesignError("[source] load", "the sources carry no heat")
+    if isinstance(cooling, ChannelCooling):
+        for key in ("width", "depth", "mass_flow", "cp"):
+            v = getattr(cooling, key)
+            if not (math.isfinite(v) and v > 0):
+                raise DesignError(f"[passage] {key}", f"must be a positive number, got {v!r}")
+        if cooling.count < 1 or cooling.count * cooling.width >= plate.width:
+            raise DesignError("[passage] count", "the channels do not fit across the plate")
+        if not (cooling.lid >= 0):
+            raise DesignError("[passage] lid", "must be zero or positive")
+    elif isinstance(cooling, UniformBack):
+        if not (math.isfinite(cooling.h) and cooling.h > 0):
+            raise DesignError("[passage] h", "must be a positive number")
+    else:
+        raise TypeError("cooling must be ChannelCooling or UniformBack")
+
+
+# ------------------------------------------------------------------------------------------ assembly
+
+_GAUSS = (0.5 - math.sqrt(15) / 10, 0.5, 0.5 + math.sqrt(15) / 10), (5 / 18, 8 / 18, 5 / 18)
+
+
+def _cell_mean(h: Coefficient, xe: np.ndarray) -> np.ndarray:
+    """Mean of h over each x cell (3-point Gauss-Legendre; the ends, where entry h is singular, are never sampled)."""
+    if callable(h):
+        lo, dx = xe[:-1], np.diff(xe)
+        out = sum(w * np.asarray(h(lo + p * dx), float) for p, w in zip(*_GAUSS))
+    else:
+        out = np.full(xe.size - 1, float(h))
+    if not np.all(np.isfinite(out)) or np.any(out <= 0):
+        raise DesignError("[coolant] h", "the heat transfer coefficient must be positive and finite along the flow")
+    return out
+
+
+@dataclass
+class _System:
+    grid: Grid
+    matrix: object  # scipy.sparse csc
+    idx: np.ndarray  # (nx, ny, nz) solid-cell number or -1
+    n_solid: int
+    n_channels: int
+    mcp: np.ndarray  # per channel [W/K]
+    wet: tuple  # (solid index, G) of faces to a fixed fluid (UniformBack)
+
+
+def _assemble(grid: Grid, k: float, cooling) -> _System:
+    from scipy.sparse import coo_matrix
+
+    nx, ny, nz = grid.shape
+    solid = grid.solid()
+    ns = int(solid.sum())
+    idx = -np.ones(solid.shape, np.int64)
+    idx[solid] = np.arange(ns)
+    dx, dy, dz = grid.dx, grid.dy, grid.dz
+    widths = (dx[:, None, None], dy[None, :, None], dz[None, None, :])
+    rows, cols, vals = [], [], []
+    diag = np.zeros(ns)
+    for ax in range(3):
+        lo, hi = [slice(None)] * 3, [slice(None)] * 3
+        lo[ax], hi[ax] = slice(0, -1), slice(1, None)
+        p, q = idx[tuple(lo)], idx[tuple(hi)]
+        o1, o2 = (widths[i] for i in range(3) if i != ax)
+        G = np.broadcast_to(k * o1 * o2 / (0.5 * (widths[ax][tuple(lo)] + widths[ax][tuple(hi)])), p.shape)
+        both = (p >= 0) & (q >= 0)
+        p, q, G = p[both], q[both], G[both]
+        rows += [p, q]
+        cols += [q, p]
+        vals += [-G, -G]
+        np.add.at(diag, p, G)
+        np.add.at(diag, q, G)
+
+    if isinstance(cooling, UniformBack):
+        nb = int(np.sum(grid.layer == BASE))
+        s = idx[:, :, nb - 1].ravel()
+        G = (np.outer(dx, dy) / (dz[nb - 1] / (2 * k) + 1.0 / cooling.h)).ravel()
+        np.add.at(diag, s, G)
+        rows.append(np.arange(ns))
+        cols.append(np.arange(ns))
+        vals.append(diag)
+        n = ns
+        M = coo_matrix((np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n))
+        return _System(grid, M.tocsc(), idx, ns, 0, np.zeros(0), (s, G))
+
+    nc = cooling.count
+    hs = cooling.h if isinstance(cooling.h, (list, tuple)) else [cooling.h] * nc
+    if len(hs) != nc:
+        raise DesignError("[coolant] h", f"one coefficient per channel: {nc} channels, {len(hs)} given")
+    H = np.array([_cell_mean(h, grid.xe) for h in hs])  # (nc, nx)
+    ch = grid.channel_of_y
+    faces_s, faces_c, faces_i, faces_G = [], [], [], []  # solid cell, channel, x cell, conductance / h-free area
+
+    def add(s_idx, c_idx, i_idx, area, dist):
+        h = H[c_idx, i_idx]
+        faces_s.append(s_idx.ravel())
+        faces_c.append(c_idx.ravel())
+        faces_i.append(i_idx.ravel())
+        faces_G.append((area / (dist / k + 1.0 / h)).ravel())
+
+    I = np.arange(nx)
+    z_base = np.flatnonzero(grid.layer == BASE)
+    z_chan = np.flatnonzero(grid.layer == CHANNEL_LAYER)
+    z_lid = np.flatnonzero(grid.layer == LID)
+    for j in np.flatnonzero(ch >= 0):
+        c = np.full(nx, ch[j])
+        add(idx[:, j, z_base[-1]], c, I, dx * dy[j], dz[z_base[-1]] / 2)  # channel floor
+        if z_lid.size:
+            add(idx[:, j, z_lid[0]], c, I, dx * dy[j], dz[z_lid[0]] / 2)  # channel roof
+    for j in np.flatnonzero(ch < 0):
+        for jn in (j - 1, j + 1):
+            if 0 <= jn < ny and ch[jn] >= 0:
+                ii, kk = np.meshgrid(I, z_chan, indexing="ij")
+                add(idx[ii, j, kk], np.full(ii.shape, ch[jn]), ii, np.outer(dx, dz[z_chan]), dy[j] / 2)
+    fs, fc, fi, fG = (np.concatenate(v) for v in (faces_s, faces_c, faces_i, faces_G))
+    assert np.all(fs >= 0)
+
+    mcp = np.full(nc, cooling.mass_flow * cooling.cp / nc)
+    node = ns + fc * nx + fi  # outlet node of the face's segment
+    has_in = fi > 0
+    # solid rows: + G T_s - G/2 T_out - G/2 T_in(segment)
+    np.add.at(diag, fs, fG)
+    rows += [fs, fs[has_in]]
+    cols += [node, node[has_in] - 1]
+    vals += [-0.5 * fG, -0.5 * fG[has_in]]
+    # fluid rows: m cp (T_i - T_(i-1)) - sum G (T_s - (T_(i-1) + T_i)/2) = 0
+    nf = nc * nx
+    fdiag = np.repeat(mcp, nx).astype(float)
+    np.add.at(fdiag, node - ns, 0.5 * fG)
+    seg = np.arange(nf)
+    upstream = seg % nx > 0
+    up_val = np.repeat(-mcp, nx)[upstream].astype(float)
+    sum_half = np.zeros(nf)
+    np.add.at(sum_half, node - ns, 0.5 * fG)
+    rows += [node, ns + seg[upstream], ns + seg, ns + seg[upstream]]
+    cols += [fs, ns + seg[upstream] - 1, ns + seg, ns + seg[upstream] - 1]
+    vals += [-fG, up_val, fdiag, sum_half[upstream]]
+    rows.append(np.arange(ns))
+    cols.append(np.arange(ns))
+    vals.append(diag)
+    n = ns + nf
+    M = coo_matrix((np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=(n, n))
+    return _System(grid, M.tocsc(), idx, ns, nc, mcp, ())
+
+
+def _source_columns(grid: Grid, system: _System, sources) -> tuple[np.ndarray, np.ndarray]:
+    """Right-hand sides for 1 W on each source (n, N) and each source's flux per watt on the top cells (nx, ny, N)."""
+    xe, ye = grid.xe, grid.ye
+    top = system.idx[:, :, 0]
+    n = system.matrix.shape[0]
+    B = np.zeros((n, len(sources)))
+    flux = np.zeros(top.shape + (len(sources),))
+    for m, s in enumerate(sources):
+        (xc, yc), (c, d) = s.at, s.size
+        ox = np.clip(np.minimum(xe[1:], xc + c / 2) - np.maximum(xe[:-1], xc - c / 2), 0, None)
+        oy = np.clip(np.minimum(ye[1:], yc + d / 2) - np.maximum(ye[:-1], yc - d / 2), 0, None)
+        q = np.outer(ox, oy) / (c * d)  # W per watt of source in each top cell
+        B[top.ravel(), m] = q.ravel()
+        flux[:, :, m] = q / np.outer(grid.dx, grid.dy)
+    return B, flux
+
+
+def _linear_solve(M, B, method):
+    """Solve M X = B for every column; returns (X, Krylov iterations)."""
+    if method == "direct":
+        from scipy.sparse.linalg import splu
+
+        lu = splu(M, permc_spec="MMD_AT_PLUS_A")
+        return lu.solve(B), 0
+    if method == "gmres":
+        from scipy.sparse.linalg import LinearOperator, gmres, spilu
+
+        ilu = spilu(M, drop_tol=1e-4, fill_factor=10)
+        P = LinearOperator(M.shape, ilu.solve)
+        X = np.zeros_like(B)
+        total = 0
+        for m in range(B.shape[1]):
+            count = [0]
+
+            def tick(_, count=count):
+                count[0] += 1
+
+            x, info = gmres(M, B[:, m], M=P, rtol=GMRES_RTOL, atol=0.0, restart=50, maxiter=200,
+                            callback=tick, callback_type="pr_norm")
+            if info != 0:
+                from coldplate.design.errors import SolveError
+
+                raise SolveError(f"the field's GMRES did not converge ({count[0]} iterations)")
+            X[:, m] = x
+            total += count[0]
+        return X, total
+    raise ValueError(f"unknown method {method!r}: 'direct' or 'gmres'")
+
+
+@dataclass(frozen=True)
+class _Level:
+    grid: Grid
+    face_unit: np.ndarray  # (nx, ny, N) face rise per watt of each source
+    masks: np.ndarray  # (nx, ny, N) bool: cells under each source
+    weights: np.ndarray  # (nx, ny, N) area weights of each source's cells (sum 1)
+    fluid_unit: np.ndarray  # (nc, nx, N) outlet-node rises per watt
+    wet_unit: np.ndarray  # (N,) heat to a fixed fluid per watt (UniformBack)
+    cells: int
+    unknowns: int
+    iterations: int
+
+
+def _solve_level(plate, sources, cooling, rules, level, method) -> _Level:
+    channels = None
+    if isinstance(cooling, ChannelCooling):
+        channels = (cooling.count, cooling.width, cooling.depth, cooling.lid)
+    grid = build_grid(plate.length, plate.width, plate.base,
+                      [(s.at[0], s.at[1], s.size[0], s.size[1]) for s in sources], channels, rules, level)
+    system = _assemble(grid, plate.conductivity, cooling)
+    B, flux = _source_columns(grid, system, sources)
+    X, iterations = _linear_solve(system.matrix, B, method)
+    top = system.idx[:, :, 0]
+    face = X[top] + flux * grid.dz[0] / (2 * plate.conductivity)
+    area = np.outer(grid.dx, grid.dy)[:, :, None]
+    # each cell's share of a source's watt (an exact partition: the grid has an edge at every source edge, to
+    # round-off); the source's cells for its hottest point are those it covers at least half of
+    weights = flux * area
+    masks = flux * np.asarray([s.area for s in sources]) > 0.5
+    nx = grid.shape[0]
+    fluid = X[system.n_solid:].reshape(system.n_channels, nx, -1) if system.n_channels else np.zeros((0, nx, len(sources)))
+    wet = np.zeros(len(sources))
+    if system.wet:
+        s, G = system.wet
+        wet = G @ X[s]
+    return _Level(grid, face, masks, weights, fluid, wet, system.n_solid, system.matrix.shape[0], iterations)
+
+
+def _source_values(lv: _Level, sources, loads):
+    """Per source: (face max rise, mean rise, position) on the device side; the coupling matrix."""
+    face = lv.face_unit @ loads
+    N = len(sources)
+    coupling = np.einsum("xyi,xyj->ij", lv.weights, lv.face_unit)
+    for i, s in enumerate(sources):
+        coupling[i, i] += s.interface / s.area
+    out = []
+    xc, yc = lv.grid.xc, lv.grid.yc
+    for i, s in enumerate(sources):
+        rise = face + loads[i] / s.area * s.interface
+        masked = np.where(lv.masks[:, :, i], rise, -np.inf)
+        a, b = np.unravel_index(int(np.argmax(masked)), masked.shape)
+        mean = float((lv.weights[:, :, i] * rise).sum())
+        out.append((float(masked[a, b]), mean, (float(xc[a]), float(yc[b]))))
+    return face, out, coupling
+
+
+def _read_only(a):
+    a = np.array(a, dtype=float)
+    a.flags.writeable = False
+    return a
+
+
+def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, level: int = DEFAULT_LEVEL,
+                rules: GridRules = GridRules(), method: str = "direct", uncertainty: bool = True) -> FieldResult:
+    """Solve the plate's field for ``sources`` with ``cooling`` (:class:`ChannelCooling` or :class:`UniformBack`).
+
+    ``level``: grid level (:func:`coldplate.plate.fieldgrid.build_grid`); ``uncertainty``: also solve the level
+    below and report the grid convergence index (needs level >= 1).  Bad input raises
+    :class:`~coldplate.design.errors.DesignError` naming the field; nothing is solved then.
+    """
+    sources = tuple(sources)
+    _check(plate, sources, cooling)
+    loads = np.array([s.load for s in sources], float)
+    lv = _solve_level(plate, sources, cooling, rules, level, method)
+    face, values, coupling = _source_values(lv, sources, loads)
+    ref = cooling.inlet if isinstance(cooling, ChannelCooling) else cooling.fluid
+    hottest = max(v[0] for v in values)
+    U = np.full(len(sources), math.nan)
+    U_mean = np.full(len(sources), math.nan)
+    U_hot = coarse_hot = math.nan
+    if uncertainty and level >= 1:
+        lc = _solve_level(plate, sources, cooling, rules, level - 1, method)
+        _, cvals, _ = _source_values(lc, sources, loads)
+        factor = GCI_SAFETY / (2.0**GRID_ORDER - 1.0)
+        U = np.array([factor * abs(f[0] - c[0]) for f, c in zip(values, cvals)])
+        U_mean = np.array([factor * abs(f[1] - c[1]) for f, c in zip(values, cvals)])
+        coarse_hot = max(c[0] for c in cvals)
+        U_hot = factor * abs(hottest - coarse_hot)
+        coarse_hot += ref
+    grid = lv.grid
+    if lv.fluid_unit.shape[0]:
+        rise = lv.fluid_unit @ loads  # (nc, nx) outlet nodes
+        bulk = ref + np.concatenate((np.zeros((rise.shape[0], 1)), rise), axis=1)
+        mcp = cooling.mass_flow * cooling.cp / cooling.count
+        channel_heat = mcp * rise[:, -1]
+        bulk_x = grid.xe.copy()
+    else:
+        bulk, bulk_x, channel_heat = np.zeros((0, 0)), np.zeros(0), np.zeros(0)
+    heat = float(channel_heat.sum()) if channel_heat.size else float(lv.wet_unit @ loads)
+    coupling, face, bulk, bulk_x, channel_heat = (_read_only(a) for a in (coupling, ref + face, bulk, bulk_x,
+                                                                           channel_heat))
+    return FieldResult(
+        sources=tuple(SourceField(s.name, float(s.load), ref + v[0], ref + v[1], v[2], float(u), float(um))
+                      for s, v, u, um in zip(sources, values, U, U_mean)),
+        coupling=coupling, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
+        bulk_x=bulk_x, bulk=bulk, channel_heat=channel_heat, heat_to_coolant=heat,
+        load=float(loads.sum()), reference=float(ref), hottest=ref + hottest, grid_uncertainty=float(U_hot),
+        cells=lv.cells, unknowns=lv.unknowns, iterations=lv.iterations, method=method, level=int(level),
+        coarse_hottest=float(coarse_hot),
+    )
