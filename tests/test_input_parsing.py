@@ -268,7 +268,7 @@ def test_an_empty_key_is_named(tmp_path, capsys):
     text = toml_text(BASE).replace("[passage]\n", '[passage]\n"" = 1\n', 1)
     refused(tmp_path, capsys, text, '[passage] "":')
     text = '"" = 1\n' + toml_text(BASE)
-    refused(tmp_path, capsys, text, '"":')
+    refused(tmp_path, capsys, text, 'top-level key "":')
 
 
 def test_a_byte_order_mark_is_accepted(tmp_path, capsys):

@@ -246,7 +246,7 @@ def design_from_dict(data: dict) -> Design:
     if unknown:
         key = unknown[0]
         if key == "":
-            raise DesignError('""', "an empty key (\"\" = ...) is not a key or table; remove it or name it")
+            raise DesignError('top-level key ""', "an empty key (\"\" = ...) is not a key or table; remove it or name it")
         order = nearest(key, known)
         mean = f"; did you mean `{order[0]}`?" if difflib.get_close_matches(key, order, 1, 0.6) else ""
         raise DesignError(key, f"unknown top-level key or table `{key}`{mean} (known: {', '.join(order)})")
