@@ -272,20 +272,33 @@ def base_axial_perturbation(spacing, k_t, flux, r_local, r_mean, x_first=False):
         for i in range(n - 2, -1, -1):
             dp_[i] -= cp_[i] * dp_[i + 1]
         return np.array(dp_)
-    # many plates: sweep along x with x as the leading, contiguous axis (rows of candidates)
+    # many plates: sweep along x with x as the leading, contiguous axis (rows of candidates); the same
+    # recurrences as above, written into preallocated rows (1/den once per row, no temporaries per step)
     if not x_first:
         c = np.ascontiguousarray(np.moveaxis(c, -1, 0))
         rhs = np.ascontiguousarray(np.moveaxis(rhs, -1, 0))
     cp = np.empty_like(c)
-    dp = np.empty_like(c)
-    den = 1.0 + 2.0 * c[0]
-    cp[0] = -2.0 * c[0] / den  # mirror node δ[-1] = δ[1]
-    dp[0] = rhs[0] / den
+    dp = rhs  # overwritten in place: the forward sweep's d', then the solution
+    diag = c * 2.0
+    diag += 1.0
+    den = np.empty_like(c[0])
+    tmp = np.empty_like(c[0])
+    np.divide(1.0, diag[0], out=den)
+    np.multiply(c[0], -2.0, out=cp[0])  # mirror node δ[-1] = δ[1]
+    cp[0] *= den
+    dp[0] *= den
     for i in range(1, n):
-        lo = 2.0 * c[i] if i == n - 1 else c[i]  # mirror node δ[n] = δ[n-2]
-        den = 1.0 + 2.0 * c[i] + lo * cp[i - 1]
-        cp[i] = -c[i] / den
-        dp[i] = (rhs[i] + lo * dp[i - 1]) / den
+        ci = c[i]
+        lo = ci * 2.0 if i == n - 1 else ci  # mirror node δ[n] = δ[n-2]
+        np.multiply(lo, cp[i - 1], out=den)
+        den += diag[i]
+        np.divide(1.0, den, out=den)
+        np.multiply(ci, den, out=cp[i])
+        np.negative(cp[i], out=cp[i])
+        np.multiply(lo, dp[i - 1], out=tmp)
+        dp[i] += tmp
+        dp[i] *= den
     for i in range(n - 2, -1, -1):
-        dp[i] -= cp[i] * dp[i + 1]
+        np.multiply(cp[i], dp[i + 1], out=tmp)
+        dp[i] -= tmp
     return _out(dp if x_first else np.moveaxis(dp, 0, -1))

@@ -168,8 +168,7 @@ class Evaluator:
                 _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), e(L), e(wall), d.plate.conductivity,
                                                            h_x)
                 r_x[rows - a] = (self.A_cool / (h_x * eff_x))[:, 0]
-            for b, t in enumerate(base):
-                R_plate[blk, b] = self.plate.rise(float(t), h_eff[blk, 0, :], st.s[:, 0, :], r_x)
+            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], st.s[:, 0, :], r_x), -1, 1)
         dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
         for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
