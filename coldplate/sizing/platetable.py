@@ -52,6 +52,7 @@ class PlateTable:
         t = (self.x - self.xg[self._left]) / (self.xg[self._left + 1] - self.xg[self._left])
         self._t = t[:, None]
         self._1mt = 1.0 - self._t
+        self._between = np.flatnonzero(t != 0.0)  # search points off the grid
         self.n = int(nodes_per_decade)
         self._nodes: dict[tuple[float, bool, int], tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
         self._cubics: dict[tuple[float, bool, int], np.ndarray] = {}
@@ -149,9 +150,10 @@ class PlateTable:
                     FGq[:, c:c + step] = tb @ weights[:, c:c + step]
                 F, G, q = FGq[:P], FGq[P:2 * P], FGq[2 * P:]
                 delta = base_axial_perturbation(self.spacing, self.k * t, q, rT, rm, x_first=True)
-                dx = delta[self._left]
-                dx *= self._1mt
-                dx += self._t * delta[self._left + 1]
+                dx = delta[self._left]  # linear between grid points (np.interp in the check)
+                if self._between.size:
+                    between = self._between
+                    dx[between] = self._1mt[between] * dx[between] + self._t[between] * delta[self._left[between] + 1]
                 G += one_d
                 rise = local_rise(G, dx, out=G)
                 F *= sb
