@@ -66,6 +66,8 @@ def fin_efficiency_straight(m, height):
     """
     mL = np.asarray(m, dtype=float) * np.asarray(height, dtype=float)
     small = np.abs(mL) < 1e-4
+    if not small.any():  # the usual case, and the sizing search's arrays: the series branch is not needed
+        return _out(np.tanh(mL) / mL)
     safe = np.where(small, 1.0, mL)
     return _out(np.where(small, 1.0 - mL**2 / 3.0, np.tanh(safe) / safe))
 
