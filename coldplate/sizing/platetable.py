@@ -47,15 +47,19 @@ class PlateTable:
         self.x = march_points(self.a, self.c, self.segments)  # the hottest-point search
         self.xg = march_grid(self.a, self.segments)  # the local back side and the base's axial change
         self.spacing = float(self.xg[1] - self.xg[0])
-        # linear interpolation from the grid to the search points (np.interp in the check): grid rows i, i + 1
-        self._left = np.clip(np.searchsorted(self.xg, self.x, side="right") - 1, 0, self.xg.size - 2)
-        t = (self.x - self.xg[self._left]) / (self.xg[self._left + 1] - self.xg[self._left])
+        # the tables hold the search points reordered, the grid's points first (every grid point is a search
+        # point), then the others, each linear between grid rows i, i + 1 (np.interp in the check); the
+        # hottest point is a maximum over the points, so their order does not matter
+        on = np.searchsorted(self.x, self.xg)
+        assert np.array_equal(self.x[on], self.xg)
+        off = np.setdiff1d(np.arange(self.x.size), on)
+        self._order = np.concatenate([on, off])
+        self._left = np.clip(np.searchsorted(self.xg, self.x[off], side="right") - 1, 0, self.xg.size - 2)
+        t = (self.x[off] - self.xg[self._left]) / (self.xg[self._left + 1] - self.xg[self._left])
         self._t = t[:, None]
         self._1mt = 1.0 - self._t
-        self._between = np.flatnonzero(t != 0.0)  # search points off the grid
         self.n = int(nodes_per_decade)
         self._nodes: dict[tuple[float, bool, int], tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
-        self._cubics: dict[tuple[float, bool, int], np.ndarray] = {}
         self.series_evaluations = 0
 
     @classmethod
@@ -78,6 +82,7 @@ class PlateTable:
             s = spreading_MCY(self.a, self.b, self.c, self.d, t, self.k, h)
             F = np.asarray(s.absorbed_fraction(self.x)) if single_pass else np.ones_like(self.x)
             G = np.asarray(s.top_rise_centreline(self.x)) - 1.0 / (h * self.area)
+            F, G = F[self._order], G[self._order]  # the grid's points first (see __init__)
             q = np.asarray(s.cooled_flux_centreline(self.xg))
             got = self._nodes[key] = (F, G, q)
             self.series_evaluations += 1
@@ -150,12 +155,15 @@ class PlateTable:
                     FGq[:, c:c + step] = tb @ weights[:, c:c + step]
                 F, G, q = FGq[:P], FGq[P:2 * P], FGq[2 * P:]
                 delta = base_axial_perturbation(self.spacing, self.k * t, q, rT, rm, x_first=True)
-                dx = delta[self._left]  # linear between grid points (np.interp in the check)
-                if self._between.size:
-                    between = self._between
-                    dx[between] = self._1mt[between] * dx[between] + self._t[between] * delta[self._left[between] + 1]
                 G += one_d
-                rise = local_rise(G, dx, out=G)
+                on, off = G[:Pg], G[Pg:]
+                local_rise(on, delta, out=on)  # the search points on the grid: the grid's own values
+                if off.size:  # the others: linear between grid points
+                    dx = delta[self._left]
+                    dx *= self._1mt
+                    dx += self._t * delta[self._left + 1]
+                    local_rise(off, dx, out=off)
+                rise = G
                 F *= sb
                 F += rise
                 out[sel, b] = F.max(axis=0)
