@@ -17,6 +17,13 @@ F_i, G_i − 1/(h a b) and q_i in log h with a cubic through the four nodes arou
 one-dimensional part 1/(h a b) is added back exactly.  The same functions and the same march points are used
 as in the check, so there is one formula for each; the only difference is the interpolation in h, whose error
 the sizing tests bound (≤ 0.02 % of R_plate with the default N = 16 nodes a decade).
+
+Speed (:meth:`PlateTable.rises`): the candidates are sorted by h once for all base thicknesses, and handled in
+blocks of :data:`BLOCK` with the march points on the leading axis (the sweeps of the axial change run along it,
+row by row, over the whole block).  The cubic interpolation is a matrix product of the nodes the block needs
+with sparse weights, split into products of at most :data:`SMALL_PRODUCT` multiply-adds: OpenBLAS runs larger
+ones on threads, which on the shared two-core machine was measured several times slower than one thread (no
+thread setting is changed).  Every other step writes into the block's arrays in place.
 """
 from __future__ import annotations
 
