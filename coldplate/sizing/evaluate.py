@@ -28,7 +28,7 @@ inner diameter and passes for a tube), base thicknesses (Nt) and flows (Nq); the
 the local coefficient and back side on G × Nq × grid points, the spreading series per base thickness and
 h_eff node); what is left per candidate is the interpolation and the base's axial change at each march point,
 done by :meth:`PlateTable.rises` for all bases of a block of geometries at once (about half a million channel-plate
-candidates a second of processor time, 0.3 to 0.4 million a second of wall time on the shared 2-core
+candidates a second of processor time, 0.3 to 0.5 million a second of wall time on the shared 2-core
 development machine; ``benchmarks/sizing.py``).  Tubes loop over geometries and base thicknesses in Python
 (tube searches are small) and are vectorised over flows.
 """
