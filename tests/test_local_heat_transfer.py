@@ -299,3 +299,33 @@ def test_local_march_against_the_projects_3d_finite_volume_solve():
     assert march == pytest.approx(fv["R_max"], rel=0.02)
     # the mean coefficient alone reads far low against the same solve
     assert float(np.max(sp.top_rise_centreline(x))) < 0.8 * fv["R_max"]
+
+
+def test_base_axial_perturbation_for_many_plates_against_a_banded_solver():
+    # library: scipy.linalg.solve_banded on the same finite-difference system, written out in the test
+    # (c δ[i-1] - (1 + 2c) δ[i] + c δ[i+1] = -q (r - r_m), mirror nodes at both ends), for a block of plates
+    # each with its own local resistance, mean resistance and k t; the sizing evaluator's many-plates
+    # sweep (rows of candidates, both layouts) and the check's one-plate sweep must both give it
+
+    rng = np.random.default_rng(7)
+    n, plates, spacing = 41, 6, 1.5e-3
+    r = rng.uniform(0.6e-4, 2.0e-4, (plates, n))
+    q = rng.uniform(50.0, 400.0, (plates, n))
+    rm = rng.uniform(0.8e-4, 1.2e-4, plates)
+    kt = rng.uniform(0.05, 2.0, plates)
+    many = conduction.base_axial_perturbation(spacing, kt, q, r, rm)
+    many_x_first = conduction.base_axial_perturbation(spacing, kt, q.T.copy(), r.T.copy(), rm, x_first=True)
+    for p in range(plates):
+        c = kt[p] * r[p] / spacing**2
+        ab = np.zeros((3, n))
+        ab[1] = -(1.0 + 2.0 * c)
+        ab[0, 1:] = c[:-1]  # row i's δ[i+1] coefficient is c[i]
+        ab[2, :-1] = c[1:]  # row i's δ[i-1] coefficient is c[i]
+        ab[0, 1] = 2.0 * c[0]  # mirror node δ[-1] = δ[1]
+        ab[2, n - 2] = 2.0 * c[n - 1]  # mirror node δ[n] = δ[n-2]
+        want = solve_banded((1, 1), ab, -q[p] * (r[p] - rm[p]))
+        one = conduction.base_axial_perturbation(spacing, kt[p], q[p], r[p], rm[p])
+        scale = np.max(np.abs(want))
+        assert np.max(np.abs(one - want)) < 1e-12 * scale
+        assert np.max(np.abs(many[p] - want)) < 1e-12 * scale
+        assert np.max(np.abs(many_x_first[:, p] - want)) < 1e-12 * scale

@@ -66,6 +66,8 @@ def fin_efficiency_straight(m, height):
     """
     mL = np.asarray(m, dtype=float) * np.asarray(height, dtype=float)
     small = np.abs(mL) < 1e-4
+    if not small.any():  # the usual case, and the sizing search's arrays: the series branch is not needed
+        return _out(np.tanh(mL) / mL)
     safe = np.where(small, 1.0, mL)
     return _out(np.where(small, 1.0 - mL**2 / 3.0, np.tanh(safe) / safe))
 
@@ -257,10 +259,11 @@ def base_axial_perturbation(spacing, k_t, flux, r_local, r_mean, x_first=False):
     expand = (lambda v: v) if x_first else (lambda v: v[..., None])  # noqa: E731
     rm = expand(np.asarray(r_mean, dtype=float)) if np.ndim(r_mean) else float(r_mean)
     kt = expand(np.asarray(k_t, dtype=float)) if np.ndim(k_t) else float(k_t)
-    c = kt * r / spacing**2  # c δ[i-1] - (1 + 2c) δ[i] + c δ[i+1] = -q (r - r_m)
-    rhs = q * (r - rm)
     n = r.shape[0] if x_first else r.shape[-1]
-    if c.ndim == 1:  # one plate (the check): the same sweeps on Python floats, without numpy's per-element cost
+    if len(np.broadcast_shapes(r.shape, np.shape(kt), np.shape(rm))) == 1:
+        # one plate (the check): the same sweeps on Python floats, without numpy's per-element cost
+        c = kt * r / spacing**2  # c δ[i-1] - (1 + 2c) δ[i] + c δ[i+1] = -q (r - r_m)
+        rhs = q * (r - rm)
         cl, bl = c.tolist(), rhs.tolist()
         cp_, dp_ = [0.0] * n, [0.0] * n
         cp_[0], dp_[0] = -2.0 * cl[0] / (1.0 + 2.0 * cl[0]), bl[0] / (1.0 + 2.0 * cl[0])
@@ -272,20 +275,36 @@ def base_axial_perturbation(spacing, k_t, flux, r_local, r_mean, x_first=False):
         for i in range(n - 2, -1, -1):
             dp_[i] -= cp_[i] * dp_[i + 1]
         return np.array(dp_)
-    # many plates: sweep along x with x as the leading, contiguous axis (rows of candidates)
+    c = r * (kt / spacing**2) if np.ndim(kt) == 0 else kt * r / spacing**2
+    rhs = r - rm
+    rhs *= q
+    # many plates: sweep along x with x as the leading, contiguous axis (rows of candidates); the same
+    # recurrences as above, written into preallocated rows (1/den once per row, e = -c' kept positive, no
+    # temporaries per step)
     if not x_first:
         c = np.ascontiguousarray(np.moveaxis(c, -1, 0))
         rhs = np.ascontiguousarray(np.moveaxis(rhs, -1, 0))
-    cp = np.empty_like(c)
-    dp = np.empty_like(c)
-    den = 1.0 + 2.0 * c[0]
-    cp[0] = -2.0 * c[0] / den  # mirror node δ[-1] = δ[1]
-    dp[0] = rhs[0] / den
+    e = np.empty_like(c)  # e[i] = -c'[i] of the sweep above
+    dp = rhs  # overwritten in place: the forward sweep's d', then the solution
+    diag = c * 2.0
+    diag += 1.0
+    den = np.empty_like(c[0])
+    tmp = np.empty_like(c[0])
+    np.divide(1.0, diag[0], out=den)
+    np.multiply(c[0], 2.0, out=e[0])  # mirror node δ[-1] = δ[1]
+    e[0] *= den
+    dp[0] *= den
     for i in range(1, n):
-        lo = 2.0 * c[i] if i == n - 1 else c[i]  # mirror node δ[n] = δ[n-2]
-        den = 1.0 + 2.0 * c[i] + lo * cp[i - 1]
-        cp[i] = -c[i] / den
-        dp[i] = (rhs[i] + lo * dp[i - 1]) / den
+        ci = c[i]
+        lo = ci * 2.0 if i == n - 1 else ci  # mirror node δ[n] = δ[n-2]
+        np.multiply(lo, e[i - 1], out=den)
+        np.subtract(diag[i], den, out=den)
+        np.divide(1.0, den, out=den)
+        np.multiply(ci, den, out=e[i])
+        np.multiply(lo, dp[i - 1], out=tmp)
+        dp[i] += tmp
+        dp[i] *= den
     for i in range(n - 2, -1, -1):
-        dp[i] -= cp[i] * dp[i + 1]
+        np.multiply(e[i], dp[i + 1], out=tmp)
+        dp[i] += tmp
     return _out(dp if x_first else np.moveaxis(dp, 0, -1))

@@ -241,12 +241,16 @@ def path_position(x, length: float, segments: int, geom) -> np.ndarray:
     return np.maximum(x, 0.5 * length / segments)
 
 
-def local_rise(top, delta):
+def local_rise(top, delta, out=None):
     """Top-face rise per watt above the local bulk water [K/W]: the spreading series' rise ``top`` with the mean
     back side plus the change ``delta`` that the local back side makes
     (:func:`coldplate.plate.conduction.base_axial_perturbation`).  Never below zero: the mounting face is never
-    reported cooler than the water under it.  Floats or numpy arrays (the sizing evaluator passes arrays)."""
-    return np.maximum(np.asarray(top) + np.asarray(delta), 0.0)
+    reported cooler than the water under it.  Floats or numpy arrays (the sizing evaluator passes arrays, and
+    ``out``, an array of the result's shape to write into, which may be ``top`` itself)."""
+    if out is None:
+        return np.maximum(np.asarray(top) + np.asarray(delta), 0.0)
+    np.add(top, delta, out=out)
+    return np.maximum(out, 0.0, out=out)
 
 
 def _check_outlet(T_out, T_boil, coolant, p):

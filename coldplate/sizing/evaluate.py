@@ -26,9 +26,11 @@ Candidates are given as axes that broadcast: geometry arrays of length G (count,
 inner diameter and passes for a tube), base thicknesses (Nt) and flows (Nq); the result arrays have shape
 (G, Nt, Nq).  Work that depends on fewer axes is done on fewer elements (friction and Nusselt on G × Nq,
 the local coefficient and back side on G × Nq × grid points, the spreading series per base thickness and
-h_eff node); what is left per candidate is the interpolation and the base's axial change at each march point
-(tens of thousands to a few hundred thousand candidates a second on the 2-core development machine).  Tubes loop over geometries and base thicknesses in Python (tube searches are small) and
-are vectorised over flows.
+h_eff node); what is left per candidate is the interpolation and the base's axial change at each march point,
+done by :meth:`PlateTable.rises` for all bases of a block of geometries at once (about half a million channel-plate
+candidates a second of processor time, 0.3 to 0.5 million a second of wall time on the shared 2-core
+development machine; ``benchmarks/sizing.py``).  Tubes loop over geometries and base thicknesses in Python
+(tube searches are small) and are vectorised over flows.
 """
 from __future__ import annotations
 
@@ -168,8 +170,7 @@ class Evaluator:
                 _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), e(L), e(wall), d.plate.conductivity,
                                                            h_x)
                 r_x[rows - a] = (self.A_cool / (h_x * eff_x))[:, 0]
-            for b, t in enumerate(base):
-                R_plate[blk, b] = self.plate.rise(float(t), h_eff[blk, 0, :], st.s[:, 0, :], r_x)
+            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], st.s[:, 0, :], r_x), -1, 1)
         dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
         for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
