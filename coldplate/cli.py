@@ -44,8 +44,26 @@ class Terminated(BaseException):
     """SIGTERM, raised like KeyboardInterrupt so every ``finally`` (temporary files) runs on the way out."""
 
 
+#: Stop signals received since main() took over.  A signal that lands inside a C extension's import comes out as
+#: that import's own error ("ImportError: initialization failed"), not as the exception the handler raised: the
+#: record lets main() still answer it as the stop it was.
+_received: list[int] = []
+
+
 def _raise_terminated(signum, frame):
+    _received.append(signum)
     raise Terminated()
+
+
+def _raise_interrupted(signum, frame):
+    _received.append(signum)
+    raise KeyboardInterrupt()
+
+
+def _stop_if_signalled() -> None:
+    """Re-raise a stop signal that some library turned into an error of its own on the way out."""
+    if _received:
+        raise (Terminated() if _received[0] == signal.SIGTERM else KeyboardInterrupt()) from None
 
 
 class _Parser(argparse.ArgumentParser):
@@ -168,8 +186,9 @@ def _curves(args, version) -> str:
 def main(argv=None) -> int:
     debug = bool(os.environ.get("COLDPLATE_DEBUG"))
     previous = {}
+    _received.clear()
     try:
-        previous = {signal.SIGINT: signal.signal(signal.SIGINT, signal.default_int_handler),
+        previous = {signal.SIGINT: signal.signal(signal.SIGINT, _raise_interrupted),
                     signal.SIGTERM: signal.signal(signal.SIGTERM, _raise_terminated)}
     except ValueError:  # not the main thread: signals stay as they are
         pass
@@ -230,12 +249,15 @@ def _run(argv, debug: bool) -> int:
 
                 text = render_text(result, __version__, units=args.units)
     except DesignError as exc:
+        _stop_if_signalled()
         print(f"coldplate: error: {one_line(exc)}", file=sys.stderr)
         return 2
     except ColdplateError as exc:
+        _stop_if_signalled()
         print(f"coldplate: cannot solve: {one_line(exc)}", file=sys.stderr)
         return 1
     except Exception as exc:  # an internal fault: one line unless debugging is asked for
+        _stop_if_signalled()
         if debug:
             raise
         print(f"coldplate: internal error ({type(exc).__name__}: {_first_line(exc)}); set COLDPLATE_DEBUG=1 "

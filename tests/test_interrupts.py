@@ -100,3 +100,23 @@ def test_a_killed_report_leaves_nothing_that_stops_the_next_run(tmp_path, name):
             assert again.returncode == 0, again.stderr
         assert _debris(tmp_path) == []
         assert (tmp_path / name).exists()
+
+
+@pytest.mark.parametrize("sig, word", [(signal.SIGTERM, "terminated"), (signal.SIGINT, "interrupted")])
+def test_a_stop_that_a_library_turns_into_its_own_error_is_still_a_stop(monkeypatch, capsys, sig, word):
+    # Seen in CI: SIGTERM landing inside a C extension's import came out as "ImportError: initialization failed"
+    # and was reported as an internal error with exit 1.  In process: the handler records the signal, the library
+    # raises its own error instead of the handler's exception; main() must still answer with the stop.
+    import coldplate.check
+    from coldplate import cli
+
+    def interrupted_import(path):
+        cli._received.append(sig)
+        raise ImportError("initialization failed")
+
+    monkeypatch.setattr(coldplate.check, "check_file", interrupted_import)
+    assert cli.main(["check", str(EXAMPLE / "reagent-block-channels.toml")]) == STATUS[sig]
+    err = capsys.readouterr().err
+    assert err == f"coldplate: {word}; nothing written\n"
+    monkeypatch.undo()
+    assert cli.main(["check", str(EXAMPLE / "no-such-file.toml")]) == 2  # the record is cleared for the next run
