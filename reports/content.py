@@ -10,7 +10,7 @@ from __future__ import annotations
 import dataclasses
 import hashlib
 import math
-from .display_units import DisplayUnits, annotate, exact_values, format_number
+from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .optional_sections import circuit_section, module_inputs, module_section, planning_section
 
 
@@ -51,7 +51,7 @@ def job_line(r, u: DisplayUnits) -> str:
     return (f"Carry {u.text('power', r.load)} from a {u.fmt('length', d.heat.footprint_length)} × "
             f"{u.text('length', d.heat.footprint_width)} footprint into the "
             f"{u.fmt('length', d.plate.length)} × {u.text('length', d.plate.width)} "
-            f"{d.plate.material or 'plate'} plate ({r.geometry.description}), cooled by "
+            f"{d.plate.material or 'plate'} plate ({passage_line(r.geometry, u)}), cooled by "
             f"{u.text('flow', r.V_dot)} of {d.coolant.label()} at {u.text('temperature', r.T_in)} "
             f"from {_SOURCE_WORDS.get(d.supply.source, d.supply.source)}, {where}.")
 

@@ -80,6 +80,14 @@ class DisplayUnits:
         return f"{self.fmt(kind, si, digits)} {self.label(kind)}"
 
 
+def passage_line(geometry, u: DisplayUnits) -> str:
+    """The passage's one-line description in the display system: its lengths formatted into the slots of its
+    template (SI keeps the plate solve's own line, in mm)."""
+    if u.system == "si" or not geometry.description_template:
+        return geometry.description
+    return geometry.description_template.format(*(u.text("length", x, 3) for x in geometry.description_lengths))
+
+
 def format_number(x: float, kind: str = "", digits: int = 4) -> str:
     """``digits`` significant figures in plain notation (0.0006798, 5465, 43,640: thousands separated from
     10**digits up); exponent notation only below 1e-4 and from 1e12 up, where plain figures stop being

@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import textwrap
 
-from .display_units import DisplayUnits, annotate, exact_values, format_number
+from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .module_report import module_text
 from .supply import supply_lines
 
@@ -62,7 +62,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
          f"{deg}  (room {t(d.room.temperature)} {deg}, {d.room.relative_humidity * 100:.0f} % RH)"),
     ]
     out = [f"{d.title}", "=" * min(len(d.title), WIDTH),
-           f"passage: {r.geometry.description}",
+           f"passage: {passage_line(r.geometry, u)}",
            f"coolant: {d.coolant.label()}; supply: {d.supply.source}", ""]
     out += _table(rows, "Result")
     out.append("")

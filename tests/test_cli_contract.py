@@ -112,11 +112,14 @@ def test_us_brackets_are_converted_from_the_exact_value(circuit_us):
     assert f"{abs(outlet) / PSI:.3f}" in text  # the table shows the same figure
 
 
-def test_us_plate_rating_is_rounded_sensibly_and_the_passage_stays_in_mm(circuit_us):
+def test_us_plate_rating_is_rounded_sensibly_and_the_passage_in_inches(circuit_us):
     text, doc = circuit_us
     assert "plate rated 100 psi" in text  # 6.9 bar = 690 000 Pa / 6894.757 = 100.08 psi
     assert "100.08" not in text
-    assert "passage: 10 channels 2.5 × 5 mm, 90 mm long" in text
+    # the passage line in the display system too: 2.5 mm, 5 mm and 90 mm in inches (1 in = 25.4 mm exactly,
+    # NIST SP 811), three significant figures; JSON keeps the SI line
+    assert "passage: 10 channels 0.0984 in × 0.197 in, 3.54 in long" in text
+    assert doc["passage"].startswith("10 channels 2.5 × 5 mm, 90 mm long")
 
 
 # ------------------------------------------------------------------ 15: small things users asked for

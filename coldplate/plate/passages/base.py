@@ -23,7 +23,7 @@ class Geometry:
     heated_length: float  #: length of one path in contact with the plate [m]
     heated: str  #: heated-wall arrangement for the laminar Nu table ("4", "3L", "3S", "1L"; see convection)
     roughness: float  #: absolute [m]
-    description: str  #: one line for reports
+    description: str  #: one line for reports, lengths in mm
     #: True when the coolant crosses the plate once along its length, so its local bulk temperature follows
     #: the heat absorbed up to x; False for a serpentine, where the solve takes the outlet temperature.
     single_pass: bool = True
@@ -31,6 +31,10 @@ class Geometry:
     #: plenums.  The plate model cools only the length between (the channels' conductance is smeared over the
     #: channel length, not over the plenums).
     cooled_offset: float = 0.0
+    #: The same line with its lengths as slots ``{0}``, ``{1}``, ...: a report in other units formats
+    #: ``description_lengths`` [m] into them (the counts and names are in the template as they are).
+    description_template: str = ""
+    description_lengths: tuple[float, ...] = ()
 
     @property
     def rel_roughness(self) -> float:

@@ -32,6 +32,8 @@ def geometry(passage, plate) -> Geometry:
         roughness=passage.roughness,
         description=f"open cavity {plate.length * 1e3:.4g} × {w * 1e3:.4g} × {hgt * 1e3:.3g} mm, "
                     f"ports {passage.port_diameter * 1e3:.3g} mm",
+        description_template="open cavity {0} × {1} × {2}, ports {3}",
+        description_lengths=(plate.length, w, hgt, passage.port_diameter),
     )
 
 

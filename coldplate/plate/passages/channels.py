@@ -54,6 +54,8 @@ def geometry(passage, plate) -> Geometry:
         roughness=passage.roughness,
         description=(f"{passage.count} channels {w * 1e3:.3g} × {d * 1e3:.3g} mm, {L * 1e3:.4g} mm long, "
                      f"walls {wall_thickness(passage, plate) * 1e3:.3g} mm"),
+        description_template=f"{passage.count} channels {{0}} × {{1}}, {{2}} long, walls {{3}}",
+        description_lengths=(w, d, L, wall_thickness(passage, plate)),
         cooled_offset=passage.plenum_length,
     )
 

@@ -46,6 +46,9 @@ def geometry(passage, plate) -> Geometry:
         roughness=passage.roughness,
         description=(f"{passage.material} tube {di * 1e3:.3g}/{passage.outer_diameter * 1e3:.3g} mm, "
                      f"{passage.passes} {'pass' if passage.passes == 1 else 'passes'}, {passage.bond} bond"),
+        description_template=(f"{passage.material} tube {{0}} / {{1}}, "
+                              f"{passage.passes} {'pass' if passage.passes == 1 else 'passes'}, {passage.bond} bond"),
+        description_lengths=(di, passage.outer_diameter),
         single_pass=passage.passes == 1,
     )
 
