@@ -13,8 +13,9 @@ discrete-element manifold analyses; the coefficient names are ours):
 
       dp_friction = f (dx / D_h) rho V |V| / 2          [Pa], V = F / A [m/s], F the segment's flow [m^3/s]
 
-  with f from :func:`hydraulics.friction.darcy_friction` for a fully developed rectangular duct (laminar Shah &
-  London f Re, turbulent Petukhov or Colebrook, the VDI blend between);
+  with f from :func:`hydraulics.friction.darcy_friction` for the rectangular header (laminar: Muzychka &
+  Yovanovich's apparent friction over the header's length by default, the Shah & London f Re when fully
+  developed; turbulent Petukhov or Colebrook; the VDI blend between);
 * at a take-off the axial momentum changes.  A momentum balance on the header (Bajura & Jones 1976, from
   memory) gives ``dp = -(2 - theta) rho V dV``, theta the ratio of the branch fluid's axial velocity to the
   header velocity.  Across one take-off, with V_port and V_far the header velocities on the port side and the far
@@ -137,7 +138,15 @@ def laminar_channel(width, depth, length, mu, rho, K_minor=0.0) -> LinearQuadrat
 class Manifold:
     """The network: ``inlet`` and ``outlet`` headers, the channels' positions across the plate (offsets from the
     centre line [m], increasing), one drop function per channel (``dp_channel(Q) -> Pa``, called at positive
-    flows; a single callable serves them all), the port offsets [m] and the momentum coefficients."""
+    flows; a single callable serves them all), the port offsets [m] and the momentum coefficients.
+
+    ``friction_length`` [m] is the length over which the headers' laminar friction is taken as developing
+    (Muzychka & Yovanovich's apparent friction in ``darcy_friction``): None, the default, takes the header's
+    whole length, as if the flow developed from the port along the header, which gives more friction than a
+    fully developed profile: always a higher port-to-port drop (the direction the project errs in) and, in a U
+    arrangement, a less even split; in a Z the extra friction can offset the momentum terms and even the split
+    out a little, so there the default is not guaranteed to err toward the starving channel.  ``math.inf``
+    gives fully developed friction, the usual discrete-manifold assumption."""
 
     inlet: Header
     outlet: Header
@@ -147,6 +156,7 @@ class Manifold:
     outlet_port: float = 0.0
     k_divide: float = K_DIVIDE
     k_combine: float = K_COMBINE
+    friction_length: float | None = None
 
     def __post_init__(self):
         y = np.asarray(self.positions, dtype=float)
@@ -166,6 +176,9 @@ class Manifold:
         for name in ("k_divide", "k_combine"):
             if not (math.isfinite(getattr(self, name)) and getattr(self, name) >= 0):
                 raise ValueError(f"{name} must be >= 0")
+        if self.friction_length is not None and not self.friction_length > 0:
+            raise ValueError(f"friction_length must be positive (math.inf: fully developed), not "
+                             f"{self.friction_length!r}")
 
     @property
     def arrangement(self) -> str:
@@ -192,6 +205,8 @@ class ManifoldResult:
     ``inlet_pressure`` the inlet header's pressure each channel sees, ``outlet_pressure`` the outlet header's;
     ``channel_drops`` each channel's drop at its flow; ``port_to_port`` the drop from inlet port to outlet port;
     ``inlet_header_drop`` / ``outlet_header_drop`` the largest pressure difference along each header;
+    ``header_reynolds`` the largest segment Reynolds number of the inlet and of the outlet header (for the
+    friction records' ranges);
     ``iterations`` Newton steps; ``residual`` the largest loop residual left [Pa]; ``methods`` the Validity
     records used (the header model and the friction correlations of the header segments)."""
 
@@ -205,6 +220,7 @@ class ManifoldResult:
     outlet_header_drop: float
     min_to_mean: float
     arrangement: str
+    header_reynolds: tuple[float, float]
     iterations: int
     residual: float
     methods: tuple = field(default=())
@@ -213,47 +229,38 @@ class ManifoldResult:
 class _HeaderLine:
     """One header as nodes (the channel take-offs and the port) and segments between them, precomputed."""
 
-    def __init__(self, header: Header, y: np.ndarray, port: float, k: float, sign: float, rho, mu):
-        self.header, self.k, self.sign, self.rho, self.mu = header, k, sign, rho, mu
-        nodes = np.union1d(y, [port])
-        self.nodes = nodes
-        self.channel_node = np.searchsorted(nodes, y)      # node index of each channel
-        self.port_node = int(np.searchsorted(nodes, port))
-        left = nodes[:-1]
-        self.dx = np.diff(nodes)
-        # channels at or left of each segment's left node: their flows sum to the flow leaving leftwards
-        self.upto = (y[None, :] <= left[:, None] + 0.0).astype(float)   # (segments, channels)
-        self.port_left = (port <= left).astype(float)                     # port at or left of the segment
+    def __init__(self, header: Header, y: np.ndarray, port: float, k: float, sign: float, rho, mu,
+                 friction_length):
+        self.k, self.sign, self.rho, self.mu = k, sign, rho, mu
+        self.nodes = np.union1d(y, [port])
+        self.channel_node = np.searchsorted(self.nodes, y)        # node index of each channel
+        self.port_node = int(np.searchsorted(self.nodes, port))
+        left = self.nodes[:-1]
+        self.dx = np.diff(self.nodes)
+        self.upto = (y[None, :] <= left[:, None]).astype(float)   # channels at or left of each segment
+        self.port_left = (port <= left).astype(float)             # the port at or left of each segment
         self.D_h, self.alpha, self.A = header.D_h, header.alpha, header.area
         self.rel_rough = header.roughness / self.D_h
+        self.L = header.length if friction_length is None else friction_length
 
     def segment_flows(self, Q, total):
         """Flow through each segment toward +y [m^3/s]; ``sign`` +1 for the dividing header, -1 combining."""
         return self.sign * (total * self.port_left - self.upto @ Q)
 
     def pressures(self, Q, total):
-        """Header pressure each channel sees, relative to the port [Pa]; and the friction methods used."""
-        F = self.segment_flows(Q, total)
-        V = F / self.A
+        """Header pressure each channel sees, relative to the port [Pa]; the friction records used; the
+        largest segment Reynolds number."""
+        V = self.segment_flows(Q, total) / self.A
         Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
-        fr = darcy_friction(Re, math.inf, self.D_h, self.alpha, "rectangle", self.rel_rough)
+        fr = darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel_rough)
         friction = np.asarray(fr.f) * self.dx / self.D_h * self.rho * V * np.abs(V) / 2.0  # drop toward +y
-        M = self.nodes.size
-        V_pad = np.concatenate(([0.0], V, [0.0]))          # V_pad[n] left of node n, V_pad[n + 1] right of it
-        p_far = np.zeros(M)
-        p_far[self.port_node] = 0.0
-        # march right from the port: far side of node n is its right segment
-        p = 0.0
-        for n in range(self.port_node + 1, M):
-            p -= friction[n - 1]
-            p += -self.k * self.rho * (V_pad[n + 1] ** 2 - V_pad[n] ** 2) / 2.0
-            p_far[n] = p
-        p = 0.0
-        for n in range(self.port_node - 1, -1, -1):
-            p += friction[n]
-            p += -self.k * self.rho * (V_pad[n] ** 2 - V_pad[n + 1] ** 2) / 2.0
-            p_far[n] = p
-        return p_far[self.channel_node], fr.methods
+        V2 = np.concatenate(([0.0], V, [0.0])) ** 2      # [n] left of node n, [n + 1] right of it
+        P = self.port_node
+        # right of the port the far side of node n is its right segment; left of it, its left segment
+        right = np.cumsum(-friction[P:] - self.k * self.rho * (V2[P + 2:] - V2[P + 1:-1]) / 2.0)
+        left = np.cumsum((friction[:P] - self.k * self.rho * (V2[:P] - V2[1:P + 1]) / 2.0)[::-1])[::-1]
+        p_far = np.concatenate((left, [0.0], right))
+        return p_far[self.channel_node], fr.methods, float(np.max(Re))
 
 
 def _drops(channels, Q):
@@ -268,19 +275,25 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
             raise ValueError(f"{name} must be positive and finite, not {value!r}")
     y = np.asarray(manifold.positions, dtype=float)
     n = y.size
-    inlet = _HeaderLine(manifold.inlet, y, manifold.inlet_port, manifold.k_divide, +1.0, rho, mu)
-    outlet = _HeaderLine(manifold.outlet, y, manifold.outlet_port, manifold.k_combine, -1.0, rho, mu)
+    fl = manifold.friction_length
+    inlet = _HeaderLine(manifold.inlet, y, manifold.inlet_port, manifold.k_divide, +1.0, rho, mu, fl)
+    outlet = _HeaderLine(manifold.outlet, y, manifold.outlet_port, manifold.k_combine, -1.0, rho, mu, fl)
     q_mean = total_flow / n
     p_scale = float(np.mean(np.abs(_drops(manifold.channels, np.full(n, q_mean)))))
     if not (math.isfinite(p_scale) and p_scale > 0):
         raise ManifoldError("the channels' drop at the mean flow is not a positive number")
 
-    def residual(x):
+    def headers(x):
+        """The loops' header part, inlet header - outlet header [p_scale], and the mass balance [-]."""
         Q, dP = x[:n] * q_mean, x[n] * p_scale
-        p_in, _ = inlet.pressures(Q, total_flow)
-        p_out, _ = outlet.pressures(Q, total_flow)
-        loops = (p_in - (p_out - dP) - _drops(manifold.channels, Q)) / p_scale
+        loops = (inlet.pressures(Q, total_flow)[0] - outlet.pressures(Q, total_flow)[0] + dP) / p_scale
         return np.concatenate((loops, [np.sum(x[:n]) - n]))
+
+    def channels(x):
+        return np.concatenate((_drops(manifold.channels, x[:n] * q_mean) / p_scale, [0.0]))
+
+    def residual(x):
+        return headers(x) - channels(x)
 
     x = np.concatenate((np.ones(n), [1.0]))
     r = residual(x)
@@ -289,39 +302,43 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         if iterations >= MAX_ITERATIONS:
             raise ManifoldError(f"the flow split did not converge in {MAX_ITERATIONS} Newton steps "
                                 f"(loop residual {np.max(np.abs(r[:n])) * p_scale:.3g} Pa)")
+        # finite differences: the headers couple every flow (N + 1 cheap array evaluations); a channel's drop
+        # depends on its own flow only, so its part of the Jacobian is diagonal (one call per channel)
+        step_sizes = 1e-7 * np.maximum(1.0, np.abs(x))
+        base_h, base_c = headers(x), channels(x)
         J = np.empty((n + 1, n + 1))
         for j in range(n + 1):
-            h = 1e-7 * max(1.0, abs(x[j]))
             xp = x.copy()
-            xp[j] += h
-            J[:, j] = (residual(xp) - r) / h
+            xp[j] += step_sizes[j]
+            J[:, j] = (headers(xp) - base_h) / step_sizes[j]
+        J[np.arange(n), np.arange(n)] -= (channels(x + step_sizes * (np.arange(n + 1) < n))[:n]
+                                          - base_c[:n]) / step_sizes[:n]
         try:
             step = np.linalg.solve(J, -r)
         except np.linalg.LinAlgError:
             raise ManifoldError("the flow split's Jacobian is singular") from None
-        t, norm = 1.0, np.linalg.norm(r)
-        while True:
+        t, norm, accepted = 1.0, np.linalg.norm(r), None
+        while t >= 1e-10:
             trial = x + t * step
             if np.all(trial[:n] > 0):
                 r_trial = residual(trial)
                 if np.all(np.isfinite(r_trial)) and np.linalg.norm(r_trial) < norm * (1 - 1e-4 * t):
+                    accepted = trial, r_trial
                     break
             t /= 2.0
-            if t < 1e-10:
-                if np.max(np.abs(r)) < 1e3 * TOLERANCE:     # at round-off: the step cannot improve
-                    break
-                raise ManifoldError("the flow split found no step that lowers the loop residual "
-                                    "(a channel may need reverse flow)")
-        if t < 1e-10:
-            break
-        x, r = trial, r_trial
+        if accepted is None:
+            if np.max(np.abs(r)) < 1e3 * TOLERANCE:     # at round-off already: no step can improve it
+                break
+            raise ManifoldError("the flow split found no step that lowers the loop residual "
+                                "(a channel may need reverse flow)")
+        x, r = accepted
         iterations += 1
 
     Q = x[:n] * q_mean
     Q = Q * (total_flow / np.sum(Q))           # the mass balance to round-off
     dP = x[n] * p_scale
-    p_in, m_in = inlet.pressures(Q, total_flow)
-    p_out_rel, m_out = outlet.pressures(Q, total_flow)
+    p_in, m_in, Re_in = inlet.pressures(Q, total_flow)
+    p_out_rel, m_out, Re_out = outlet.pressures(Q, total_flow)
     p_out = p_out_rel - dP
     drops = _drops(manifold.channels, Q)
     methods = (HEADER_MODEL,) + tuple(dict.fromkeys(m_in + m_out))
@@ -334,5 +351,6 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         inlet_header_drop=float(np.ptp(np.concatenate((p_in, [0.0])))),
         outlet_header_drop=float(np.ptp(np.concatenate((p_out_rel, [0.0])))),
         min_to_mean=float(np.min(Q) / np.mean(Q)), arrangement=manifold.arrangement,
-        iterations=iterations, residual=float(np.max(np.abs(p_in - p_out - drops))), methods=methods,
+        header_reynolds=(Re_in, Re_out), iterations=iterations,
+        residual=float(np.max(np.abs(p_in - p_out - drops))), methods=methods,
     )

@@ -50,8 +50,8 @@ def test_equal_split_when_header_loss_is_negligible(ports):
     # variation is negligible against the channels' drop feeds every channel alike, wherever the ports are.
     deep = Header(PLATE, 0.5, 0.02)
     r = solve_split(uniform_manifold(24, deep, deep, CHANNEL, *ports), 2 * LPM, RHO, MU)
-    assert r.min_to_mean > 1 - 1e-5
-    assert np.max(r.channel_flows) / np.mean(r.channel_flows) < 1 + 1e-5
+    assert r.min_to_mean > 1 - 5e-5
+    assert np.max(r.channel_flows) / np.mean(r.channel_flows) < 1 + 5e-5
     # and the port-to-port drop is the channel's own drop at the mean flow (computed)
     assert r.port_to_port == pytest.approx(float(CHANNEL(2 * LPM / 24)), rel=1e-4)
 
@@ -107,7 +107,7 @@ def test_hand_written_three_channel_model_agrees():
     h = Header(0.03, 2e-3, 5e-3)
     y = (-0.01, 0.0, 0.01)
     ch = LinearQuadraticChannel(a=4e8, b=2e12)
-    m = Manifold(h, h, y, (ch,) * 3, inlet_port=-0.005, outlet_port=0.01)
+    m = Manifold(h, h, y, (ch,) * 3, inlet_port=-0.005, outlet_port=0.01, friction_length=math.inf)
     Qt = 0.3 * LPM
     r = solve_split(m, Qt, RHO, MU)
     A, D = h.area, 2 * h.depth * h.width / (h.depth + h.width)
@@ -141,8 +141,10 @@ def test_hand_written_three_channel_model_agrees():
 # ----------------------------------------------------------------- the trends the literature reports
 
 
-def _profile(ports, header, n=20, flow=2.0, k=None, channel=CHANNEL):
+def _profile(ports, header, n=20, flow=2.0, k=None, channel=CHANNEL, developed=False):
     kw = {} if k is None else {"k_divide": k[0], "k_combine": k[1]}
+    if developed:
+        kw["friction_length"] = math.inf
     return solve_split(uniform_manifold(n, header, header, channel, *ports, **kw), flow * LPM, RHO, MU)
 
 
@@ -150,7 +152,7 @@ def test_u_arrangement_starves_the_channels_far_from_the_ports():
     # published (from memory): Bajura & Jones (1976) and Bassiouny & Martin (1984, part I, U-type): with both
     # ports at one end the channels nearest the ports take the most flow and the flow falls away from them,
     # whether the header friction or the momentum (combining loss > dividing recovery) dominates.
-    friction_only = _profile(_ends()["U"], Header(PLATE, 1.5e-3, 4e-3), flow=0.5, k=(0.0, 0.0))
+    friction_only = _profile(_ends()["U"], Header(PLATE, 1.5e-3, 4e-3), flow=0.1, k=(0.0, 0.0))
     momentum = _profile(_ends()["U"], Header(PLATE, 3e-3, 8e-3), flow=3.0)
     for r in (friction_only, momentum):
         q = r.channel_flows
@@ -178,7 +180,7 @@ def test_z_arrangement_friction_dominated_is_symmetric_with_the_middle_starved()
     # the middle, so the middle channels get least (the "parabolic" Z profile, Bassiouny & Martin 1984, part II,
     # from memory).
     linear = LinearQuadraticChannel(a=float(CHANNEL.a))
-    r = _profile(_ends()["Z"], Header(PLATE, 1.5e-3, 4e-3), flow=0.5, k=(0.0, 0.0), channel=linear)
+    r = _profile(_ends()["Z"], Header(PLATE, 1.5e-3, 4e-3), flow=0.1, k=(0.0, 0.0), channel=linear, developed=True)
     q = r.channel_flows
     assert np.allclose(q, q[::-1], rtol=1e-9, atol=0)
     assert np.argmin(q) in (9, 10)
@@ -195,6 +197,23 @@ def test_a_centred_port_splits_more_evenly_than_one_at_the_side():
     # and a deeper plenum helps (common practice)
     deeper = _profile(_ends()["U"], Header(PLATE, 5e-3, 6e-3), flow=2.0)
     assert deeper.min_to_mean > side.min_to_mean
+
+
+def test_default_header_friction_errs_toward_a_higher_drop():
+    # published model form: Muzychka & Yovanovich (2009) apparent friction of a developing laminar flow is
+    # never below the fully developed Shah & London value; the project's rule (common practice here) is that a
+    # simplification errs toward a higher pressure: the default (developing over the header's length) gives the
+    # higher port-to-port drop, U or Z, and in the U arrangement (where header friction only starves the far
+    # channels) the lower least-channel share.  In a Z the extra friction can offset the momentum terms, so no
+    # direction of the split is claimed there.
+    header = Header(PLATE, 1.5e-3, 4e-3)
+    for name in ("U", "Z"):
+        default = _profile(_ends()[name], header, flow=0.1)
+        developed = _profile(_ends()[name], header, flow=0.1, developed=True)
+        assert max(default.header_reynolds) < 2300          # laminar headers: the length matters
+        assert default.port_to_port > developed.port_to_port
+        if name == "U":
+            assert default.min_to_mean < developed.min_to_mean
 
 
 # ----------------------------------------------------------------- independent fine-grained network
@@ -258,7 +277,8 @@ def test_agrees_with_an_independent_fine_grained_network(ports):
     # port-to-port drop agree to round-off.
     a = float(CHANNEL.a)
     hin, hout = Header(PLATE, 1.5e-3, 4e-3), Header(PLATE, 2e-3, 5e-3)
-    m = uniform_manifold(16, hin, hout, LinearQuadraticChannel(a=a), *ports, k_divide=0.0, k_combine=0.0)
+    m = uniform_manifold(16, hin, hout, LinearQuadraticChannel(a=a), *ports, k_divide=0.0, k_combine=0.0,
+                         friction_length=math.inf)
     total = 0.1 * LPM                   # header Re below 2300: laminar, linear
     r = solve_split(m, total, RHO, MU)
     assert all(v.method == "Bajura & Jones" or "Shah" in v.method or "Muzychka" in v.method
