@@ -34,8 +34,9 @@ discrete-element manifold analyses; the coefficient names are ours):
 
 The unknowns are the N channel flows and the port-to-port drop; the N loop equations (inlet header pressure at
 the take-off - outlet header pressure at the discharge = the channel's drop at its own flow) and the mass
-balance are solved by Newton's method with a finite-difference Jacobian (N + 1 columns, each residual O(N)) and a
-backtracking step that keeps every channel flow positive.  Everything is SI: m, m^3/s, Pa, kg/m^3, Pa s.
+balance are solved by Newton's method with a finite-difference Jacobian (N + 1 columns of the headers' part,
+array evaluations; the channels' part is diagonal, one call per channel) and a backtracking step that keeps every
+channel flow positive.  Everything is SI: m, m^3/s, Pa, kg/m^3, Pa s.
 """
 from __future__ import annotations
 
