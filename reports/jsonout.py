@@ -37,6 +37,8 @@ def result_to_dict(r, version: str = "") -> dict:
         "darcy_friction_factor": r.f_darcy,
         "regime": r.regime,
         "heat_transfer_coefficient_W_per_m2K": r.h,
+        "nusselt_hot_spot": r.Nu_hot,  # the local values where the hottest point is (the two above: length means)
+        "heat_transfer_coefficient_hot_spot_W_per_m2K": r.h_hot,
         "fin_efficiency": r.eta_fin,
         "wetted_area_m2": r.wetted_area,
         "flow_m3_per_s": r.V_dot,

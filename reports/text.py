@@ -46,8 +46,10 @@ def render_text(r, version: str = "", units: str = "si") -> str:
          f"{u.label('pressure')}  (friction {v('pressure', r.dp_friction)} {u.label('pressure')})"),
         ("velocity in passage", v("velocity", r.velocity, ".3f"), u.label("velocity")),
         ("Reynolds / Prandtl", f"{r.Re:.0f} / {r.Pr:.2f}", r.regime),
-        ("Nusselt number", f"{r.Nu:.2f}", ""),
-        ("heat transfer coefficient", v("heat_transfer_coefficient", r.h), u.label("heat_transfer_coefficient")),
+        ("Nusselt number", f"{r.Nu:.2f}", f"length mean; {r.Nu_hot:.2f} at the hottest point"),
+        ("heat transfer coefficient", v("heat_transfer_coefficient", r.h),
+         f"{u.label('heat_transfer_coefficient')}  length mean; {v('heat_transfer_coefficient', r.h_hot)} at the "
+         "hottest point"),
     ]
     if r.eta_fin is not None:
         rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", ""))

@@ -168,6 +168,7 @@ JSON_UNITS = {
     "velocity_m_per_s": ("m/s", "m/s", "ft/s"),
     "reynolds": ("dimensionless", "dimensionless", "dimensionless"),
     "heat_transfer_coefficient_W_per_m2K": ("W/(m**2*K)", "W/(m**2*K)", "Btu_it/(hour*ft**2*delta_degF)"),
+    "heat_transfer_coefficient_hot_spot_W_per_m2K": ("W/(m**2*K)", "W/(m**2*K)", "Btu_it/(hour*ft**2*delta_degF)"),
     "water_use_L_per_day": ("L/day", "L/day", "gallon/day"),
     "water_use_m3_per_year": ("m**3/year", "m**3/year", "gallon/year"),
     # thermoelectric modules (result.module)
