@@ -20,7 +20,6 @@ import time
 import tracemalloc
 from pathlib import Path
 
-import numpy as np
 
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))

@@ -214,15 +214,11 @@ def velocity(r):
             "Fit a strainer upstream and flush the plate from time to time.")
 
 
-def _rating(d):
-    return materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
-
-
 def pressure_budget(r):
     """The plate's pressure drop against the supply's static pressure and the plate's rating, and the fastest
     water against the wetted metal's limits: in every check, with or without a circuit."""
     d = r.design
-    rating, given = _rating(d)
+    rating, given = materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
     p = d.supply.static_pressure
     v, where = fastest_water(r)
     limit, fam = erosion_limit(d, r.T_out)
@@ -254,7 +250,7 @@ def pressure_budget(r):
 
 def pressure(r):
     d = r.design
-    rating, given = _rating(d)
+    rating, given = materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
     p = d.supply.static_pressure
     if p is None:
         if d.supply.source == "potable":

@@ -464,7 +464,6 @@ def _solve_level(plate, sources, cooling, rules, level, method) -> _Level:
 def _source_values(lv: _Level, sources, loads):
     """Per source: (face max rise, mean rise, position) on the device side; the coupling matrix."""
     face = lv.face_unit @ loads
-    N = len(sources)
     coupling = np.einsum("xyi,xyj->ij", lv.weights, lv.face_unit)
     for i, s in enumerate(sources):
         coupling[i, i] += s.interface / s.area

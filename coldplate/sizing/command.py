@@ -9,7 +9,6 @@ limits that bind.
 """
 from __future__ import annotations
 
-import os
 import sys
 import time
 from pathlib import Path

@@ -30,15 +30,11 @@ WASTE_RATIO = 2.0
 SURGE_NOTE = 3.0e5
 
 
-def _rating(d):
-    return materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
-
-
 def supply_pressure(r):
     c, d = r.circuit, r.design
     if c is None:
         return
-    rating, given = _rating(d)
+    rating, given = materials.plate_rating(d.plate.pressure_rating, d.passage.kind)
     if c.plate_inlet_pressure > rating:
         yield Finding(
             "plate-inlet-pressure", "warning",

@@ -149,7 +149,7 @@ def operate(design, load: float | None = None) -> CircuitResult:
         plate_inlet_pressure=inlet, points=points, curve=system_curve(plate, max(2 * V, pump.V_dot[-1] if pump else 0)),
         pump=pump, needed_pressure=need, plate_outlet_pressure=pressures[k], heights=tuple(zip(names, c.heights())),
         surges=_surges(c, r.m_dot, plate.upstream, down), m_dot=r.m_dot,
-        plate_rating=d.plate.pressure_rating or materials.pressure_rating(d.passage.kind).value)
+        plate_rating=materials.plate_rating(d.plate.pressure_rating, d.passage.kind)[0])
 
 
 def system_curve(plate: PlateAt, V_max: float, n: int = CURVE_POINTS) -> SystemCurve:
