@@ -24,6 +24,7 @@ from coldplate.design.errors import DesignError, StateError
 from coldplate.design.fields import Table, check_range, nearest
 from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES
 from coldplate.modules.reader import Module, read_module
+from coldplate.plate.sources import Source, centred_source, read_sources
 from coldplate.design.units import parse_value, quoted
 
 # ---------------------------------------------------------------- dataclasses
@@ -158,6 +159,8 @@ class Design:
     model: Model
     module: Module | None = None  #: thermoelectric modules on the plate, from [module]
     circuit: Circuit | None = None  #: the lines around the plate ([circuit])
+    #: the heat sources on the mounting face ([[source]] tables; [heat] is one centred source named "heat")
+    sources: tuple[Source, ...] = ()
 
     @property
     def drain_air_gap(self) -> float | None:
@@ -235,7 +238,7 @@ def _toml(text: str) -> dict:
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
-_OPTIONAL = ("module", "circuit")
+_OPTIONAL = ("module", "circuit", "source")
 #: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
 _FEATURE_TABLES = ("search",)
 
@@ -253,14 +256,27 @@ def design_from_dict(data: dict) -> Design:
     title = data.get("title")
     if not isinstance(title, str) or not title.strip():
         raise DesignError("title", "is missing or empty")
+    if "source" in data and "heat" in data:
+        raise DesignError("[[source]]", "give the heat either as [heat] (one centred source) or as [[source]] "
+                                        "tables, not both")
     for name in _TOP[1:-1]:
-        if name not in data:
-            raise DesignError(f"[{name}]", "table is missing")
+        if name not in data and not (name == "heat" and "source" in data):
+            raise DesignError(f"[{name}]", "table is missing" + (" (or give [[source]] tables)" if name == "heat" else ""))
 
     plate = _plate(Table(data["plate"], "plate", KEYS["plate"]))
     module = read_module(data["module"]) if "module" in data else None
-    heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)
     interface = _interface(Table(data["interface"], "interface", KEYS["interface"]))
+    if "source" in data:
+        if module is not None:
+            raise DesignError("[[source]]", "with a [module] table the modules are the heat source: give their "
+                                            "footprint as [heat] footprint")
+        sources = read_sources(data["source"], plate.length, plate.width, interface.resistance_area,
+                               interface.described_as)
+        heat = _sources_stand_in(sources)
+    else:
+        heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)
+        sources = (centred_source(heat.load, heat.footprint_length, heat.footprint_width, plate.length,
+                                  interface.resistance_area, interface.described_as),)
     search = data.get("search")
     passage = _passage(Table(data["passage"], "passage", ANY_PASSAGE_KEY), plate,
                        searches_passes=isinstance(search, dict) and "passes" in search)
@@ -275,7 +291,17 @@ def design_from_dict(data: dict) -> Design:
         raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
                                             "supply pushes water through)")
     return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
-                  module=module, circuit=circuit)
+                  module=module, circuit=circuit, sources=sources)
+
+
+def _sources_stand_in(sources: tuple[Source, ...]) -> Heat:
+    """The one footprint the resistance network sees for several sources: the total load over the sources'
+    bounding box (the field solve places each source where it is)."""
+    x0 = min(s.edges()[0] for s in sources)
+    x1 = max(s.edges()[1] for s in sources)
+    y0 = min(s.edges()[2] for s in sources)
+    y1 = max(s.edges()[3] for s in sources)
+    return Heat(sum(s.load for s in sources), x1 - x0, y1 - y0)
 
 
 def _plate(t: Table) -> Plate:

@@ -14,6 +14,8 @@ from hydraulics.losses import MinorLoss
 from coldplate.plate.passages.base import Geometry
 
 if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages' results by name
+    from coldplate.plate.field import FieldResult
+    from coldplate.plate.sources import Source
     from coldplate.design.reader import Design
     from coldplate.findings.base import Finding
     from coldplate.modules.result import ModuleResult
@@ -38,6 +40,35 @@ class Profile:
     x: tuple[float, ...]
     T_bulk: tuple[float, ...]
     T_top: tuple[float, ...]  #: plate top face on the centre line (add the interface rise within the footprint)
+
+
+@dataclass(frozen=True)
+class SourceOutcome:
+    """One heat source's figures from the plate solve (temperatures on the device side of its interface) [K]."""
+
+    name: str
+    load: float  #: [W]
+    face_max: float  #: hottest face temperature [K]
+    face_mean: float  #: mean face temperature [K] (NaN when the model gives none)
+    limit: float | None  #: the device's own limit [K], if given
+    hottest_at: tuple[float, float]  #: (x from the inlet edge, y across from the centre line) [m]
+    grid_uncertainty: float  #: of face_max [K] (NaN when not estimated)
+
+    @property
+    def margin(self) -> float | None:
+        """limit - hottest face [K] (negative: over the limit); None without a limit."""
+        return None if self.limit is None else self.limit - self.face_max
+
+    def resistance(self, inlet: float) -> float:
+        """(hottest face - inlet) / own load [K/W]."""
+        return (self.face_max - inlet) / self.load if self.load > 0 else float("nan")
+
+
+def source_outcomes(field: FieldResult, sources: tuple[Source, ...]) -> tuple[SourceOutcome, ...]:
+    """The field's per-source figures with each source's limit, in the design's source order."""
+    by_name = {s.name: s for s in sources}
+    return tuple(SourceOutcome(f.name, f.load, f.face_max, f.face_mean, by_name[f.name].limit, f.hottest_at,
+                               f.grid_uncertainty) for f in field.sources)
 
 
 @dataclass(frozen=True)
@@ -83,3 +114,8 @@ class Result:
     planning: PlanningResult | None = None  #: least flow, water and money per year (once-through)
     Nu_hot: float | None = None  #: local Nusselt number where the hottest point is (Nu is the length mean)
     h_hot: float | None = None  #: local heat transfer coefficient there [W/(m^2 K)]
+    model: str = "network"  #: the plate model that produced the temperatures: "network" or "field"
+    sources: tuple[SourceOutcome, ...] = ()  #: per heat source, in the design's order
+    coupling: tuple[tuple[float, ...], ...] = ()  #: [K/W] mean face rise of source i per watt of source j
+    grid_uncertainty: float | None = None  #: of T_face_max [K] (field model: Richardson / grid convergence index)
+    field: FieldResult | None = None  #: the solved field (face map, coolant per channel) with model "field"
