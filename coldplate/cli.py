@@ -1,4 +1,5 @@
-"""Command line: ``coldplate check FILE [--format text|json] [--units si|us]``,
+"""Command line: ``coldplate check FILE [--format text|json] [--units si|us]`` (several files side by side,
+``--watch`` to re-check on each save: coldplate.commands), ``coldplate new KIND -o FILE``, ``coldplate schema``,
 ``coldplate report FILE -o OUT.html|OUT.md``, ``coldplate curves FILE [-o OUT.csv|OUT.json]`` and
 ``coldplate size FILE`` (coldplate.sizing).
 
@@ -37,7 +38,7 @@ if _AS_PROGRAM:
 import argparse  # noqa: E402  (after the handlers: an interrupt during these imports is answered too)
 import warnings  # noqa: E402
 
-from coldplate.design.errors import ColdplateError, DesignError  # noqa: E402
+from coldplate.design.errors import ColdplateError, DesignError, one_line  # noqa: E402
 
 
 class Terminated(BaseException):
@@ -81,9 +82,13 @@ def _parser() -> argparse.ArgumentParser:
     sub = p.add_subparsers(dest="command", required=True)
     c = sub.add_parser("check", help="solve a design file and print the design check")
     c.add_argument("file", help="design file (TOML)")
-    c.add_argument("--format", choices=("text", "json"), default="text", help="output format (default: text)")
+    c.add_argument("--format", choices=("text", "json", "csv"), default="text",
+                   help="output format (default: text; csv: the side-by-side table)")
     c.add_argument("--units", choices=("si", "us"), default="si",
                    help="display units of the text summary (default: si; JSON is always SI)")
+    from coldplate import commands
+
+    commands.add_check_options(c)
     r = sub.add_parser("report", help="write a design report: one self-contained HTML file, or Markdown")
     r.add_argument("file", help="design file (TOML)")
     r.add_argument("-o", "--output", required=True, help="report file: NAME.html, or NAME.md (figures beside it)")
@@ -99,6 +104,7 @@ def _parser() -> argparse.ArgumentParser:
     from coldplate.sizing.command import add_parser as add_size_parser
 
     add_size_parser(sub)
+    commands.add_parsers(sub)
     return p
 
 
@@ -230,7 +236,10 @@ def _run(argv, debug: bool) -> int:
             from coldplate.sizing.command import run as run_size
 
             return run_size(args, write_stdout)
-        from coldplate import __version__
+        from coldplate import __version__, commands
+
+        if commands.wants(args):
+            return commands.run(args, write_stdout)
 
         if args.command == "report":
             text = _report(args, __version__)
@@ -264,11 +273,6 @@ def _run(argv, debug: bool) -> int:
               "for details", file=sys.stderr)
         return 1
     return write_stdout(text)
-
-
-def one_line(exc) -> str:
-    """An error's message on one line (a library's message may hold line breaks)."""
-    return " ".join(str(exc).split())
 
 
 def _first_line(exc) -> str:

@@ -23,7 +23,7 @@ PACKAGES = ("coldplate", "hydraulics", "reports")
 LAYERS = (
     (0, "hydraulics", ("hydraulics",)),
     (1, "design machinery", ("coldplate.design.errors", "coldplate.design.units", "coldplate.design.ranges",
-                               "coldplate.design.fields")),
+                               "coldplate.design.fields", "coldplate.design.catalogue")),
     (2, "plate", ("coldplate.plate",)),
     (2, "finding record", ("coldplate.findings.base",)),
     (3, "plate findings", ("coldplate.findings.plate",)),

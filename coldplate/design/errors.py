@@ -28,3 +28,8 @@ class StateError(DesignError):
 
 class SolveError(ColdplateError, RuntimeError):
     """The solve did not converge; the message says what was tried."""
+
+
+def one_line(exc) -> str:
+    """An error's message on one line (a library's message may hold line breaks)."""
+    return " ".join(str(exc).split())

@@ -177,6 +177,8 @@ DISCHARGES = ("drain", "return")
 DEFAULT_DISCHARGE = {"potable": "drain", "recirculating": "return", "process": "return"}
 LAMINAR_CHOICES = ("muzychka-yovanovich", "hausen", "sieder-tate", "fully-developed")
 TURBULENT_CHOICES = ("gnielinski", "dittus-boelter")
+#: How a glycol's fraction is counted.
+BASES = ("mass", "volume")
 
 #: Default drain temperature limit: 60 degC (140 degF), a common plumbing-code limit.
 DEFAULT_DISCHARGE_LIMIT = 333.15
@@ -454,7 +456,7 @@ def _coolant(t: Table, supply: Supply):
         fraction, basis = 0.0, "mass"
     else:
         fraction = t.value("fraction", "fraction")
-        basis = t.choice("basis", ("mass", "volume"))
+        basis = t.choice("basis", BASES)
     try:
         coolant = Coolant(fluid, fraction, basis)
     except ValueError as exc:

@@ -65,12 +65,14 @@ PART_KEYS = {"hose": _LINE_KEYS, "tube": _LINE_KEYS,
              "backflow": ("kind", "name", "device", "loss", "rated_flow", "opening_loss"),
              "rise": ("kind", "name", "height"), "plate": ("kind", "name")}
 ANY_PART_KEY = tuple(sorted({k for keys in PART_KEYS.values() for k in keys}))  #: before the kind is read
+#: Every key [circuit] itself may hold.
+CIRCUIT_KEYS = ("part", "back_pressure", "outlet_diameter", "air_gap")
 
 
 # ---------------------------------------------------------------- [circuit]
 
 def read_circuit(data) -> Circuit:
-    t = Table(data, "circuit", ("part", "back_pressure", "outlet_diameter", "air_gap"))
+    t = Table(data, "circuit", CIRCUIT_KEYS)
     raw = t.raw("part")
     if not isinstance(raw, list) or not raw or not all(isinstance(p, dict) for p in raw):
         raise DesignError(t.field("part"), "list the parts in flow order as [[circuit.part]] tables")
