@@ -9,6 +9,9 @@ Python API::
     from coldplate import size_file
     s = size_file("examples/laser-mount-sizing.toml")
     s.recommended, s.why, s.check.findings, s.text
+
+In a notebook both results show the report's summary; ``result.to_dict()`` is the JSON object and
+``result.to_frame()`` a pandas DataFrame (``pip install "coldplate[frames]"``; see coldplate.notebook).
 """
 __version__ = "0.1.0"
 
@@ -17,14 +20,14 @@ def check_file(path):
     """Read a design file and solve it; returns a frozen :class:`coldplate.plate.result.Result`."""
     from coldplate.check import check_file as _check_file
 
-    return _check_file(path)
+    return _notebook(_check_file(path))
 
 
 def solve(design):
     """Solve an already-read :class:`coldplate.design.reader.Design`."""
     from coldplate.check import solve as _solve
 
-    return _solve(design)
+    return _notebook(_solve(design))
 
 
 def size_file(path):
@@ -32,4 +35,11 @@ def size_file(path):
     returns a frozen :class:`coldplate.sizing.recommend.SizingResult`."""
     from coldplate.sizing.recommend import size_file as _size_file
 
-    return _size_file(path)
+    return _notebook(_size_file(path))
+
+
+def _notebook(result):
+    """The result, its class given the notebook and spreadsheet methods (coldplate.notebook)."""
+    import coldplate.notebook  # noqa: F401  (installs them on import)
+
+    return result

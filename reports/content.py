@@ -186,6 +186,19 @@ def _methods(r) -> Section:
     return Section("methods", "Methods and their validity ranges", tuple(paras), table=(head, *body))
 
 
+def report_findings(r, u: DisplayUnits) -> tuple[Finding, ...]:
+    """The findings as the report words them (US units annotated beside the SI figures they quote)."""
+    exact = exact_values(r, r.module, r.circuit, r.planning, r.design) if u.system != "si" else ()
+    return tuple(Finding(f.severity, f.id, annotate(f.message, u, exact), annotate(f.action, u, exact))
+                 for f in r.findings)
+
+
+def summary(r, units: str = "si") -> tuple[str, str, tuple[Row, ...], tuple[Finding, ...]]:
+    """The report's summary, without figures or sections: (title, job line, headline rows, findings)."""
+    u = DisplayUnits(units)
+    return r.design.title, job_line(r, u), _headline(r, u), report_findings(r, u)
+
+
 def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: str = "",
                  source_name: str = "", source_bytes: bytes = b"") -> Report:
     """Gather a report.  ``figures`` maps names (breakdown, profile, flow, water, module, circuit) to SVG text."""
@@ -194,9 +207,7 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     def fig(name, caption):
         return (Figure(name, caption, figures[name]),) if name in figures else ()
 
-    exact = exact_values(r, r.module, r.circuit, r.planning, r.design) if u.system != "si" else ()
-    findings = tuple(Finding(f.severity, f.id, annotate(f.message, u, exact), annotate(f.action, u, exact))
-                     for f in r.findings)
+    findings = report_findings(r, u)
     sections = [
         _inputs(r, u),
         _breakdown(r, u, fig("breakdown", "Parts of the thermal resistance, hottest point to inlet water.")),

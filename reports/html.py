@@ -85,6 +85,40 @@ def _section(s: Section) -> str:
     return "\n".join(out)
 
 
+def _results_and_findings(headline, findings) -> list[str]:
+    """The report's summary: the headline table, the standing caution and the findings."""
+    out = ['<section id="results"><h2>Results</h2>', _rows(headline), "</section>",
+           f'<section id="findings"><h2>Findings ({finding_counts(findings)}), most severe first</h2>',
+           f'<div class="caution-box">{escape(STANDING_CAUTION)}</div>']
+    for f in findings:
+        out.append(f'<div class="finding {escape(f.severity)}" data-id="{escape(f.id)}">'
+                   f'<p><span class="severity">{escape(f.severity)}</span> · <code>{escape(f.id)}</code>: '
+                   f"{escape(f.message)}</p><p><strong>What to do:</strong> {escape(f.action)}</p></div>")
+    if not findings:
+        out.append("<p>No findings.</p>")
+    out.append("</section>")
+    return out
+
+
+#: The notebook summary's style, every rule scoped to its own box so the notebook's page is left as it is.
+SUMMARY_CSS = "\n".join(f".coldplate-summary {rule}" for rule in (
+    "table { border-collapse: collapse; margin: .4em 0 .8em; }",
+    "th, td { border: 1px solid #bbb; padding: .2em .5em; text-align: left; }",
+    "td.num { text-align: right; font-variant-numeric: tabular-nums; }",
+    ".finding { border-left: 6px solid #777; padding: .2em .7em; margin: .4em 0; }",
+    ".finding.danger { border-color: #a00; }", ".finding.warning { border-color: #d55e00; }",
+    ".finding.caution { border-color: #e69f00; }", ".finding.note { border-color: #0072b2; }",
+    ".caution-box { border: 2px solid #111; padding: .4em .8em; margin: .6em 0; }"))
+
+
+def render_summary_html(title: str, job: str, headline, findings, version: str = "") -> str:
+    """The report's summary (title, job line, results, findings) as an HTML fragment for a notebook: scoped
+    style, no scripts (``Result._repr_html_``)."""
+    return "\n".join([f'<div class="coldplate-summary"><style>{SUMMARY_CSS}</style>', f"<h3>{escape(title)}</h3>",
+                      f"<p>{escape(job)}</p>", *_results_and_findings(headline, findings),
+                      f'<p class="small">coldplate {escape(version)}</p></div>']) + "\n"
+
+
 def render_html(rep: Report) -> str:
     units = "SI" if rep.units == "si" else "US customary"
     out = [
@@ -100,19 +134,8 @@ def render_html(rep: Report) -> str:
         f'<p class="trace">coldplate {escape(rep.version)} · design file {escape(rep.source_name)} · '
         f'SHA-256 <code>{escape(rep.source_sha256)}</code> · units: {units}</p>',
         "</header>",
-        '<section id="results"><h2>Results</h2>',
-        _rows(rep.headline),
-        "</section>",
-        f'<section id="findings"><h2>Findings ({finding_counts(rep.findings)}), most severe first</h2>',
-        f'<div class="caution-box">{escape(STANDING_CAUTION)}</div>',
+        *_results_and_findings(rep.headline, rep.findings),
     ]
-    for f in rep.findings:
-        out.append(f'<div class="finding {escape(f.severity)}" data-id="{escape(f.id)}">'
-                   f'<p><span class="severity">{escape(f.severity)}</span> · <code>{escape(f.id)}</code>: '
-                   f"{escape(f.message)}</p><p><strong>What to do:</strong> {escape(f.action)}</p></div>")
-    if not rep.findings:
-        out.append("<p>No findings.</p>")
-    out.append("</section>")
     out += [_section(s) for s in rep.sections]
     out += [
         '<section id="trace"><h2>Traceability</h2>',

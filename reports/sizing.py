@@ -119,5 +119,43 @@ def sizing_to_dict(s, version: str = "") -> dict:
     }
 
 
+def front_rows(s) -> list[dict]:
+    """The trade-off front, one flat dict a design (SI, the units in the names): for CSV and data frames."""
+    rows = []
+    for c in s.outcome.pareto:
+        d = _candidate(c, s.design)
+        rows.append({**{f"{n}_SI": v for n, v in d.pop("variables_SI").items()}, **d})
+    return rows
+
+
+def render_sizing_csv(s) -> str:
+    """The trade-off front as CSV (``coldplate size --format csv``): one row a design, SI."""
+    import csv
+    import io
+
+    rows = front_rows(s)
+    buf = io.StringIO()
+    heads = list(rows[0]) if rows else [f"{n}_SI" for n in s.spec.axes]  # no front: the header of its axes
+    w = csv.DictWriter(buf, fieldnames=heads, lineterminator="\n")
+    w.writeheader()
+    for row in rows:
+        w.writerow({k: f"{v:.8g}" for k, v in row.items()})
+    return buf.getvalue()
+
+
+def render_sizing_html(s, version: str = "") -> str:
+    """The sizing summary for a notebook: the text summary as preformatted text, then the recommendation's check
+    summary (no scripts)."""
+    from html import escape
+
+    from .content import summary
+    from .html import render_summary_html
+
+    parts = ['<div class="coldplate-sizing">', f"<pre>{escape(render_sizing_text(s, version))}</pre>"]
+    if s.check is not None:
+        parts.append(render_summary_html(*summary(s.check), version))
+    return "\n".join(parts + ["</div>"]) + "\n"
+
+
 def render_sizing_json(s, version: str = "") -> str:
     return json.dumps(sizing_to_dict(s, version), indent=2, ensure_ascii=False)

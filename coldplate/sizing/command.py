@@ -47,7 +47,8 @@ class ProgressBar:
 def add_parser(sub) -> None:
     s = sub.add_parser("size", help="search ranges of plate sizes and flows given in [search]; recommend one")
     s.add_argument("file", help="design file (TOML) with a [search] table")
-    s.add_argument("--format", choices=("text", "json"), default="text", help="output format (default: text)")
+    s.add_argument("--format", choices=("text", "json", "csv"), default="text",
+                   help="output format (default: text; csv: the trade-off front, one row a design)")
     s.add_argument("--write-best", metavar="OUT.toml", help="write the recommended design as a design file")
     s.add_argument("--force", action="store_true", help="let --write-best replace an existing file")
     s.add_argument("--quiet", action="store_true", help="no progress bar")
@@ -76,6 +77,10 @@ def run(args, write_stdout) -> int:
         from reports.sizing import render_sizing_json
 
         text = render_sizing_json(result, __version__)
+    elif args.format == "csv":
+        from reports.sizing import render_sizing_csv
+
+        text = render_sizing_csv(result)
     else:
         from reports.sizing import render_sizing_text
 
