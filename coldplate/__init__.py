@@ -13,7 +13,7 @@ Python API::
 In a notebook both results show the report's summary; ``result.to_dict()`` is the JSON object and
 ``result.to_frame()`` a pandas DataFrame (``pip install "coldplate[frames]"``; see coldplate.notebook).
 """
-__version__ = "0.1.0"
+from coldplate._version import __version__  # noqa: F401  (re-exported)
 
 
 def check_file(path):

@@ -19,7 +19,7 @@ def _pandas():
 
 def result_html(self) -> str:
     """The report's summary: title, job line, results and findings (SI units)."""
-    from coldplate import __version__
+    from coldplate._version import __version__
     from reports.content import summary
     from reports.html import render_summary_html
 
@@ -28,7 +28,7 @@ def result_html(self) -> str:
 
 def result_dict(self) -> dict:
     """The JSON object of ``coldplate check --format json`` (SI, the unit in each key's name)."""
-    from coldplate import __version__
+    from coldplate._version import __version__
     from reports.jsonout import check_to_dict
 
     return check_to_dict(self, __version__)
@@ -53,7 +53,7 @@ def result_frame(self, what: str = "profile", flows=None):
 
 
 def sizing_html(self) -> str:
-    from coldplate import __version__
+    from coldplate._version import __version__
     from reports.sizing import render_sizing_html
 
     return render_sizing_html(self, __version__)
@@ -61,7 +61,7 @@ def sizing_html(self) -> str:
 
 def sizing_dict(self) -> dict:
     """The JSON object of ``coldplate size --format json``."""
-    from coldplate import __version__
+    from coldplate._version import __version__
     from reports.sizing import sizing_to_dict
 
     return sizing_to_dict(self, __version__)
