@@ -166,3 +166,35 @@ def test_unit_strings_follow_the_pattern(validator):
     data["room"]["relative_humidity"] = 0.5  # a fraction may be a bare number
     assert _errors(validator, data) == [] and not _reader_refuses(data)
     assert re.search(design_schema()["properties"]["plate"]["properties"]["base"]["pattern"], "3e-3 m")
+
+
+def test_the_catalogue_kind_is_the_kind_the_reader_parses(monkeypatch):
+    """Every value the readers parse, while reading every example and every starter with its optional lines
+    opened, is parsed as the kind its catalogue record names (so the schema's patterns cannot drift)."""
+    from coldplate.design import fields
+    from coldplate.sizing.search import read_search
+
+    from .test_workday import _uncommented
+
+    seen: dict[str, set[str]] = {}
+    original = {name: getattr(fields.Table, name) for name in ("value", "integer", "choice", "word")}
+
+    def recorder(method, kind_of):
+        def wrapped(self, key, *args, **kw):
+            seen.setdefault(f"[{self.name.split(' ')[0]}] {key}", set()).add(kind_of(args))
+            return original[method](self, key, *args, **kw)
+        return wrapped
+
+    monkeypatch.setattr(fields.Table, "value", recorder("value", lambda a: a[0]))
+    monkeypatch.setattr(fields.Table, "integer", recorder("integer", lambda a: "integer"))
+    monkeypatch.setattr(fields.Table, "choice", recorder("choice", lambda a: "choice"))
+    monkeypatch.setattr(fields.Table, "word", recorder("word", lambda a: "name"))
+    texts = [p.read_text() for p in EXAMPLES] + [_uncommented(starter_text(k)) for k in KINDS]
+    for text in texts:
+        data = tomllib.loads(text)
+        design = design_from_dict(data)
+        if "search" in data:
+            read_search(data, design)
+    wrong = {name: kinds for name, kinds in seen.items() if kinds != {FIELDS[name].kind}}
+    assert wrong == {}
+    assert len(seen) >= 60  # the readers were seen at work
