@@ -239,7 +239,7 @@ def _run(argv, debug: bool) -> int:
         from coldplate import __version__, commands
 
         if commands.wants(args):
-            return commands.run(args, write_stdout)
+            return commands.run(args, write_stdout, _stop_if_signalled)
 
         if args.command == "report":
             text = _report(args, __version__)

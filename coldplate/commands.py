@@ -39,7 +39,7 @@ def add_parsers(sub) -> None:
 
 
 def add_check_options(c) -> None:
-    c.add_argument("more", nargs="*", metavar="FILE", help="more design files: compared side by side")
+    c.add_argument("more", nargs="*", default=[], metavar="FILE", help="more design files: compared side by side")
     c.add_argument("--watch", action="store_true",
                    help="check again each time the file is saved, showing what changed (Ctrl-C ends)")
 
@@ -50,7 +50,14 @@ def wants(args) -> bool:
         args.command == "check" and bool(args.more or args.watch or args.format == "csv"))
 
 
-def run(args, write_stdout) -> int:
+#: Called where one design's failure is caught, so a stop signal that a library turned into an error of its own
+#: still stops the command (``cli`` sets it to its ``_stop_if_signalled``; this module cannot import cli).
+_reraise_stop = None
+
+
+def run(args, write_stdout, reraise_stop=None) -> int:
+    global _reraise_stop
+    _reraise_stop = reraise_stop
     if args.command == "new":
         return _new(args)
     if args.command == "schema":
@@ -106,13 +113,19 @@ def check_one(path):
     try:
         return check_file(path), None
     except DesignError as exc:
-        return None, (2, f"error: {one_line(exc)}")
+        return None, _failed(2, f"error: {one_line(exc)}")
     except ColdplateError as exc:
-        return None, (1, f"cannot solve: {one_line(exc)}")
+        return None, _failed(1, f"cannot solve: {one_line(exc)}")
     except Exception as exc:  # an internal fault of one design: the others still run
         if os.environ.get("COLDPLATE_DEBUG"):
             raise
-        return None, (1, f"internal error ({type(exc).__name__}: {one_line(exc)})")
+        return None, _failed(1, f"internal error ({type(exc).__name__}: {one_line(exc)})")
+
+
+def _failed(status: int, line: str) -> tuple[int, str]:
+    if _reraise_stop is not None:  # the "error" was a stop signal in disguise: stop, do not go on
+        _reraise_stop()
+    return status, line
 
 
 def compare_command(args, write_stdout) -> int:
