@@ -1,7 +1,7 @@
 """What every key of the design file holds: its kind of value and a one-line description, kept once.
 
 One record per field, keyed ``"[table] key"`` as a user reads it (circuit parts as ``"[circuit.part] key"``, the
-heat sources as ``"[source] key"``).  Which keys a table accepts stays with its reader (``design.reader.KEYS``,
+heat sources as ``"[source] key"``, the top-level ``title`` as ``"[top] title"``).  Which keys a table accepts stays with its reader (``design.reader.KEYS``,
 ``PASSAGE_KEYS``, ``modules.reader``, ``supply.reader``, ``plate.sources.SOURCE_KEYS``, ``sizing.search``);
 plausible ranges stay in :mod:`coldplate.design.ranges`; the choices of a ``choice`` stay with the reader's own
 tuple.  :mod:`coldplate.design.schema` puts the four together for ``coldplate schema`` and ``coldplate new``, and
