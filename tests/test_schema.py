@@ -19,7 +19,7 @@ jsonschema = pytest.importorskip("jsonschema")
 from coldplate.design.catalogue import FIELDS, OTHER_KINDS  # noqa: E402
 from coldplate.design.errors import DesignError  # noqa: E402
 from coldplate.design.reader import design_from_dict  # noqa: E402
-from coldplate.design.schema import choices, design_schema, key_sets, schema_text  # noqa: E402
+from coldplate.design.schema import choices, design_schema, key_sets, schema_text, tables  # noqa: E402
 from coldplate.design.starters import KINDS, starter_text  # noqa: E402
 from coldplate.design.units import KINDS as UNIT_KINDS  # noqa: E402
 from coldplate.cli import main  # noqa: E402
@@ -58,6 +58,11 @@ def test_every_starter_validates(validator, kind):
 def test_every_key_a_reader_accepts_has_a_description():
     missing = [f"[{t}] {k}" for t, keys in key_sets().items() for k in keys if f"[{t}] {k}" not in FIELDS]
     assert missing == []
+
+
+def test_every_table_the_reader_knows_has_its_keys():
+    assert set(tables()) <= set(key_sets())
+    assert set(key_sets()) - set(tables()) == {"top", "circuit.part"}
 
 
 def test_every_described_key_is_read():

@@ -170,12 +170,6 @@ FIELDS: dict[str, Field] = {
     "[search] max_water": _F("flow", "once-through water a day at most, as a flow ('2000 L/day')"),
 }
 
-#: Tables as a user writes them, in the order a design file gives them, and whether each is required.
-TABLES = (("heat", True), ("interface", True), ("plate", True), ("passage", True), ("coolant", True),
-          ("supply", True), ("room", True), ("correlations", False), ("module", False), ("circuit", False),
-          ("source", False), ("search", False))
-
-
 def field(table: str, key: str) -> Field:
     """The record of ``[table] key`` (KeyError when none: every key a reader accepts has one)."""
     return FIELDS[f"[{table}] {key}"]

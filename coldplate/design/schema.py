@@ -13,7 +13,7 @@ from hydraulics.circuit import FITTINGS
 from hydraulics.coolant import FLUIDS
 
 from coldplate.design import reader
-from coldplate.design.catalogue import FIELDS, OTHER_KINDS, TABLES, Field
+from coldplate.design.catalogue import FIELDS, OTHER_KINDS, Field
 from coldplate.design.fields import show
 from coldplate.design.ranges import plausible
 from coldplate.design.units import KINDS
@@ -41,6 +41,12 @@ def key_sets() -> dict[str, tuple[str, ...]]:
             "passage": reader.ANY_PASSAGE_KEY, "module": module_reader._KEYS,
             "circuit": supply_reader.CIRCUIT_KEYS, "circuit.part": supply_reader.ANY_PART_KEY,
             "source": SOURCE_KEYS, "search": search}
+
+
+def tables() -> tuple[str, ...]:
+    """Every table a design file may hold, as the design reader lists them (the check's, then the optional
+    ones, then those read by other commands)."""
+    return (*reader._TOP[1:], *reader._OPTIONAL, *reader._FEATURE_TABLES)
 
 
 def choices() -> dict[str, tuple[str, ...]]:
@@ -147,12 +153,14 @@ def _table_schema(table: str) -> dict:
 def design_schema() -> dict:
     """The whole design file's JSON Schema (draft 2020-12)."""
     props = {"title": value_schema("[top] title", FIELDS["[top] title"])}
-    for table, _ in TABLES:
+    for table in tables():
         t = _table_schema(table)
         props[table] = {"type": "array", "minItems": 1, "items": t,
                         "description": "heat sources on the mounting face, one [[source]] table each "
                                        "(instead of [heat])"} if table == "source" else t
-    required = ["title"] + [t for t, need in TABLES if need and t != "heat"]
+    # the reader's own list: every table of _TOP but the title and [correlations] is required ([heat] or
+    # [[source]]: the anyOf below)
+    required = ["title"] + [t for t in reader._TOP[1:-1] if t != "heat"]
     return {"$schema": DRAFT, "title": "coldplate design file", "type": "object", "properties": props,
             "required": required, "additionalProperties": False,
             "anyOf": [{"required": ["heat"]}, {"required": ["source"]}],
