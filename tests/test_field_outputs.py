@@ -262,3 +262,117 @@ def test_the_network_with_several_sources_says_it_smears_them():
     assert "network-smears-sources" in ids(solve(design_from_dict(THREE)))
     assert "network-smears-sources" not in ids(three())
     assert "network-smears-sources" not in ids(solve(design_from_dict(example_dict())))
+
+
+# ------------------------------------------------------------------------------------------------ figures
+
+def _svg(func, r, units="si"):
+    from reports import plots
+    from reports.display_units import DisplayUnits
+
+    return plots.draw(func, r, DisplayUnits(units), name="t")
+
+
+def _labels(svg):
+    """The texts matplotlib drew (as paths, each preceded by its text in a comment)."""
+    return re.findall(r"<!-- (.*?) -->", svg)
+
+
+def _png_pixels(svg):
+    """The RGB pixels of every image embedded in the SVG (the rasterized map and its colour bar)."""
+    import base64
+    from matplotlib import image
+
+    out = []
+    for data in re.findall(r'xlink:href="data:image/png;base64,([^"]+)"', svg):
+        px = image.imread(io.BytesIO(base64.b64decode("".join(data.split()))), format="png")
+        rgb = px[..., :3].reshape(-1, 3)
+        out.append(rgb[px[..., 3].ravel() > 0.99])
+    return out
+
+
+def _outline_aspect(svg):
+    """Width / height of the plate outline's path (its id is set in plots.plate_top)."""
+    g = re.search(r'<g id="t-plate-outline">\s*<path d="([^"]+)"', svg)
+    nums = np.array([float(v) for v in re.findall(r"-?\d+(?:\.\d+)?", g.group(1))]).reshape(-1, 2)
+    return np.ptp(nums[:, 0]) / np.ptp(nums[:, 1])
+
+
+@pytest.mark.parametrize("example", ["three-sources-channels", "laser-mount-tube", "detector-cavity-glycol"])
+def test_top_view_is_to_scale_with_one_label_per_source(example):
+    # source: the design's own plate (length x width) and sources; drawn to scale (equal axes)
+    r = solve(design_from_dict(tomllib.loads((ROOT / "examples" / f"{example}.toml").read_text())))
+    from reports.plots import plate_top
+
+    svg = _svg(plate_top, r)
+    labels = _labels(svg)
+    for s in r.design.sources:
+        assert labels.count(s.name) == 1, (s.name, labels)
+    assert _outline_aspect(svg) == pytest.approx(r.design.plate.length / r.design.plate.width, rel=2e-3)
+    assert "flow, +x" in labels and "+y" in labels
+    kind = r.design.passage.kind
+    assert {"channels": "channels", "tube": "tube (serpentine)", "cavity": "cavity"}[kind] in labels
+    if kind == "channels":
+        assert "plenums" in labels and "ports" in labels
+
+
+def test_face_map_uses_cividis_with_isotherms_and_each_hottest_point():
+    # source: cividis, a perceptually uniform colour map readable with colour-vision deficiencies (Nuñez,
+    # Anderton & Renslow 2018, from memory; matplotlib's own table); the map's values are the field's
+    from matplotlib import colormaps
+    from reports.plots import ISOTHERMS, face_map
+
+    r = three()
+    svg = _svg(face_map, r)
+    table = colormaps["cividis"](np.linspace(0, 1, 256))[:, :3]
+    jet = colormaps["jet"](np.linspace(0, 1, 256))[:, :3]
+    images = _png_pixels(svg)
+    assert len(images) == 2  # the map and its colour bar
+    for px in images:
+        far = np.min(np.linalg.norm(px[:, None, :] - table[None, :, :], axis=2), axis=1)
+        assert far.max() < 0.03  # every pixel is a cividis colour (8-bit rounding and resampling)
+        off_jet = np.min(np.linalg.norm(px[:, None, :] - jet[None, 128:160, :], axis=2), axis=1)
+        assert off_jet.min() > 0.1  # none of a rainbow's greens
+    labels = _labels(svg)
+    assert "mounting face [°C]" in labels
+    numbers = [float(v) for v in labels if re.fullmatch(r"\d+\.\d", v)]
+    lo, hi = r.field.face.min() - 273.15, r.field.face.max() - 273.15
+    assert len(set(numbers)) >= ISOTHERMS // 2 and all(lo <= v <= hi for v in numbers)  # labelled isotherms
+    for s in r.sources:
+        assert labels.count(s.name) == 1
+        assert f'id="t-hottest-{s.name}"' in svg
+    assert _svg(face_map, r, "us").count("mounting face [°F]") == 1
+
+
+def test_coolant_plot_has_one_line_per_channel():
+    # source: the field's own coolant array (Result.field.bulk: one row per channel)
+    from reports.plots import coolant_along
+
+    r = three()
+    svg = _svg(coolant_along, r)
+    n = r.field.bulk.shape[0]
+    assert f"Coolant along the flow, each of {n} channels" in _labels(svg)
+    paths = re.findall(r'<g id="t-channel-(\d+)">\s*<path d="([^"]+)"', svg)
+    assert sorted(int(i) for i, _ in paths) == list(range(1, n + 1))
+    for _, d in paths:  # every point along the flow where the field holds a bulk temperature
+        assert d.count("L") + 1 == r.field.bulk_x.size
+
+
+def test_report_with_the_field_has_the_map_section_in_both_layouts(tmp_path, monkeypatch):
+    # source: the project's report contract (both layouts carry the same sections and figures)
+    import coldplate.check
+    from coldplate import cli
+
+    r = three()
+    monkeypatch.setattr(coldplate.check, "solve", lambda design: r)  # the stand-in's result
+    src = ROOT / "examples" / "three-sources-channels.toml"
+    assert cli.main(["report", str(src), "-o", str(tmp_path / "r.html")]) == 0
+    html = (tmp_path / "r.html").read_text()
+    for fig in ("plate", "facemap", "coolant"):
+        assert f'id="fig-{fig}"' in html
+    assert "Mounting-face temperature map" in html and "sensor: hottest mounting face" in html
+    assert cli.main(["report", str(src), "-o", str(tmp_path / "r.md")]) == 0
+    md = (tmp_path / "r.md").read_text()
+    for fig in ("plate", "facemap", "coolant"):
+        assert f"r.{fig}.svg" in md and (tmp_path / f"r.{fig}.svg").is_file()
+    assert "| bridge |" in md  # the coupling table
