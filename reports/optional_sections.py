@@ -163,7 +163,11 @@ def source_rows(r, u: DisplayUnits) -> list[Row]:
     for s in r.design.sources:
         where = (f"{u.fmt('length', s.size[0])} × {u.fmt('length', s.size[1])} {u.label('length')} at x = "
                  f"{u.fmt('length', s.at[0])}, y = {u.fmt('length', s.at[1])} {u.label('length')}")
-        rows.append(Row(f"{s.name}: load, size and place", u.fmt("power", s.load), f"{u.label('power')}; {where}"))
+        if math.isnan(s.load):  # a module array: the modules' hot-side heat is the plate's load
+            load, unit = u.fmt("power", r.load), f"{u.label('power')} (the modules' hot-side heat); {where}"
+        else:
+            load, unit = u.fmt("power", s.load), f"{u.label('power')}; {where}"
+        rows.append(Row(f"{s.name}: load, size and place", load, unit))
         o = by_name.get(s.name)
         if o is not None:
             limit = ("no limit given" if o.margin is None else
