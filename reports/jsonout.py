@@ -72,7 +72,7 @@ def sources_dict(r) -> dict:
     """The plate model and each heat source's own figures (the field model gives them; the network none)."""
     return {
         "model": r.model,
-        "sources": [{"name": s.name, "load_W": s.load, "face_max_C": _c(s.face_max),
+        "sources": [{"name": s.name, "load_W": _finite_or_none(s.load), "face_max_C": _c(s.face_max),
                      "face_mean_C": _finite_or_none(_c(s.face_mean)),
                      "limit_C": None if s.limit is None else _c(s.limit), "margin_K": s.margin,
                      "resistance_K_per_W": _finite_or_none(s.resistance(r.T_in)),

@@ -183,7 +183,7 @@ def field_section(r, u: DisplayUnits, figures, model: str) -> Section:
     """The field's mounting-face map, the coolant per channel and the coupling between sources."""
     paras = [f"Model: {model}. The map is the mounting face on the plate side of any interface (a source's own "
              "face adds its interface's rise); isotherms are labelled in " + u.label("temperature") + ".",
-             "Coupling: the mean face rise of the row's source per watt of the column's (" +
+             "Coupling: the mean face rise of the row's source per unit heat of the column's (" +
              u.label("thermal_resistance") + "); the coolant carries heat downstream, so the matrix need not "
              "be symmetric."]
     names = tuple(s.name for s in r.sources)

@@ -50,10 +50,12 @@ def source_lines(r, u: DisplayUnits, table) -> list[str]:
         margin = ("no limit given" if s.margin is None else
                   f"margin {format(u.value('temperature_difference', s.margin), '+.2f')} {dK} to "
                   f"{t(s.limit)} {deg}")
-        rows.append((f"{s.name} ({format_number(u.value('power', s.load), 'power')} {u.label('power')})",
-                     t(s.face_max), f"{deg} hottest{mean}; "
-                     f"{format_number(u.value('thermal_resistance', s.resistance(r.T_in)), 'thermal_resistance')} "
-                     f"{R_unit} own; {margin}"))
+        alone = s.load != s.load and len(S) == 1  # NaN: a module array, whose heat is the plate's load
+        load, R = (r.load, r.R_th) if alone else (s.load, s.resistance(r.T_in))
+        shown = "?" if load != load else format_number(u.value("power", load), "power")
+        own = "—" if R != R else format_number(u.value("thermal_resistance", R), "thermal_resistance")
+        rows.append((f"{s.name} ({shown} {u.label('power')})",
+                     t(s.face_max), f"{deg} hottest{mean}; {own} {R_unit} own; {margin}"))
     out = table(rows, "Heat sources: hottest mounting face, mean, own resistance (hottest - inlet) / own load")
     out.append("")
     C = r.coupling
@@ -61,7 +63,7 @@ def source_lines(r, u: DisplayUnits, table) -> list[str]:
         names = [s.name for s in S]
         w = max(len(n) for n in names)
         cw = max(10, w)
-        title = f"Coupling: mean face rise of the row's source per watt of the column's [{R_unit}]"
+        title = f"Coupling: mean face rise of the row's source per unit heat of the column's [{R_unit}]"
         out += [title, "-" * len(title), "  " + " " * w + "".join(f"  {n:>{cw}}" for n in names)]
         for n, row in zip(names, C):
             out.append(f"  {n:<{w}}" + "".join(
