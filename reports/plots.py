@@ -358,7 +358,7 @@ def face_map(result, u: DisplayUnits) -> Figure:
     bar.set_label(f"mounting face [{u.label('temperature')}]")
     ax.set_xlabel(f"x, from the inlet edge [{u.label('length')}]")
     ax.set_ylabel(f"y, across [{u.label('length')}]")
-    ax.set_title("Mounting-face temperature (plate side of the interface); × hottest point of each source",
+    ax.set_title("Mounting-face temperature, plate side of the interface\n(× the hottest point of each source)",
                  loc="left")
     return fig
 

@@ -70,7 +70,7 @@ def test_json_lists_every_source_with_its_own_figures():
     # source: the project's output contract (issue 13's keys); degC = K - 273.15 (SI Brochure, from memory);
     # own resistance = (hottest face - inlet) / own load (issue 13's definition)
     r = three()
-    j = json.loads(json.dumps(check_to_dict(r)))
+    j = json.loads(json.dumps(check_to_dict(r), allow_nan=False))  # strict JSON: no NaN anywhere
     assert j["model"] == "field"
     assert [s["name"] for s in j["sources"]] == ["bridge", "diode-bar", "sensor"]
     for s, f, d in zip(j["sources"], r.field.sources, r.design.sources):
@@ -119,6 +119,18 @@ def test_text_says_the_model_and_shows_each_source_and_the_coupling():
     coupling = block[block.index("Coupling"):]
     assert all(name in coupling for name in ("bridge", "diode-bar", "sensor"))
     assert f"{r.coupling[0][2]:.4g}" in coupling
+
+
+def test_text_in_us_units_converts_the_source_block():
+    # source: 1 K = 1.8 °F and °F = 1.8 °C + 32 (NIST SP 811, from memory); the field's own values
+    r = three()
+    text = render_text(r, units="us")
+    block = text[text.index("Heat sources"):text.index("Thermal resistance, hottest")]
+    s = r.sources[1]
+    assert f"{(s.face_max - 273.15) * 1.8 + 32:.2f}" in block
+    assert f"margin {s.margin * 1.8:+.2f} °F to {(s.limit - 273.15) * 1.8 + 32:.2f} °F" in block
+    assert "per unit heat" in block and "°F·h/BTU" in block
+    assert f"± {r.grid_uncertainty * 1.8:.4g} °F" in text
 
 
 def test_text_of_one_source_without_a_limit_has_no_source_block():
