@@ -89,6 +89,9 @@ def _parser() -> argparse.ArgumentParser:
     from coldplate import commands
 
     commands.add_check_options(c)
+    c.add_argument("--map", metavar="OUT.csv", help="also write the mounting-face temperature map (x_m, y_m, T_C; "
+                                                     "field model only)")
+    c.add_argument("--force", action="store_true", help="replace an existing --map file")
     r = sub.add_parser("report", help="write a design report: one self-contained HTML file, or Markdown")
     r.add_argument("file", help="design file (TOML)")
     r.add_argument("-o", "--output", required=True, help="report file: NAME.html, or NAME.md (figures beside it)")
@@ -189,6 +192,24 @@ def _curves(args, version) -> str:
     return text
 
 
+def _map_target(path, force) -> None:
+    """Refuse a ``--map`` target before solving: an existing file without --force, a missing folder."""
+    from reports.make import check_targets
+
+    try:
+        check_targets([path], force)
+    except DesignError as exc:
+        raise DesignError("--map", exc.problem) from None
+
+
+def _write_map(result, path) -> None:
+    """``check --map``: the face map, written whole or not at all (refused for a result without a field)."""
+    from reports.fieldmap import render_face_map
+    from reports.make import write_atomic
+
+    write_atomic(path, render_face_map(result))
+
+
 def main(argv=None) -> int:
     debug = bool(os.environ.get("COLDPLATE_DEBUG"))
     previous = {}
@@ -248,7 +269,11 @@ def _run(argv, debug: bool) -> int:
         else:
             from coldplate.check import check_file
 
+            if args.map:
+                _map_target(args.map, args.force)
             result = check_file(args.file)
+            if args.map:
+                _write_map(result, args.map)
             if args.format == "json":
                 from reports.jsonout import render_json
 

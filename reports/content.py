@@ -11,7 +11,9 @@ import dataclasses
 import hashlib
 import math
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
-from .optional_sections import circuit_section, module_inputs, module_section, planning_section
+from .optional_sections import (circuit_section, field_section, module_inputs, module_section, planning_section,
+                                source_rows)
+from .text import model_line
 
 
 from .report_model import Figure, Finding, Report, Row, Section  # noqa: F401 (re-exported)
@@ -201,7 +203,8 @@ def summary(r, units: str = "si") -> tuple[str, str, tuple[Row, ...], tuple[Find
 
 def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: str = "",
                  source_name: str = "", source_bytes: bytes = b"") -> Report:
-    """Gather a report.  ``figures`` maps names (breakdown, profile, flow, water, module, circuit) to SVG text."""
+    """Gather a report.  ``figures`` maps names (breakdown, profile, flow, plate, facemap, coolant, water,
+    module, circuit) to SVG text."""
     u = DisplayUnits(units)
 
     def fig(name, caption):
@@ -210,6 +213,11 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     findings = report_findings(r, u)
     sections = [
         _inputs(r, u),
+        Section("plate", "The plate and its heat sources",
+                (f"Model: {model_line(r, u)}. Seen from above, to scale: x along the flow from the inlet edge, "
+                 "y across from the centre line, positive on the left of the flow.",),
+                rows=tuple(source_rows(r, u)),
+                figures=fig("plate", "The plate from above with its passage and every heat source.")),
         _breakdown(r, u, fig("breakdown", "Parts of the thermal resistance, hottest point to inlet water.")),
         Section("profile", "Temperatures along the flow path",
                 ("Mounting face within the footprint (plate top plus the interface's rise), plate top face and "
@@ -218,6 +226,11 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
         _flow(curve, fit, u, fig("flow", "Thermal resistance and pressure drop against flow; design point marked."),
               r.module is not None),
     ]
+    if r.field is not None:
+        sections.append(field_section(r, u, fig("facemap", "Mounting-face temperature map with isotherms; each "
+                                                "source's hottest point marked.")
+                                      + fig("coolant", "Coolant temperature along the flow in each channel."),
+                                      model_line(r, u)))
     module = r.module
     if module is not None:
         sections.append(module_section(module, u, fig("module", "Thermoelectric current sweep; coldest current marked.")))

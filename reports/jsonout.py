@@ -60,6 +60,25 @@ def result_to_dict(r, version: str = "") -> dict:
         "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
                      for f in r.findings],
         **supply_dict(r),
+        **sources_dict(r),
+    }
+
+
+def _finite_or_none(x):
+    return None if x is None or x != x else x
+
+
+def sources_dict(r) -> dict:
+    """The plate model and each heat source's own figures (the field model gives them; the network none)."""
+    return {
+        "model": r.model,
+        "sources": [{"name": s.name, "load_W": _finite_or_none(s.load), "face_max_C": _c(s.face_max),
+                     "face_mean_C": _finite_or_none(_c(s.face_mean)),
+                     "limit_C": None if s.limit is None else _c(s.limit), "margin_K": s.margin,
+                     "resistance_K_per_W": _finite_or_none(s.resistance(r.T_in)),
+                     "hottest_at_m": list(s.hottest_at)} for s in r.sources],
+        "coupling_K_per_W": [[float(v) for v in row] for row in r.coupling],
+        "grid_uncertainty_K": _finite_or_none(r.grid_uncertainty) if r.model == "field" else None,
     }
 
 

@@ -34,7 +34,12 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
         "breakdown": plots.draw(plots.breakdown, r, u, name="breakdown"),
         "profile": plots.draw(plots.profile, r, face, u, name="profile"),
         "flow": plots.draw(plots.flow_curves, curve, fit, u, name="flow"),
+        "plate": plots.draw(plots.plate_top, r, u, name="plate"),
     }
+    if r.field is not None:
+        figs["facemap"] = plots.draw(plots.face_map, r, u, name="facemap")
+        if r.field.bulk.size:
+            figs["coolant"] = plots.draw(plots.coolant_along, r, u, name="coolant")
     planning = r.planning
     if planning is not None and len(planning.use_curve.T_face):
         T_min, use_min = planning.T_face_at_min, planning.water_m3_per_year_min

@@ -1,5 +1,6 @@
 """Report sections for the optional parts of a result: thermoelectric modules (``result.module``), the supply
-circuit (``result.circuit``) and water planning (``result.planning``), and the ``[module]`` inputs.
+circuit (``result.circuit``), water planning (``result.planning``), the field's map and coupling
+(``result.field``), and the ``[module]`` inputs.
 
 Formatting only, against the field names of coldplate.modules.result and coldplate.supply.result.
 """
@@ -152,3 +153,44 @@ def planning_section(p, u: DisplayUnits, figures) -> Section:
         if b.payback_years is not None:
             rows.append(Row("chiller payback", format_number(b.payback_years), "years", "planning.chiller.payback_years"))
     return Section("water", "Water use and planning", rows=tuple(rows), figures=figures)
+
+
+def source_rows(r, u: DisplayUnits) -> list[Row]:
+    """One row per heat source: load, where it sits, and (from the field model) its own figures."""
+    deg, dK = u.label("temperature"), u.label("temperature_difference")
+    by_name = {s.name: s for s in r.sources}
+    rows = []
+    for s in r.design.sources:
+        where = (f"{u.fmt('length', s.size[0])} × {u.fmt('length', s.size[1])} {u.label('length')} at x = "
+                 f"{u.fmt('length', s.at[0])}, y = {u.fmt('length', s.at[1])} {u.label('length')}")
+        if math.isnan(s.load):  # a module array: the modules' hot-side heat is the plate's load
+            load, unit = u.fmt("power", r.load), f"{u.label('power')} (the modules' hot-side heat); {where}"
+        else:
+            load, unit = u.fmt("power", s.load), f"{u.label('power')}; {where}"
+        rows.append(Row(f"{s.name}: load, size and place", load, unit))
+        o = by_name.get(s.name)
+        if o is not None:
+            limit = ("no limit given" if o.margin is None else
+                     f"margin {u.fmt('temperature_difference', o.margin)} {dK} to {u.fmt('temperature', o.limit)} {deg}")
+            mean = "" if math.isnan(o.face_mean) else f"mean {u.fmt('temperature', o.face_mean)} {deg}; "
+            rows.append(Row(f"{s.name}: hottest mounting face", u.fmt("temperature", o.face_max),
+                            f"{deg}; {mean}own {u.fmt('thermal_resistance', o.resistance(r.T_in))} "
+                            f"{u.label('thermal_resistance')}; {limit}"))
+    return rows
+
+
+def field_section(r, u: DisplayUnits, figures, model: str) -> Section:
+    """The field's mounting-face map, the coolant per channel and the coupling between sources."""
+    paras = [f"Model: {model}. The map is the mounting face on the plate side of any interface (a source's own "
+             "face adds its interface's rise); isotherms are labelled in " + u.label("temperature") + ".",
+             "Coupling: the mean face rise of the row's source per unit heat of the column's (" +
+             u.label("thermal_resistance") + "); the coolant carries heat downstream, so the matrix need not "
+             "be symmetric."]
+    names = tuple(s.name for s in r.sources)
+    table = ()
+    if len(names) > 1 and len(r.coupling) == len(names):
+        table = (("source", *names),) + tuple(
+            (n, *(u.fmt("thermal_resistance", v) for v in row)) for n, row in zip(names, r.coupling))
+    else:
+        paras = paras[:1]
+    return Section("field", "Mounting-face temperature map", tuple(paras), table=table, figures=figures)

@@ -231,3 +231,161 @@ def system_curve(circuit, u: DisplayUnits) -> Figure:
     ax.set_title(f"Supply circuit ({circuit.drive} drive)", loc="left")
     ax.legend(fontsize=8)
     return fig
+
+
+# ------------------------------------------------------------------ the plate seen from above, and its field
+
+#: The sequential colour map of the temperature map: perceptually uniform and readable with the common
+#: colour-vision deficiencies (Nuñez, Anderton & Renslow 2018, from memory); never a rainbow.
+FACE_CMAP = "cividis"
+#: Isotherms drawn on the temperature map.
+ISOTHERMS = 8
+
+
+def _passage_outline(ax, result, L: float, W: float) -> None:
+    """The passage under the face, in display units: channels and plenums, the tube's passes, or the cavity."""
+    from matplotlib.patches import Arc, Circle, Rectangle
+
+    d, p = result.design, result.design.passage
+    off = result.geometry.cooled_offset * L / d.plate.length
+    ports = []
+    if p.kind == "channels":
+        pitch = (W - p.count * p.width * W / d.plate.width) / (p.count + 1)
+        w = p.width * W / d.plate.width
+        for i in range(p.count):
+            y0 = -W / 2 + pitch * (i + 1) + w * i
+            ax.add_patch(Rectangle((off, y0), L - 2 * off, w, facecolor="#cfe3f3", edgecolor=SKY, linewidth=0.5,
+                                   label="channels" if i == 0 else None))
+        if off > 0:
+            for x in (0.0, L - off):
+                ax.add_patch(Rectangle((x, -W / 2), off, W, facecolor="#e7f0f7", edgecolor=SKY, linewidth=0.6,
+                                       hatch="///", label="plenums" if x == 0.0 else None))
+        if p.port_diameter:
+            ports = [(off / 2 if off else 0.0, p.port_diameter * L / d.plate.length),
+                     (L - off / 2 if off else L, p.port_diameter * L / d.plate.length)]
+    elif p.kind == "tube":  # passes along the plate, return bends beyond its ends (coldplate.plate.passages.tube)
+        from matplotlib.patches import Wedge
+
+        k = W / d.plate.width
+        pitch, do = 2 * (p.bend_radius or 0.0) * k, p.outer_diameter * k
+        ys = [(i - (p.passes - 1) / 2) * pitch for i in range(p.passes)]
+        for i, y in enumerate(ys):
+            ax.add_patch(Rectangle((0, y - do / 2), L, do, facecolor="#cfe3f3", edgecolor=SKY, linewidth=0.6,
+                                   label="tube (serpentine)" if i == 0 else None))
+        for i in range(p.passes - 1):
+            x = L if i % 2 == 0 else 0.0
+            ax.add_patch(Wedge((x, (ys[i] + ys[i + 1]) / 2), pitch / 2 + do / 2, -90 if x else 90, 90 if x else 270,
+                               width=do, facecolor="#cfe3f3", edgecolor=SKY, linewidth=0.6))
+    else:  # cavity: one pocket under the whole face, a port at each end on the centre line
+        ax.add_patch(Rectangle((0.02 * L, -0.48 * W), 0.96 * L, 0.96 * W, facecolor="#e7f0f7", edgecolor=SKY,
+                               linewidth=0.8, linestyle="--", label="cavity"))
+        ports = [(0.04 * L, p.port_diameter * L / d.plate.length), (0.96 * L, p.port_diameter * L / d.plate.length)]
+    for i, (x, dia) in enumerate(ports):
+        ax.add_patch(Circle((x, 0.0), dia / 2, facecolor="white", edgecolor=BLUE, linewidth=1.0,
+                            label="ports" if i == 0 else None))
+
+
+def _sources_on(ax, result, u: DisplayUnits, *, filled: bool) -> None:
+    """Every source's rectangle with its name (display lengths)."""
+    from matplotlib.patches import Rectangle
+
+    for s in result.design.sources:
+        x0, x1, y0, y1 = (u.value("length", e) for e in s.edges())
+        ax.add_patch(Rectangle((x0, y0), x1 - x0, y1 - y0, facecolor=ORANGE if filled else "none",
+                               alpha=0.85 if filled else 1.0, edgecolor=BLACK if filled else "white",
+                               linewidth=1.0))
+        ax.annotate(s.name, ((x0 + x1) / 2, (y0 + y1) / 2), ha="center", va="center", fontsize=8,
+                    color=BLACK if filled else "white", gid=f"source-label-{s.name}")
+
+
+def _axes_arrows(ax, L: float, W: float) -> None:
+    """The flow's direction (+x, from the inlet edge) and +y, drawn beside the plate."""
+    ax.annotate("", (0.25 * L, -0.62 * W), (0.0, -0.62 * W),
+                arrowprops={"arrowstyle": "-|>", "color": BLUE, "linewidth": 1.4})
+    ax.annotate("flow, +x", (0.27 * L, -0.62 * W), va="center", fontsize=8, color=BLUE)
+    ax.annotate("", (-0.15 * L, 0.3 * W), (-0.15 * L, 0.0),
+                arrowprops={"arrowstyle": "-|>", "color": BLACK, "linewidth": 1.2})
+    ax.annotate("+y", (-0.15 * L, 0.33 * W), ha="center", fontsize=8)
+
+
+def plate_top(result, u: DisplayUnits) -> Figure:
+    """The plate seen from above, to scale: outline, passage, plenums and ports, every source labelled."""
+    from matplotlib.patches import Rectangle
+
+    d = result.design
+    L, W = u.value("length", d.plate.length), u.value("length", d.plate.width)
+    fig, (ax,) = _figure(min(1.2 + 5.0 * W / L, 6.0))
+    ax.grid(False)
+    ax.add_patch(Rectangle((0, -W / 2), L, W, facecolor="#f4f4f4", edgecolor=BLACK, linewidth=1.4,
+                           gid="plate-outline", label="plate"))
+    _passage_outline(ax, result, L, W)
+    _sources_on(ax, result, u, filled=True)
+    ax.axhline(0.0, color="#888888", linestyle=(0, (6, 4)), linewidth=0.6)
+    _axes_arrows(ax, L, W)
+    ax.set_xlim(-0.2 * L, 1.12 * L)
+    ax.set_ylim(-0.72 * W, 0.6 * W)
+    ax.set_aspect("equal")
+    ax.set_xlabel(f"x, from the inlet edge [{u.label('length')}]")
+    ax.set_ylabel(f"y, across [{u.label('length')}]")
+    ax.set_title("The plate from above (to scale), heat sources on the mounting face", loc="left")
+    ax.legend(loc="center left", bbox_to_anchor=(1.0, 0.5), fontsize=8)
+    return fig
+
+
+def face_map(result, u: DisplayUnits) -> Figure:
+    """The mounting-face temperature map (plate side of any interface) with labelled isotherms, each source
+    outlined and its hottest point marked; colour bar in the display's temperature unit."""
+    f, d = result.field, result.design
+    L, W = u.value("length", d.plate.length), u.value("length", d.plate.width)
+    X, Y = u.value("length", f.face_x), u.value("length", f.face_y)
+    T = u.value("temperature", f.face).T  # (ny, nx): y up
+    fig, (ax,) = _figure(min(1.4 + 5.0 * W / L, 6.0))
+    ax.grid(False)
+    # drawn as an embedded image: 10⁴ cells as vector paths would make a page of megabytes
+    mesh = ax.pcolormesh(X, Y, T, cmap=FACE_CMAP, shading="nearest", rasterized=True)
+    levels = np.linspace(float(T.min()), float(T.max()), ISOTHERMS + 2)[1:-1]
+    iso = ax.contour(X, Y, T, levels=levels, colors="white", linewidths=0.7)
+    ax.clabel(iso, fmt=lambda v: f"{v:.1f}", fontsize=7, colors="white")
+    _sources_on(ax, result, u, filled=False)
+    for s in result.sources:
+        hx, hy = (u.value("length", v) for v in s.hottest_at)
+        ax.plot([hx], [hy], marker="x", color=VERMILION, markersize=7, markeredgewidth=2.0, linestyle="none",
+                gid=f"hottest-{s.name}")
+    ax.set_xlim(0, L)
+    ax.set_ylim(-W / 2, W / 2)
+    ax.set_aspect("equal")
+    bar = fig.colorbar(mesh, ax=ax, shrink=0.9)
+    bar.set_label(f"mounting face [{u.label('temperature')}]")
+    ax.set_xlabel(f"x, from the inlet edge [{u.label('length')}]")
+    ax.set_ylabel(f"y, across [{u.label('length')}]")
+    ax.set_title("Mounting-face temperature, plate side of the interface\n(× the hottest point of each source)",
+                 loc="left")
+    return fig
+
+
+def coolant_along(result, u: DisplayUnits) -> Figure:
+    """Each channel's coolant bulk temperature along the flow (``Result.field.bulk``), the sources' spans
+    along the flow shaded."""
+    from matplotlib import colormaps
+
+    f = result.field
+    fig, (ax,) = _figure(3.2)
+    n = f.bulk.shape[0]
+    colours = colormaps[FACE_CMAP](np.linspace(0.0, 0.85, max(n, 1)))
+    spans = []
+    for s in result.design.sources:
+        x0, x1 = (u.value("length", e) for e in s.edges()[:2])
+        row = sum(1 for a, b in spans if min(b, x1) > max(a, x0))  # names of sources side by side stack
+        spans.append((x0, x1))
+        ax.axvspan(x0, x1, color="#eeeeee")
+        ax.annotate(s.name, ((x0 + x1) / 2, 0.98 - 0.07 * row), xycoords=("data", "axes fraction"), ha="center",
+                    va="top", fontsize=7)
+    x = u.value("length", f.bulk_x)
+    for i in range(n):
+        ax.plot(x, u.value("temperature", f.bulk[i]), color=colours[i], linewidth=1.0,
+                label=f"channel {i + 1}" if i in (0, n - 1) else None, gid=f"channel-{i + 1}")
+    ax.set_xlabel(f"distance from the inlet edge [{u.label('length')}]")
+    ax.set_ylabel(f"coolant bulk temperature [{u.label('temperature')}]")
+    ax.set_title(f"Coolant along the flow, each of {n} channels", loc="left")
+    ax.legend(fontsize=8, loc="lower right")
+    return fig

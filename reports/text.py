@@ -22,6 +22,56 @@ def _table(rows, title):
     return lines
 
 
+def model_line(r, u: DisplayUnits) -> str:
+    """Which plate model produced the temperatures, in words (the text summary and the report)."""
+    f = r.field
+    if r.model == "field" and f is not None:
+        unc = r.grid_uncertainty
+        grid = (f", grid uncertainty ± {format_number(u.value('temperature_difference', unc), 'temperature_difference')}"
+                f" {u.label('temperature_difference')}" if unc is not None and unc == unc else "")
+        return f"field: 3-D finite-volume solve, {f.cells:,} cells{grid}"
+    return "network: resistance network (spreading series over the smeared back side)"
+
+
+def source_lines(r, u: DisplayUnits, table) -> list[str]:
+    """Per heat source (when there are several, or one has a limit) and the coupling (several sources)."""
+    S = r.sources
+    if not S or (len(S) == 1 and S[0].limit is None):
+        return []
+    deg, dK = u.label("temperature"), u.label("temperature_difference")
+    R_unit = u.label("thermal_resistance")
+
+    def t(x):
+        return format(u.value("temperature", x), ".2f")
+
+    rows = []
+    for s in S:
+        mean = "" if s.face_mean != s.face_mean else f", mean {t(s.face_mean)}"
+        margin = ("no limit given" if s.margin is None else
+                  f"margin {format(u.value('temperature_difference', s.margin), '+.2f')} {dK} to "
+                  f"{t(s.limit)} {deg}")
+        alone = s.load != s.load and len(S) == 1  # NaN: a module array, whose heat is the plate's load
+        load, R = (r.load, r.R_th) if alone else (s.load, s.resistance(r.T_in))
+        shown = "?" if load != load else format_number(u.value("power", load), "power")
+        own = "—" if R != R else format_number(u.value("thermal_resistance", R), "thermal_resistance")
+        rows.append((f"{s.name} ({shown} {u.label('power')})",
+                     t(s.face_max), f"{deg} hottest{mean}; {own} {R_unit} own; {margin}"))
+    out = table(rows, "Heat sources: hottest mounting face, mean, own resistance (hottest - inlet) / own load")
+    out.append("")
+    C = r.coupling
+    if len(S) > 1 and len(C) == len(S):
+        names = [s.name for s in S]
+        w = max(len(n) for n in names)
+        cw = max(10, w)
+        title = f"Coupling: mean face rise of the row's source per unit heat of the column's [{R_unit}]"
+        out += [title, "-" * len(title), "  " + " " * w + "".join(f"  {n:>{cw}}" for n in names)]
+        for n, row in zip(names, C):
+            out.append(f"  {n:<{w}}" + "".join(
+                f"  {format_number(u.value('thermal_resistance', v), 'thermal_resistance'):>{cw}}" for v in row))
+        out.append("")
+    return out
+
+
 def render_text(r, version: str = "", units: str = "si") -> str:
     d = r.design
     u = DisplayUnits(units)
@@ -65,9 +115,11 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     ]
     out = [f"{d.title}", "=" * min(len(d.title), WIDTH),
            f"passage: {passage_line(r.geometry, u)}",
-           f"coolant: {d.coolant.label()}; supply: {d.supply.source}", ""]
+           f"coolant: {d.coolant.label()}; supply: {d.supply.source}",
+           f"model: {model_line(r, u)}", ""]
     out += _table(rows, "Result")
     out.append("")
+    out += source_lines(r, u, _table)
     R_unit = u.label("thermal_resistance")
     parts = [(name, v("thermal_resistance", value), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
              for name, value in r.resistances]

@@ -112,7 +112,7 @@ def test_html_parses_and_has_every_section(reports):
         for sec in ("results", "findings", "inputs", "breakdown", "profile", "flow", "methods", "assumptions",
                     "trace"):
             assert sec in page.sections, (name, sec)
-        expected = {"fig-breakdown", "fig-profile", "fig-flow"}
+        expected = {"fig-plate", "fig-breakdown", "fig-profile", "fig-flow"}
         r = check_file(path)
         if r.design.supply.once_through or r.planning is not None:
             expected.add("fig-water")
@@ -298,7 +298,8 @@ def test_markdown_report_and_its_figures(tmp_path):
     assert main(["report", str(source), "-o", str(out)]) == 0
     text = out.read_text(encoding="utf-8")
     links = re.findall(r"!\[[^\]]*\]\(([^)]+)\)", text)
-    assert set(links) == {"plate.breakdown.svg", "plate.profile.svg", "plate.flow.svg", "plate.water.svg"}
+    assert set(links) == {"plate.plate.svg", "plate.breakdown.svg", "plate.profile.svg", "plate.flow.svg",
+                          "plate.water.svg"}
     for link in links:
         root = ET.parse(tmp_path / link).getroot()
         assert root.tag == SVG_NS + "svg" and len(root.findall(f".//{SVG_NS}path")) > 50

@@ -13,6 +13,7 @@ from hydraulics.circuit import Backflow
 from coldplate.plate import materials
 from coldplate.findings.base import (AIR_GAP_MIN, DEFER, DEVICE_LIMIT_DEFAULT, DEW_MARGIN, Finding, amount,
                                      back_pressure_causes, continuous_causes, degc, protection_choice, slug)
+from coldplate.findings.sources import from_heat_table
 
 #: Margin above the freezing point inside which ice is a risk [K] (common practice).
 FREEZE_MARGIN = 3.0
@@ -415,6 +416,8 @@ def footprint_over_plenum(r):
     off = r.geometry.cooled_offset
     d = r.design
     cooled = d.plate.length - 2 * off
+    if not from_heat_table(d):  # [[source]] tables: findings.sources.over_plenum places each source
+        return
     if off > 0 and d.heat.footprint_length > cooled * (1 + 1e-9):
         over = 0.5 * (d.heat.footprint_length - cooled)
         yield Finding(
