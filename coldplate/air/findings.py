@@ -14,6 +14,14 @@ TOUCH_LIMIT = 333.15
 HOT_EXHAUST = 323.15
 
 
+def _cold_faces(r) -> str:
+    a = r.air
+    if a.module is None or r.module is None:
+        return ""
+    return (f"; the modules' cold face is {degc(a.module.T_cold)} on it against {degc(r.module.T_cold)} on the "
+            f"water plate")
+
+
 def air_holds(r):
     """The air sink holds the face limit: the water could be saved."""
     a = r.air
@@ -31,8 +39,7 @@ def air_holds(r):
         f"An air sink holds the face limit ({degc(a.face_limit)}, {a.face_limit_from}): {s.fins} fins "
         f"{amount(s.fin_thickness * 1e3)} mm thick and {amount(s.fin_height * 1e3)} mm high on a "
         f"{amount(s.base * 1e3)} mm base, {amount(s.mass * 1e3)} g, with {drive}, keeps the hottest face at "
-        f"{degc(a.sink.T_face_max if a.module is None else a.sink.T_face_max)} ({amount(a.margin)} K to spare); "
-        f"{saved}.",
+        f"{degc(s.T_face_max)} ({amount(a.margin)} K to spare){_cold_faces(r)}; {saved}.",
         "Weigh the air sink against the water design (the comparison table); a fan and its wiring near the "
         "device need the usual electrical care. " + DEFER)
 
@@ -50,7 +57,7 @@ def air_short(r):
         msg = (f"No air sink in the envelope holds the face limit ({degc(a.face_limit)}, {a.face_limit_from}): "
                f"the best of {a.candidates:,} layouts ({s.fins} fins {amount(s.fin_thickness * 1e3)} mm thick and "
                f"{amount(s.fin_height * 1e3)} mm high) reaches {degc(s.T_face_max)}, {amount(-a.margin)} K over "
-               f"it; the water design holds the face at {degc(a.water_face)}.")
+               f"it; the water design holds the face at {degc(a.water_face)}{_cold_faces(r)}.")
     yield Finding("air-short", "note", msg,
                   "Keep the water design, or give the air sink more room (a larger envelope), a stronger fan or "
                   "a better interface.")

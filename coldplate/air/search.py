@@ -6,7 +6,7 @@ base to all of it.  Candidates whose gap is below the shop's narrowest or above 
 than the fins are tall is not the fin channel the correlations describe) are dropped.  Each candidate is
 solved with the air's properties at the inlet and the spreading interpolated in h (``sink.SpreadingTable``);
 the chosen one is solved again exactly by the stage.  The best: the lightest sink holding the face limit
-(fan power breaks ties), else the one with the coolest face.
+(fan power breaks ties), else the one with the coolest face; with thermoelectric modules the coolest face.
 """
 from __future__ import annotations
 
@@ -53,7 +53,7 @@ def evaluate(air, c: model.Candidates, load: float, fp: tuple[float, float], R_i
     table = model.SpreadingTable(air, *fp)
     area = air.length * air.width
     if air.drive == "natural":
-        props_at = lambda T: model.air_props(T, air.pressure)  # noqa: E731
+        props_at = model.air_props_table(air.temperature, air.pressure)
         hA = model.natural_conductance(c, load, air, props_at)[0]
         return air.temperature + load * (table.R_centroid(hA / area) + R_interface), None
     if air.drive == "fan":
@@ -69,13 +69,16 @@ def evaluate(air, c: model.Candidates, load: float, fp: tuple[float, float], R_i
     return np.where(ok, face, math.inf), Q
 
 
-def search(air, load: float, fp: tuple[float, float], R_interface: float, density: float) -> Found:
+def search(air, load: float, fp: tuple[float, float], R_interface: float, density: float,
+           coolest: bool = False) -> Found:
+    """The best candidate; ``coolest``: the coolest face whatever its mass (thermoelectric modules: a cooler hot
+    face is a colder cold face, so the lightest sink holding the hot-side limit is not the best)."""
     c = candidates(air)
     if c.N.size == 0:
         return Found(-1, c, np.array([]), None, 0, 0)
     face, Q = evaluate(air, c, load, fp, R_interface)
     holds = face <= air.face_limit
-    if holds.any():
+    if holds.any() and not coolest:
         m = model.mass(c, air, density)
         power = np.zeros_like(m) if Q is None else Q * model.pressure_drop(c, np.where(np.isfinite(Q), Q, 1.0),
                                                                             air, model.air_props(

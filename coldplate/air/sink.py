@@ -68,6 +68,20 @@ def air_props(T: float, p: float) -> AirProps:
     return AirProps(T, p, get("D"), get("V"), get("L"), get("C"))
 
 
+def air_props_table(T_low: float, p: float, span: float = 1200.0, step: float = 2.0):
+    """Dry-air properties as a function of arrays of temperature: CoolProp at nodes ``step`` K apart from
+    ``T_low`` over ``span`` K, interpolated linearly (for the search's many candidates; the chosen sink is
+    solved with CoolProp directly).  Returns ``props_at(T) -> AirProps`` of arrays."""
+    T = np.arange(T_low, T_low + span + step, step)
+    cols = {key: np.array([PropsSI(key, "T", float(x), "P", p, "Air") for x in T]) for key in ("D", "V", "L", "C")}
+
+    def props_at(Tq):
+        Tq = np.clip(np.asarray(Tq, dtype=float), T[0], T[-1])
+        return AirProps(Tq, p, *(np.interp(Tq, T, cols[k]) for k in ("D", "V", "L", "C")))
+
+    return props_at
+
+
 @dataclass
 class Candidates:
     """Fin arrays of equal length: count ``N``, thickness ``t`` [m], height ``H`` [m]."""
@@ -123,10 +137,10 @@ def natural_conductance(c: Candidates, P: float, air, props_at, iterations: int 
     once: hA grows with dT, so the difference is monotone); properties at the film temperature."""
     s = c.gap(air.width)
     T0 = air.temperature
-    lo, hi = np.full(c.N.shape, 1e-3), np.full(c.N.shape, 2000.0)
+    lo, hi = np.full(c.N.shape, 1e-3), np.full(c.N.shape, 1000.0)
 
     def at(dT):
-        pr = props_at(T0 + 0.5 * float(np.median(dT)))
+        pr = props_at(T0 + 0.5 * dT)
         El = corr.G0 * (1.0 / pr.T) * dT * s**4 / (pr.nu * pr.alpha * air.length)
         Nu = corr.Nu_vertical_channel_Bar_Cohen_Rohsenow(El)
         h = Nu * pr.k / s

@@ -55,7 +55,7 @@ def solve_sink(air, c: model.Candidates, load: float, fp, R_interface: float, de
     N, t, H = int(c.N[0]), float(c.t[0]), float(c.H[0])
     if air.drive == "natural":
         hA, h, Nu, eta, Bi, El, dT = (float(np.asarray(x)[0]) for x in model.natural_conductance(
-            c, load, air, lambda T: model.air_props(T, air.pressure)))
+            c, load, air, lambda T: model.air_props(float(np.asarray(T).ravel()[0]), air.pressure)))
         pr = model.air_props(T0 + 0.5 * dT, air.pressure)
         Q = V = Re = T_out = None
         dp, regime = 0.0, "natural convection"
@@ -151,7 +151,7 @@ def solve_air(design, water) -> AirResult:
     fp = (design.heat.footprint_length, design.heat.footprint_width)
     R_int = design.interface.resistance_area / (fp[0] * fp[1])
     load = water.load
-    found = search(air, load, fp, R_int, density)
+    found = search(air, load, fp, R_int, density, coolest=design.module is not None)
     if found.index < 0:
         if found.evaluated == 0:
             raise DesignError("[air] width", f"holds no two fins at the shop limits (fin {air.min_fin * 1e3:.3g} mm, "
@@ -171,7 +171,7 @@ def solve_air(design, water) -> AirResult:
         except SolveError as exc:
             refused = str(exc)
             face = math.inf
-    holds = face <= air.face_limit
+    holds = face <= air.face_limit and not (module is not None and module.shortfall)
     rows = [Comparison("hottest mounting face", "temperature", water.T_face_max, face if math.isfinite(face) else None),
             Comparison("water a year", "volume_per_year", water.water_use_m3_per_year, 0.0),
             Comparison("fan's air power", "power", None, sk.fan_power),
