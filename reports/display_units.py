@@ -32,6 +32,7 @@ KINDS = {
                                                  "us": ("Btu_it/(hour*ft**2*delta_degF)", "BTU/(h·ft²·°F)")}),
     "conductivity": ("W/(m*K)", {"si": ("W/(m*K)", "W/(m·K)"),
                                  "us": ("Btu_it/(hour*ft*delta_degF)", "BTU/(h·ft·°F)")}),
+    "mass": ("kg", {"si": ("g", "g"), "us": ("lb", "lb")}),
     "volume_per_day": ("L/day", {"si": ("L/day", "L/day"), "us": ("gallon/day", "gal/day")}),
     "volume_per_year": ("m**3/year", {"si": ("m**3/year", "m³/year"), "us": ("gallon/year", "gal/year")}),
     "area_resistance": ("K*m**2/W", {"si": ("K*m**2/W", "K·m²/W"),

@@ -33,6 +33,7 @@ class AirSink:
     regime: str
     T_air_in: float
     T_air_out: float | None  #: forced air only (natural: the rise is inside the correlation's coefficient)
+    R_air_rise: float  #: the air's rise over the load, (T_out - T_in) / P [K/W] (0 for natural convection)
     R_fins: float  #: 1 / hA [K/W]
     R_spreading: float  #: base's spreading and conduction at the footprint centre [K/W]
     R_interface: float  #: [K/W]

@@ -98,7 +98,7 @@ def solve_sink(air, c: model.Candidates, load: float, fp, R_interface: float, de
         fins=N, fin_thickness=t, fin_height=H, gap=s, base=air.base, length=air.length, width=air.width,
         height=air.base + H, material=air.material, mass=float(model.mass(c, air, density)[0]), drive=air.drive,
         flow=Q, velocity=V, dp=dp, fan_power=(Q or 0.0) * dp, Re=Re, Nu=Nu, h=h, eta_fin=eta, regime=regime,
-        T_air_in=T0, T_air_out=T_out, R_fins=1.0 / hA, R_spreading=sp.R_centroid - 1.0 / hA,
+        T_air_in=T0, T_air_out=T_out, R_air_rise=0.0 if T_out is None else (T_out - T0) / load, R_fins=1.0 / hA, R_spreading=sp.R_centroid - 1.0 / hA,
         R_interface=R_interface, R_th=(face - T0) / load, T_face_max=face, load=load, base_rise=dT,
         optimum_spacing=s_opt)
     return sk, methods
