@@ -64,10 +64,12 @@ class Air:
 
 
 def pressure_at_altitude(z: float) -> float:
-    """Pressure [Pa] of the ISO 2533 / ICAO standard atmosphere at geopotential altitude z [m] in the
-    troposphere (z <= 11 km): p = p0 (1 - L z / T0)^(g0 M / (R L)), T0 = 288.15 K, L = 0.0065 K/m,
-    exponent 5.25588 (ISO 2533:1975; ICAO Doc 7488/3)."""
-    return P_SEA_LEVEL * (1.0 - 0.0065 * z / 288.15) ** 5.25588
+    """Pressure [Pa] of the ISO 2533 / ICAO standard atmosphere at altitude z [m] above sea level in the
+    troposphere: the geopotential altitude H = r0 z / (r0 + z), r0 = 6 356 766 m, then
+    p = p0 (1 - L H / T0)^(g0 M / (R L)), T0 = 288.15 K, L = 0.0065 K/m, exponent 5.25588 (ISO 2533:1975;
+    ICAO Doc 7488/3)."""
+    H = 6356766.0 * z / (6356766.0 + z)
+    return P_SEA_LEVEL * (1.0 - 0.0065 * H / 288.15) ** 5.25588
 
 
 def _shop(t: Table, search: dict | None) -> tuple[float, float, str]:
