@@ -113,7 +113,7 @@ def air_section(a, u: DisplayUnits, figures) -> Section:
     rows = [
         Row("fins", f"{s.fins}, {u.text('length', s.fin_thickness)} thick and {u.text('length', s.fin_height)} "
                     f"high, gap {u.text('length', s.gap)}", "", "air.sink"),
-        Row("base / envelope", f"{u.fmt('length', s.base)} / {u.fmt('length', s.length)} × "
+        Row("base / sink length × width × height", f"{u.fmt('length', s.base)} / {u.fmt('length', s.length)} × "
                                f"{u.fmt('length', s.width)} × {u.fmt('length', s.height)}", u.label("length")),
         Row("material / mass", f"{s.material} / {u.fmt('mass', s.mass)}", u.label("mass"), "air.sink.mass_kg"),
         Row("air drive", _DRIVES[s.drive], ""),
