@@ -126,8 +126,8 @@ def air_section(a, u: DisplayUnits, figures) -> Section:
             u.label("heat_transfer_coefficient")),
     ]
     if s.flow is not None:
-        rows += [Row("air flow / pressure drop", f"{u.fmt('flow', s.flow)} / {u.fmt('pressure', s.dp)}",
-                     f"{u.label('flow')} / {u.label('pressure')}", "air.air_flow_m3_per_s"),
+        rows += [Row("air flow / pressure drop", f"{u.fmt('air_flow', s.flow)} / {u.fmt('air_pressure', s.dp)}",
+                     f"{u.label('air_flow')} / {u.label('air_pressure')}", "air.air_flow_m3_per_s"),
                  Row("fan's air power", u.fmt("power", s.fan_power), u.label("power"), "air.fan_air_power_W"),
                  Row("air in / out", f"{u.fmt('temperature', s.T_air_in)} / {u.fmt('temperature', s.T_air_out)}",
                      u.label("temperature")),

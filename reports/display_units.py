@@ -33,6 +33,8 @@ KINDS = {
     "conductivity": ("W/(m*K)", {"si": ("W/(m*K)", "W/(m·K)"),
                                  "us": ("Btu_it/(hour*ft*delta_degF)", "BTU/(h·ft·°F)")}),
     "mass": ("kg", {"si": ("g", "g"), "us": ("lb", "lb")}),
+    "air_flow": ("m**3/s", {"si": ("m**3/hour", "m³/h"), "us": ("ft**3/minute", "ft³/min")}),
+    "air_pressure": ("Pa", {"si": ("Pa", "Pa"), "us": ("inch_H2O", "inH₂O")}),
     "volume_per_day": ("L/day", {"si": ("L/day", "L/day"), "us": ("gallon/day", "gal/day")}),
     "volume_per_year": ("m**3/year", {"si": ("m**3/year", "m³/year"), "us": ("gallon/year", "gal/year")}),
     "area_resistance": ("K*m**2/W", {"si": ("K*m**2/W", "K·m²/W"),

@@ -25,6 +25,10 @@ from hydraulics.pump import PumpError, PumpTable, intersect
 #: the third is below 1e-6 K on the examples).
 PROPERTY_PASSES = 4
 
+#: Hottest air leaving a sink the model accepts [K]: 500 degC, far past any sink one would build (common
+#: practice), inside CoolProp's range for air.
+T_AIR_MAX = 773.15
+
 ASSUMPTIONS = (
     "air sink: straight plate fins on a flat base covering the [air] envelope's length and width; forced air is "
     "ducted (a shroud over the fin tips, all the air between the fins, tips adiabatic); the outer half-gaps "
@@ -76,6 +80,10 @@ def solve_sink(air, c: model.Candidates, load: float, fp, R_interface: float, de
             else:
                 Q = float(model.frontal_flow(air, H, air.velocity))
             T_out = T0 + float(model.air_rise(load, pr.rho * Q, pr.cp))
+            if T_out > T_AIR_MAX:
+                raise SolveError(f"the air sink: {Q * 3600:.3g} m^3/h of air would leave above "
+                                 f"{T_AIR_MAX - 273.15:.0f} degC with {load:.4g} W; no air sink of this drive can "
+                                 "carry the heat")
             pr = model.air_props(0.5 * (T0 + T_out), air.pressure)
         dp_a, V_a, Re_a, fr, _, _ = model.pressure_drop(c, Q, air, pr)
         hA_a, h_a, Nu_a, eta_a, Bi_a, cv = model.forced_conductance(c, Q, air, pr)
