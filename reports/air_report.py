@@ -112,22 +112,23 @@ def air_section(a, u: DisplayUnits, figures) -> Section:
     s = a.sink
     rows = [
         Row("fins", f"{s.fins}, {u.text('length', s.fin_thickness)} thick and {u.text('length', s.fin_height)} "
-                    f"high, gap {u.text('length', s.gap)}", "", "air.sink"),
+                    f"high, gap {u.text('length', s.gap)}", ""),
         Row("base / sink length × width × height", f"{u.fmt('length', s.base)} / {u.fmt('length', s.length)} × "
                                f"{u.fmt('length', s.width)} × {u.fmt('length', s.height)}", u.label("length")),
-        Row("material / mass", f"{s.material} / {u.fmt('mass', s.mass)}", u.label("mass"), "air.sink.mass_kg"),
+        Row("material", s.material, ""),
+        Row("mass", u.fmt("mass", s.mass), u.label("mass"), "air.sink.mass_kg"),
         Row("air drive", _DRIVES[s.drive], ""),
         Row("hottest mounting face", u.fmt("temperature", s.T_face_max), u.label("temperature"),
             "air.hottest_face_C"),
         Row("thermal resistance, face to inlet air", u.fmt("thermal_resistance", s.R_th),
-            u.label("thermal_resistance"), "air.resistances_K_per_W"),
+            u.label("thermal_resistance"), "air.resistances_K_per_W.total"),
         Row("heat transfer coefficient / fin efficiency", f"{u.fmt('heat_transfer_coefficient', s.h)} / "
                                                           f"{format_number(s.eta_fin, digits=3)}",
             u.label("heat_transfer_coefficient")),
     ]
     if s.flow is not None:
         rows += [Row("air flow / pressure drop", f"{u.fmt('air_flow', s.flow)} / {u.fmt('air_pressure', s.dp)}",
-                     f"{u.label('air_flow')} / {u.label('air_pressure')}", "air.air_flow_m3_per_s"),
+                     f"{u.label('air_flow')} / {u.label('air_pressure')}"),
                  Row("fan's air power", u.fmt("power", s.fan_power), u.label("power"), "air.fan_air_power_W"),
                  Row("air in / out", f"{u.fmt('temperature', s.T_air_in)} / {u.fmt('temperature', s.T_air_out)}",
                      u.label("temperature")),

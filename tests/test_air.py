@@ -1,7 +1,8 @@
 """The air-cooled alternative ([air], coldplate/air): correlations against outside sources, the fan's operating
 point by hand, the energy balance, the search, the wiring into check, JSON, text and report.
 
-Each check names its source; "from memory" marks a value recalled rather than looked up.
+Each check names its source; "from memory" marks a value recalled rather than looked up.  The check values, their
+tolerances and the agreement measured: VALIDATION.md, "Air-cooled alternative".
 """
 from __future__ import annotations
 
@@ -25,8 +26,8 @@ from coldplate.plate.convection import Nu_rectangular_Shah_London
 from hydraulics.pump import PumpTable, intersect, intersect_many
 from tests.helpers import ROOT, example_dict
 
-HOLDS = ROOT / "examples" / "bench-amplifier-air-holds.toml"
-SHORT = ROOT / "examples" / "laser-mount-air-short.toml"
+HOLDS = ROOT / "examples" / "small-amplifier-air-holds.toml"
+SHORT = ROOT / "examples" / "laser-mount-still-air.toml"
 MODULES = ROOT / "examples" / "sample-stage-air.toml"
 
 
@@ -62,7 +63,7 @@ def test_parallel_plate_fully_developed_limits_shah_london():
 
 def _long_sink(gap=1e-3, height=0.05, length=1.0):
     """A sink of tall, close fins and a long flow length: the gaps are parallel-plate channels, fully developed."""
-    data = example_dict("bench-amplifier-air-holds")
+    data = example_dict("small-amplifier-air-holds")
     data["air"].update(length=f"{length} m", width="60 mm", height=f"{height * 1e3 + 5} mm")
     data["air"].pop("fan_flow")
     data["air"].pop("fan_pressure")
@@ -235,7 +236,7 @@ def test_search_keeps_the_shop_limits():
 
 
 def test_shop_limits_from_the_search_table():
-    data = example_dict("bench-amplifier-air-holds")
+    data = example_dict("small-amplifier-air-holds")
     data["search"] = {"min_wall": "1.5 mm", "min_width": "3 mm"}
     a = design_from_dict(data).air
     assert (a.min_fin, a.min_gap, a.shop_limits_from) == (pytest.approx(1.5e-3), pytest.approx(3e-3), "[search]")
@@ -287,7 +288,7 @@ def test_bare_module_is_refused_with_the_runaway_explained():
     ({"colour": "red"}, "[air] colour"),
 ])
 def test_bad_air_tables_are_refused_in_one_line(change, field):
-    data = example_dict("bench-amplifier-air-holds")
+    data = example_dict("small-amplifier-air-holds")
     data["air"].update(change)
     with pytest.raises(DesignError) as exc:
         design_from_dict(data)
