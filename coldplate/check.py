@@ -10,6 +10,7 @@ from __future__ import annotations
 from dataclasses import replace
 from functools import partial
 
+from coldplate.air.findings import RULES as AIR_RULES
 from coldplate.design.reader import Design, load_design
 from coldplate.findings.base import SEVERITIES, Finding
 from coldplate.findings.plate import RULES as PLATE_RULES
@@ -20,7 +21,7 @@ from coldplate.plate.solve import solve_plate
 from coldplate.supply.findings import RULES as SUPPLY_RULES
 
 #: Every rule, in the order their findings are listed within one severity.
-RULES = PLATE_RULES + SOURCE_RULES + MODULE_RULES + SUPPLY_RULES
+RULES = PLATE_RULES + SOURCE_RULES + MODULE_RULES + SUPPLY_RULES + AIR_RULES
 
 
 def check_file(path) -> Result:
@@ -42,6 +43,9 @@ def solve(design: Design) -> Result:
         result = attach(solve_plate(design, flow))
     else:
         result = _solve_with_modules(design, supply_stage)
+    if design.air is not None:  # the air-cooled alternative beside the water design (coldplate/air/stage.py)
+        from coldplate.air.stage import solve_air
+        result = replace(result, air=solve_air(design, result))
     return replace(result, findings=collect_findings(result))
 
 

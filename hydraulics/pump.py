@@ -50,11 +50,16 @@ def check_table(V_dot, dp) -> PumpTable:
     return PumpTable(tuple(map(float, V)), tuple(map(float, P)))
 
 
-def pump_curve(table: PumpTable) -> Callable[[float], float]:
-    """The fitted rise dp(V_dot) [Pa], valid from the first to the last tabulated flow (PCHIP)."""
+def _fit(table: PumpTable):
+    """The PCHIP interpolant of the table (numpy in, numpy out; NaN outside the tabulated flows)."""
     from scipy.interpolate import PchipInterpolator
 
-    fit = PchipInterpolator(np.asarray(table.V_dot), np.asarray(table.dp), extrapolate=False)
+    return PchipInterpolator(np.asarray(table.V_dot), np.asarray(table.dp), extrapolate=False)
+
+
+def pump_curve(table: PumpTable) -> Callable[[float], float]:
+    """The fitted rise dp(V_dot) [Pa], valid from the first to the last tabulated flow (PCHIP)."""
+    fit = _fit(table)
     return lambda q: float(fit(q))
 
 
@@ -87,3 +92,24 @@ def intersect(table: PumpTable, needed: Callable[[float], float], suction: float
     if e_hi == 0:
         return hi
     return float(brentq(excess, lo, hi, xtol=xtol, rtol=1e-10))
+
+
+def intersect_many(table: PumpTable, needed: Callable[[np.ndarray], np.ndarray], count: int,
+                   iterations: int = 60) -> np.ndarray:
+    """The operating flows [m^3/s] of ``count`` systems on one pump (or fan) table at once.
+
+    ``needed(q)`` takes an array of ``count`` flows (one per system) and returns each system's needed
+    pressure [Pa] there, rising with flow.  The same fitted curve as :func:`intersect`, the same crossing,
+    found by bisection on all systems together (``iterations`` halvings of the table's flow span); NaN where
+    a system and the table do not cross inside the table (the cases :func:`intersect` refuses).
+    """
+    fit = _fit(table)
+    lo = np.full(count, table.V_dot[0])
+    hi = np.full(count, table.V_dot[-1])
+    ok = (fit(lo) - needed(lo) >= 0) & (fit(hi) - needed(hi) <= 0)
+    for _ in range(iterations):
+        mid = 0.5 * (lo + hi)
+        up = fit(mid) - needed(mid) > 0
+        lo = np.where(up, mid, lo)
+        hi = np.where(up, hi, mid)
+    return np.where(ok, 0.5 * (lo + hi), np.nan)

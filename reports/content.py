@@ -11,6 +11,7 @@ import dataclasses
 import hashlib
 import math
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
+from .air_report import air_section
 from .optional_sections import (circuit_section, field_section, module_inputs, module_section, planning_section,
                                 source_rows)
 from .text import model_line
@@ -245,6 +246,10 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
         sections.append(Section("water", "Water use", (
             f"Once-through at {r.design.supply.hours_per_day:g} h a day and {r.design.supply.days_per_year:g} days "
             "a year: more flow buys a cooler mounting face with more water.",), figures=water_fig))
+    air = getattr(r, "air", None)
+    if air is not None:
+        sections.append(air_section(air, u, fig("air", "The air sink's fins to scale (a cut across the air flow) "
+                                                       "and the hottest faces beside the water design.")))
     sections.append(_methods(r))
     sections.append(Section("assumptions", "Assumptions", tuple(r.assumptions)))
     return Report(title=r.design.title, job=job_line(r, u), units=units, version=version,

@@ -7,6 +7,7 @@ from __future__ import annotations
 import json
 
 from .module_report import module_to_dict
+from .air_report import air_to_dict
 from .supply import supply_dict
 
 
@@ -86,6 +87,7 @@ def check_to_dict(r, version: str = "") -> dict:
     """What ``coldplate check --format json`` prints, as a dict (the modules' keys included when present)."""
     out = result_to_dict(r, version)
     out.update(module_to_dict(r.module))
+    out.update(air_to_dict(r))
     return out
 
 

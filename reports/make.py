@@ -56,6 +56,9 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
     circuit = r.circuit
     if circuit is not None:
         figs["circuit"] = plots.draw(plots.system_curve, circuit, u, name="circuit")
+    air = getattr(r, "air", None)
+    if air is not None:
+        figs["air"] = plots.draw(plots.air_sink, air, u, name="air")
     return figs
 
 

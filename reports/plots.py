@@ -9,6 +9,7 @@ viewer), ids are prefixed per figure so several figures can share one page, and 
 from __future__ import annotations
 
 import io
+import math
 import re
 
 import matplotlib
@@ -388,4 +389,39 @@ def coolant_along(result, u: DisplayUnits) -> Figure:
     ax.set_ylabel(f"coolant bulk temperature [{u.label('temperature')}]")
     ax.set_title(f"Coolant along the flow, each of {n} channels", loc="left")
     ax.legend(fontsize=8, loc="lower right")
+    return fig
+
+
+def air_sink(air, u: DisplayUnits) -> Figure:
+    """The air sink's cut across the air flow drawn to scale (base and every fin), and the hottest faces of the
+    water design and the air sink against the face limit."""
+    from matplotlib.patches import Rectangle
+
+    s = air.sink
+    fig, (ax1, ax2) = _figure(3.4, ncols=2)
+    k = u.value("length", 1.0)  # display length per metre
+    ax1.add_patch(Rectangle((0.0, 0.0), s.width * k, s.base * k, facecolor=SKY, edgecolor=BLACK, linewidth=0.6,
+                            label="base"))
+    pitch = (s.width - s.fin_thickness) / (s.fins - 1)
+    for i in range(s.fins):
+        ax1.add_patch(Rectangle((i * pitch * k, s.base * k), s.fin_thickness * k, s.fin_height * k, facecolor=BLUE,
+                                edgecolor=BLACK, linewidth=0.4, label="fins" if i == 0 else None))
+    ax1.set_xlim(-0.05 * s.width * k, 1.05 * s.width * k)
+    ax1.set_ylim(0.0, 1.08 * s.height * k)
+    ax1.set_aspect("equal")
+    ax1.set_xlabel(f"across the fins [{u.label('length')}]")
+    ax1.set_ylabel(f"height [{u.label('length')}]")
+    ax1.set_title(f"{s.fins} fins, to scale", loc="left")
+    ax1.grid(False)
+    names, values, colours = ["water design"], [u.value("temperature", air.water_face)], [BLUE]
+    if math.isfinite(s.T_face_max):
+        names.append("air sink")
+        values.append(u.value("temperature", s.T_face_max))
+        colours.append(VERMILION)
+    ax2.bar(names, values, color=colours, hatch=None, width=0.5)
+    ax2.axhline(u.value("temperature", air.face_limit), color=BLACK, linestyle="--", linewidth=1.0,
+                label="face limit")
+    ax2.set_ylabel(f"hottest mounting face [{u.label('temperature')}]")
+    ax2.set_title("Hottest face", loc="left")
+    ax2.legend(fontsize=8, loc="upper left")
     return fig

@@ -8,6 +8,7 @@ import textwrap
 
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .module_report import module_text
+from .air_report import air_text
 from .supply import supply_lines
 
 WIDTH = 92
@@ -128,6 +129,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     out.append("")
     out += module_text(r.module, units)
     out += supply_lines(r, _table, units)
+    out += air_text(getattr(r, "air", None), units)
     out.append("Correlations used")
     out.append("-----------------")
     wr = max(len(m.role) for m in r.methods)

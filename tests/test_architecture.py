@@ -29,6 +29,8 @@ LAYERS = (
     (3, "plate findings", ("coldplate.findings.plate", "coldplate.findings.sources")),
     (3, "modules", ("coldplate.modules",)),
     (3, "supply", ("coldplate.supply",)),
+    (3, "air", ("coldplate.air",)),
+    (4, "air stage", ("coldplate.air.stage",)),
     (4, "design file", ("coldplate.design.reader",)),
     (5, "check", ("coldplate.check",)),
     (6, "sizing", ("coldplate.sizing",)),

@@ -117,7 +117,7 @@ def test_html_parses_and_has_every_section(reports):
         if r.design.supply.once_through or r.planning is not None:
             expected.add("fig-water")
             assert "water" in page.sections
-        for part in ("module", "circuit"):
+        for part in ("module", "circuit", "air"):
             if getattr(r, part) is not None:
                 expected.add(f"fig-{part}")
                 assert part in page.sections
@@ -210,6 +210,11 @@ JSON_UNITS = {
     "planning.chiller.breakeven_flow_m3_per_s": ("m**3/s", "L/min", "gallon/minute"),
     "planning.chiller.breakeven_water_tariff_per_m3": ("dimensionless", "dimensionless", "dimensionless"),
     "planning.chiller.payback_years": ("dimensionless", "dimensionless", "dimensionless"),
+    # the air-cooled alternative (result.air)
+    "air.hottest_face_C": ("degC", "degC", "degF"),
+    "air.sink.mass_kg": ("kg", "g", "lb"),
+    "air.resistances_K_per_W.total": ("K/W", "K/W", "delta_degF/(Btu_it/hour)"),
+    "air.fan_air_power_W": ("W", "W", "Btu_it/hour"),
 }
 TEXT_KEYS = {"planning.binding_limit"}
 

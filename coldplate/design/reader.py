@@ -10,7 +10,7 @@ from __future__ import annotations
 import difflib
 import math
 import tomllib
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 from hydraulics.coolant import FLUIDS, P_ATM, Coolant, StateError as _CoolantStateError
@@ -24,6 +24,7 @@ from coldplate.design.errors import DesignError, StateError
 from coldplate.design.fields import Table, check_range, nearest
 from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES
 from coldplate.modules.reader import Module, read_module
+from coldplate.air.reader import Air, read_air
 from coldplate.plate.sources import Source, centred_source, read_sources
 from coldplate.design.units import parse_value, quoted
 
@@ -161,6 +162,7 @@ class Design:
     circuit: Circuit | None = None  #: the lines around the plate ([circuit])
     #: the heat sources on the mounting face ([[source]] tables; [heat] is one centred source named "heat")
     sources: tuple[Source, ...] = ()
+    air: Air | None = None  #: the air-cooled alternative to compare, from [air] (coldplate.air)
 
     @property
     def drain_air_gap(self) -> float | None:
@@ -240,7 +242,7 @@ def _toml(text: str) -> dict:
 
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
-_OPTIONAL = ("module", "circuit", "source")
+_OPTIONAL = ("module", "circuit", "source", "air")
 #: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
 _FEATURE_TABLES = ("search",)
 
@@ -292,8 +294,11 @@ def design_from_dict(data: dict) -> Design:
     if supply.drive != "flow" and circuit is None:
         raise DesignError("[supply] drive", f"drive = {supply.drive!r} needs a [circuit] table (the lines the "
                                             "supply pushes water through)")
-    return Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
-                  module=module, circuit=circuit, sources=sources)
+    design = Design(title.strip(), heat, interface, plate, passage, coolant, T_in, flow, supply, room, model,
+                    module=module, circuit=circuit, sources=sources)
+    if "air" in data:
+        design = replace(design, air=read_air(data, design))
+    return design
 
 
 def _sources_stand_in(sources: tuple[Source, ...]) -> Heat:

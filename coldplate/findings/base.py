@@ -109,3 +109,13 @@ def amount(x: float, digits: int = 3) -> str:
 def degc(T: float) -> str:
     """A temperature [K] as the findings write it: one decimal, in degC."""
     return f"{T - 273.15:.1f} degC"
+
+
+def device_limit(d) -> tuple[float, str]:
+    """The device's temperature limit [K] and where it comes from: the supply's face_limit, the modules'
+    hot-side limit, or the usual rating of electronic parts (common practice)."""
+    if d.supply.face_limit is not None:
+        return d.supply.face_limit, "the face limit"
+    if d.module is not None:
+        return d.module.hot_side_limit, "the modules' hot-side limit"
+    return DEVICE_LIMIT_DEFAULT, "no limit given: the usual top rating of industrial electronic parts, common practice"

@@ -11,7 +11,7 @@ from __future__ import annotations
 from hydraulics.circuit import Backflow
 
 from coldplate.plate import materials
-from coldplate.findings.base import (AIR_GAP_MIN, DEFER, DEVICE_LIMIT_DEFAULT, DEW_MARGIN, Finding, amount,
+from coldplate.findings.base import (AIR_GAP_MIN, DEFER, DEW_MARGIN, Finding, amount, device_limit,
                                      back_pressure_causes, continuous_causes, degc, protection_choice, slug)
 from coldplate.findings.sources import from_heat_table
 
@@ -328,16 +328,6 @@ def cavity_distribution(r):
             f"The {d.passage.port_diameter * 1e3:.3g} mm ports feed a {d.plate.width * 1e3:.4g} mm wide cavity: the "
             "jet leaves slow corners, so the even-spread result is optimistic there.",
             "Add a distributor or turn the cavity into channels for a predictable result.")
-
-
-def device_limit(d) -> tuple[float, str]:
-    """The device's temperature limit [K] and where it comes from: the supply's face_limit, the modules'
-    hot-side limit, or the usual rating of electronic parts (common practice)."""
-    if d.supply.face_limit is not None:
-        return d.supply.face_limit, "the face limit"
-    if d.module is not None:
-        return d.module.hot_side_limit, "the modules' hot-side limit"
-    return DEVICE_LIMIT_DEFAULT, "no limit given: the usual top rating of industrial electronic parts, common practice"
 
 
 def plate_heat_capacity(d) -> float:

@@ -19,6 +19,7 @@ if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages
     from coldplate.design.reader import Design
     from coldplate.findings.base import Finding
     from coldplate.modules.result import ModuleResult
+    from coldplate.air.result import AirResult
     from coldplate.supply.result import CircuitResult, PlanningResult
 
 @dataclass(frozen=True)
@@ -119,3 +120,4 @@ class Result:
     coupling: tuple[tuple[float, ...], ...] = ()  #: [K/W] mean face rise of source i per watt of source j
     grid_uncertainty: float | None = None  #: of T_face_max [K] (field model: Richardson / grid convergence index)
     field: FieldResult | None = None  #: the solved field (face map, coolant per channel) with model "field"
+    air: AirResult | None = None  #: the air-cooled alternative beside this design (from [air]; coldplate.air)
