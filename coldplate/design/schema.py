@@ -12,6 +12,7 @@ from __future__ import annotations
 from hydraulics.circuit import FITTINGS
 from hydraulics.coolant import FLUIDS
 
+from coldplate.air import reader as air_reader
 from coldplate.design import reader
 from coldplate.design.catalogue import FIELDS, OTHER_KINDS, Field
 from coldplate.design.fields import show
@@ -40,7 +41,7 @@ def key_sets() -> dict[str, tuple[str, ...]]:
     return {"top": ("title",), **{t: tuple(keys) for t, keys in reader.KEYS.items()},
             "passage": reader.ANY_PASSAGE_KEY, "module": module_reader._KEYS,
             "circuit": supply_reader.CIRCUIT_KEYS, "circuit.part": supply_reader.ANY_PART_KEY,
-            "source": SOURCE_KEYS, "search": search}
+            "source": SOURCE_KEYS, "search": search, "air": air_reader._KEYS}
 
 
 def tables() -> tuple[str, ...]:
@@ -65,12 +66,15 @@ def choices() -> dict[str, tuple[str, ...]]:
         "[circuit.part] kind": supply_reader.PART_KINDS,
         "[circuit.part] fitting": tuple(FITTINGS),
         "[circuit.part] device": tuple(supply_reader.BACKFLOW_DEVICES),
+        "[air] drive": air_reader.DRIVES,
+        "[air] sink": air_reader.SINKS,
     }
 
 
 def names() -> dict[str, tuple[str, ...]]:
     """Suggested names of the ``name`` fields (our tables' keys; exact aliases are accepted too)."""
     return {"[plate] material": tuple(materials.MATERIALS), "[passage] material": tuple(materials.MATERIALS),
+            "[air] material": tuple(materials.MATERIALS),
             "[circuit.part] material": tuple(materials.ROUGHNESS)}
 
 
