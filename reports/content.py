@@ -11,6 +11,7 @@ import dataclasses
 import hashlib
 import math
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
+from .uncertainty import uncertainty_section
 from .optional_sections import circuit_section, module_inputs, module_section, planning_section
 
 
@@ -221,6 +222,10 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
         sections.append(Section("water", "Water use", (
             f"Once-through at {r.design.supply.hours_per_day:g} h a day and {r.design.supply.days_per_year:g} days "
             "a year: more flow buys a cooler mounting face with more water.",), figures=water_fig))
+    band = uncertainty_section(r, u, fig("tornado", "Hottest mounting face with each input at its low and high "
+                                              "end; the band and the nominal marked."))
+    if band is not None:
+        sections.append(band)
     sections.append(_methods(r))
     sections.append(Section("assumptions", "Assumptions", tuple(r.assumptions)))
     return Report(title=r.design.title, job=job_line(r, u), units=units, version=version,

@@ -8,6 +8,7 @@ import json
 
 from .module_report import module_to_dict
 from .supply import supply_dict
+from .uncertainty import uncertainty_dict
 
 
 def _c(T: float) -> float:
@@ -67,6 +68,7 @@ def check_to_dict(r, version: str = "") -> dict:
     """What ``coldplate check --format json`` prints, as a dict (the modules' keys included when present)."""
     out = result_to_dict(r, version)
     out.update(module_to_dict(r.module))
+    out.update(uncertainty_dict(r))  # only with a band ([uncertainty] or --confidence)
     return out
 
 

@@ -51,6 +51,8 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
     circuit = r.circuit
     if circuit is not None:
         figs["circuit"] = plots.draw(plots.system_curve, circuit, u, name="circuit")
+    if r.uncertainty is not None and r.uncertainty.sensitivity:
+        figs["tornado"] = plots.draw(plots.tornado, r.uncertainty, u, name="tornado")
     return figs
 
 

@@ -9,6 +9,7 @@ import textwrap
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .module_report import module_text
 from .supply import supply_lines
+from .uncertainty import uncertainty_lines
 
 WIDTH = 92
 
@@ -68,6 +69,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
            f"coolant: {d.coolant.label()}; supply: {d.supply.source}", ""]
     out += _table(rows, "Result")
     out.append("")
+    out += uncertainty_lines(r, _table, units)
     R_unit = u.label("thermal_resistance")
     parts = [(name, v("thermal_resistance", value), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
              for name, value in r.resistances]

@@ -20,6 +20,7 @@ if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages
     from coldplate.findings.base import Finding
     from coldplate.modules.result import ModuleResult
     from coldplate.supply.result import CircuitResult, PlanningResult
+    from coldplate.uncertainty.result import Uncertainty
 
 @dataclass(frozen=True)
 class MethodUse:
@@ -119,3 +120,5 @@ class Result:
     coupling: tuple[tuple[float, ...], ...] = ()  #: [K/W] mean face rise of source i per watt of source j
     grid_uncertainty: float | None = None  #: of T_face_max [K] (field model: Richardson / grid convergence index)
     field: FieldResult | None = None  #: the solved field (face map, coolant per channel) with model "field"
+    uncertainty: Uncertainty | None = None  #: the band of the headline numbers ([uncertainty]; set by
+    #: coldplate.uncertainty.run after the check, never by the check itself)

@@ -1,43 +1,44 @@
 """Seeded Latin hypercube samples, their transformation to the inputs' distributions, and percentiles with
 their sampling error.
 
-Latin hypercube (McKay, Beckman & Conover 1979, Technometrics 21, 239), by ``scipy.stats.qmc.LatinHypercube``:
-each of the d inputs' n values falls once into each of n equal-probability strata.  A uniform input takes
-``low + u (high − low)``; a normal one ``mid + σ Φ⁻¹(u)`` with ``σ = (high − low) / 4`` (the ends at ±2σ).
+Latin hypercube (McKay, Beckman & Conover 1979, Technometrics 21, 239): each of the d inputs' n values falls
+once into each of n equal-probability strata, (π(i) + U) / n with a random permutation π per column and U
+uniform in [0, 1), drawn from one seeded ``numpy.random.Generator``.  A uniform input takes
+``low + u (high − low)``; a normal one ``mid + σ Φ⁻¹(u)`` with ``σ = (high − low) / 4`` (the ends at ±2σ),
+Φ⁻¹ from the standard library's ``statistics.NormalDist`` (importing scipy.stats would cost a second here).
 
 Percentiles: ``numpy.quantile`` (linear between order statistics).  Sampling error: the distribution-free
 confidence interval of a quantile from order statistics (e.g. Conover, Practical Nonparametric Statistics,
 3rd ed., 1999, §3.2): the q-quantile lies between the order statistics of ranks n q ∓ z √(n q (1 − q)) with
 probability about 95 % (z = 1.96); the error quoted is half that interval.  It holds for independent samples;
 a Latin hypercube is never worse for monotone outputs (McKay et al. 1979), so the figure is an upper bound.
-scipy is imported inside the functions: never on the plain check's path.
 """
 from __future__ import annotations
 
 import math
+from statistics import NormalDist
 
 import numpy as np
 
 #: Two-sided 95 % normal quantile for the order-statistic interval [-] (published: Φ⁻¹(0.975)).
 Z_95 = 1.959963984540054
+_PHI = NormalDist()
 
 
 def latin_hypercube(n: int, d: int, seed: int) -> np.ndarray:
     """(n, d) points in (0, 1), one per stratum of each column, repeatable for a seed."""
-    from scipy.stats import qmc
-
-    if d == 0:
-        return np.empty((n, 0))
-    return qmc.LatinHypercube(d=d, seed=np.random.default_rng(seed)).random(n)
+    rng = np.random.default_rng(seed)
+    strata = np.column_stack([rng.permutation(n) for _ in range(d)]) if d else np.empty((n, 0))
+    u = (strata + rng.random((n, d))) / n
+    return np.clip(u, 0.5 / n**2, 1.0 - 0.5 / n**2)  # never exactly 0: a normal input stays finite
 
 
 def to_values(u: np.ndarray, low: float, high: float, distribution: str) -> np.ndarray:
     """Points ``u`` in (0, 1) as values of an input spread between ``low`` and ``high``."""
     if distribution == "uniform":
         return low + u * (high - low)
-    from scipy.stats import norm
-
-    return 0.5 * (low + high) + 0.25 * (high - low) * norm.ppf(u)
+    z = np.array([_PHI.inv_cdf(float(p)) for p in np.ravel(u)]).reshape(np.shape(u))
+    return 0.5 * (low + high) + 0.25 * (high - low) * z
 
 
 def ends(low: float, high: float, distribution: str, confidence: float) -> tuple[float, float]:
@@ -45,9 +46,7 @@ def ends(low: float, high: float, distribution: str, confidence: float) -> tuple
     input's percentiles at the band's confidence (the 5 % and 95 % points for 90 %)."""
     if distribution == "uniform":
         return low, high
-    from scipy.stats import norm
-
-    z = norm.ppf(0.5 + 0.5 * confidence)
+    z = _PHI.inv_cdf(0.5 + 0.5 * confidence)
     mid, sigma = 0.5 * (low + high), 0.25 * (high - low)
     return mid - z * sigma, mid + z * sigma
 
