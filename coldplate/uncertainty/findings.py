@@ -25,8 +25,8 @@ def face_limit(r):
         yield Finding(
             "face-limit-in-band", "warning",
             f"The hottest mounting face is {degc(b.nominal)} as designed, but its {_pct(u.upper_q)} value is "
-            f"{degc(b.high)}, above {where} of {degc(limit)}: with the spreads given, about "
-            f"{_pct(1 - u.upper_q)} of builds or days or more run the device hotter than it allows.",
+            f"{degc(b.high)}, above {where} of {degc(limit)}: with the spreads given, "
+            f"{_pct(1 - u.upper_q)} or more of builds and days run the device hotter than it allows.",
             "Narrow the spread that drives the band most (see the sensitivities), or size for the limit at a "
             "percentile ([search] face_limit_confidence); a device run hot near water and mains electricity needs "
             "its over-temperature cut-out. " + DEFER)
