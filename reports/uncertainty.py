@@ -111,7 +111,7 @@ def uncertainty_section(r, u: DisplayUnits, figures) -> Section | None:
     if band is None:
         return None
     rows = tuple(Row(label, nominal, text, OUTPUT_KEYS_BY_LABEL[label]) for label, nominal, text in band_rows(r, u))
-    sens = tuple(("input", f"low end [{u.label('temperature')}]", f"high end [{u.label('temperature')}]"),) + tuple(
+    sens = (("input", f"low end [{u.label('temperature')}]", f"high end [{u.label('temperature')}]"),) + tuple(
         (s.input, _shown(u, "temperature", s.low), _shown(u, "temperature", s.high))
         for s in band.sensitivity)
     corr = [f"{q}: {m} ±{b * 100:g} % ({s})" for q, m, b, s in band.correlations]
