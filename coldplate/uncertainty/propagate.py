@@ -12,8 +12,10 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
   row's change from the nominal row (temperatures) or times its ratio to it (pressure drop), so with every
   spread zero the band is the check itself.
 * **repeated check** (tubes, cavities, modules, a supply that sets the flow): :func:`check_rows` solves each
-  row's design with :func:`coldplate.check.solve` at a smaller sample count (200 by default).  The check
-  takes no correlation factors, so this path leaves the correlation scatter out, and says so in the notes.
+  row's design as the check does (the supply's operating point, the plate, the modules; not the water
+  planning or the findings, which are not banded) at a smaller sample count (200 by default, 64 where each
+  sample solves a circuit or modules).  The check takes no correlation factors, so this path leaves the
+  correlation scatter out, and says so in the notes.
 
 Samples that cannot be solved (boiling, beyond the property data) count as the hottest and highest values, so
 they widen the upper end instead of vanishing from it.
@@ -35,7 +37,8 @@ from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.sizing.evaluate import LOCAL_BLOCK, Evaluator
 from coldplate.sizing.proptable import PropertyState
-from coldplate.uncertainty.reader import DEFAULT_SAMPLES, FALLBACK_SAMPLES, Spread, UncertaintySpec
+from coldplate.uncertainty.reader import (DEFAULT_SAMPLES, FALLBACK_SAMPLES, SLOW_FALLBACK_SAMPLES, Spread,
+                                         UncertaintySpec)
 from coldplate.uncertainty.result import OUTPUTS, Band, Sensitivity, Uncertainty
 from coldplate.uncertainty.sampling import ends, latin_hypercube, percentile, to_values
 from coldplate.uncertainty.scatter import band_of
@@ -68,7 +71,8 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
         if not fast:
             notes.append("the correlations' scatter is left out: the repeated check takes no correlation factors")
             factors = []
-    n = spec.samples or (DEFAULT_SAMPLES if fast else FALLBACK_SAMPLES)
+    slow = design.module is not None or (design.circuit is not None and design.supply.drive != "flow")
+    n = spec.samples or (DEFAULT_SAMPLES if fast else SLOW_FALLBACK_SAMPLES if slow else FALLBACK_SAMPLES)
     if fast:
         notes.insert(0, f"{n} samples through the sizing search's vectorised evaluator, anchored to the check")
     else:
@@ -239,10 +243,21 @@ def _design_for(design, values: dict):
     return d
 
 
-def check_rows(design, keys, rows) -> dict:
-    """Every row as a whole check (:func:`coldplate.check.solve`); NaN where a row cannot be solved."""
-    from coldplate.check import solve
+def _solve_row(d):
+    """One row's design solved as the check solves it, without the planning and the findings."""
+    if d.module is not None:
+        from coldplate.check import solve
 
+        return solve(d)
+    from coldplate.plate.solve import solve_plate
+    from coldplate.supply.stage import supply_stage
+
+    flow, _ = supply_stage(d)  # a circuit's operating point (the planning it would attach is not banded)
+    return solve_plate(d, flow)
+
+
+def check_rows(design, keys, rows) -> dict:
+    """Every row solved as the check solves it (:func:`_solve_row`); NaN where a row cannot be solved."""
     R0 = design.interface.resistance_area
     factor = _interface_factor(keys, rows)
     out = {name: np.full(rows.shape[0], np.nan) for name in OUTPUTS}
@@ -254,7 +269,7 @@ def check_rows(design, keys, rows) -> dict:
             d = replace(d, interface=replace(d.interface, resistance_area=R),
                         sources=tuple(replace(s, interface=s.interface * factor[i]) for s in d.sources))
         try:
-            r = solve(d)
+            r = _solve_row(d)
         except (ColdplateError, ArithmeticError, ValueError):
             continue
         out["face"][i], out["outlet"][i], out["pressure_drop"][i], out["water_use"][i] = (

@@ -10,7 +10,8 @@ Each entry names a design key (``"table.key"``, quoted in TOML because of the do
   (about 95 % of values inside them), centred between the ends.
 
 Besides the spreads: ``correlations`` (default true: each correlation's published scatter, coldplate/uncertainty/
-scatter.py), ``samples`` (default 4000 through the evaluator, 200 through repeated checks), ``seed`` (default 1)
+scatter.py), ``samples`` (default 4000 through the evaluator, 200 through repeated checks, 64 where each of those
+solves a circuit or modules too), ``seed`` (default 1)
 and ``confidence`` (default "90 %": the 5 %–95 % band; ``coldplate check --confidence`` overrides it).
 Every error names ``[uncertainty] key`` on one line; the table is read before anything is solved.
 """
@@ -46,6 +47,8 @@ DISTRIBUTIONS = ("uniform", "normal")
 #: Samples through the vectorised evaluator, and through repeated checks (each a whole check).
 DEFAULT_SAMPLES = 4000
 FALLBACK_SAMPLES = 200
+#: ... and where each sample also solves a circuit's operating point or the modules (0.1 to 0.15 s a check here).
+SLOW_FALLBACK_SAMPLES = 64
 SAMPLE_RANGE = (16, 200_000)
 DEFAULT_SEED = 1
 DEFAULT_CONFIDENCE = 0.90
