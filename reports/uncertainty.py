@@ -125,4 +125,4 @@ def uncertainty_section(r, u: DisplayUnits, figures) -> Section | None:
                    table=sens if band.sensitivity else (), figures=figures)
 
 
-OUTPUT_KEYS_BY_LABEL = {label: f"uncertainty.{key}" for key, _, label in OUTPUT_KEYS.values()}
+OUTPUT_KEYS_BY_LABEL = {label: f"uncertainty.{key}.nominal" for key, _, label in OUTPUT_KEYS.values()}

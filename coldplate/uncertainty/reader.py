@@ -217,4 +217,7 @@ def _resolve(w: Written, design, data: dict) -> Spread:
     if bound is not None:
         for end, v in (("low end", lo), ("high end", hi)):
             check_range(f"{field} ({end})", w.text, v, kind, bound)
+    if w.key == "passage.width" and hi * design.passage.count >= design.plate.width:
+        raise DesignError(f"{field} (high end)", f"{design.passage.count} channels {hi * 1e3:.4g} mm wide do not fit "
+                                                 f"the plate's {design.plate.width * 1e3:.4g} mm width")
     return Spread(w.key, nom, lo, hi, w.distribution, w.text)
