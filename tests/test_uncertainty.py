@@ -14,7 +14,7 @@ from scipy.stats import norm
 from coldplate.check import solve
 from coldplate.design.errors import DesignError
 from coldplate.design.reader import design_from_dict
-from coldplate.uncertainty.propagate import covered, evaluate_channel_rows, propagate
+from coldplate.uncertainty.propagate import covered, evaluate_channel_rows, evaluate_tube_rows, propagate
 from coldplate.uncertainty.reader import UncertaintySpec, Written, read_uncertainty
 from coldplate.uncertainty.run import check_data
 from coldplate.uncertainty.sampling import Z_95, ends, latin_hypercube, percentile, to_values
@@ -93,7 +93,8 @@ def _zero_spread_spec(keys, seed=1):
                            seed, 0.90)
 
 
-@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-sizing", "laser-mount-tube"])
+@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-sizing", "laser-mount-tube",
+                                  "detector-cavity-glycol"])
 def test_nominal_equals_the_check_when_every_spread_is_zero(name):
     # Source: computed by our own solver (the check), internal consistency: with no spread every sample is the
     # nominal design, and the band collapses onto the check's own numbers.
@@ -109,19 +110,24 @@ def test_nominal_equals_the_check_when_every_spread_is_zero(name):
         assert s.low == pytest.approx(r.T_face_max, rel=1e-12) and s.high == pytest.approx(r.T_face_max, rel=1e-12)
 
 
-def test_evaluator_rows_agree_with_the_check_unanchored():
+@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-tube"])
+def test_evaluator_rows_agree_with_the_check_unanchored(name):
     # Source: computed by our own solver; the evaluator's stated agreement with the check, 0.1 % on R_th
-    # (DEVELOPERS.md "Sizing", tests/test_sizing_evaluate.py), holds row by row with load, inlet and flow varied.
+    # (DEVELOPERS.md "Sizing", tests/test_sizing_evaluate.py), holds row by row with load, inlet and flow varied
+    # (laminar channels; a tube in transitional flow).
     from coldplate.sizing.evaluate import Evaluator
 
-    data = example_dict("reagent-block-channels")
+    data = example_dict(name)
     d = design_from_dict(data)
     rows = [(d.heat.load, d.inlet_temperature, d.flow), (0.7 * d.heat.load, d.inlet_temperature - 6, 1.3 * d.flow),
             (1.4 * d.heat.load, d.inlet_temperature + 5, 0.6 * d.flow)]
     ev = Evaluator(replace(d, inlet_temperature=d.inlet_temperature - 6))
     Q, T, V = (np.array(c) for c in zip(*rows))
-    got = evaluate_channel_rows(ev, np.full(3, d.passage.width), np.full(3, d.passage.depth), V, Q, T,
-                                np.full(3, d.interface.resistance_area), np.ones(3), np.ones(3))
+    common = (V, Q, T, np.full(3, d.interface.resistance_area), np.ones(3), np.ones(3))
+    if d.passage.kind == "channels":
+        got = evaluate_channel_rows(ev, np.full(3, d.passage.width), np.full(3, d.passage.depth), *common)
+    else:
+        got = evaluate_tube_rows(ev, *common)
     for i, (q, t, v) in enumerate(rows):
         ri = solve(replace(d, heat=replace(d.heat, load=q), inlet_temperature=t, flow=v))
         assert (got.T_face[i] - t) / q == pytest.approx(ri.R_th, rel=1e-3)
@@ -168,9 +174,9 @@ def test_sensitivity_of_the_inlet_and_the_load():
 
 
 def test_fallback_path_for_what_the_evaluator_does_not_cover():
-    # Source: computed by our own solver: a tube plate goes through repeated checks, says so, and leaves the
+    # Source: computed by our own solver: a cavity plate goes through repeated checks, says so, and leaves the
     # correlations' scatter out with a note.
-    data = example_dict("laser-mount-tube")
+    data = example_dict("detector-cavity-glycol")
     data["uncertainty"] = {"heat.load": "±10 %", "samples": 40}
     r = check_data(data)
     assert not covered(r.design, r)

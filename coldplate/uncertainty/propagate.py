@@ -3,15 +3,16 @@
 Rows: the nominal (every input at its design value), then each input at its low and at its high end with the
 others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
 
-* **vectorised evaluator** (channel plates at a given flow, one heat source, no modules, not Sieder-Tate):
-  :func:`channel_rows` runs the rows through the sizing evaluator's stages (``coldplate/sizing/evaluate.py``:
-  the same ``passage_flow``, ``nusselt_local``, ``fin_areas``, ``PlateTable.rises``, ``loss_coefficients``)
+* **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow, one
+  heat source, no modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows through the sizing
+  evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``,
+  ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``, the minor losses)
   with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean and
   local) and the friction factor are multiplied by the row's correlation factors.  The evaluator agrees with
   the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the check's value plus the
   row's change from the nominal row (temperatures) or times its ratio to it (pressure drop), so with every
   spread zero the band is the check itself.
-* **repeated check** (tubes, cavities, modules, a supply that sets the flow): :func:`check_rows` solves each
+* **repeated check** (cavities, a tube whose size varies, modules, a supply that sets the flow): :func:`check_rows` solves each
   row's design as the check does (the supply's operating point, the plate, the modules; not the water
   planning or the findings, which are not banded) at a smaller sample count (200 by default, 64 where each
   sample solves a circuit or modules).  The check takes no correlation factors, so this path leaves the
@@ -34,6 +35,7 @@ from coldplate.design.errors import ColdplateError
 from coldplate.plate import conduction
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.passages import channels as channel_passage
+from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.sizing.evaluate import LOCAL_BLOCK, Evaluator
 from coldplate.sizing.proptable import PropertyState
@@ -47,17 +49,18 @@ from coldplate.uncertainty.scatter import band_of
 NU_FACTOR, F_FACTOR = "correlations.Nu", "correlations.f"
 
 
-def covered(design, result) -> bool:
+def covered(design, result, keys=()) -> bool:
     """Whether the vectorised evaluator covers this design (else: repeated checks)."""
     d = design
-    return (d.passage.kind == "channels" and d.module is None and d.flow is not None and d.supply.drive == "flow"
-            and d.model.laminar != "sieder-tate" and len(d.sources) <= 1 and result.model == "network")
+    return (d.passage.kind in ("channels", "tube") and d.module is None and d.flow is not None
+            and d.supply.drive == "flow" and d.model.laminar != "sieder-tate" and len(d.sources) <= 1
+            and result.model == "network" and not (keys and "passage.inner_diameter" in keys))
 
 
 def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
     """The band of ``result`` (the check of ``design``) under the spreads of ``spec``."""
     spreads = list(spec.spreads(design, data))
-    fast = covered(design, result)
+    fast = covered(design, result, [s.key for s in spreads])
     notes = []
     factors = []
     if spec.correlations:
@@ -76,8 +79,8 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
     if fast:
         notes.insert(0, f"{n} samples through the sizing search's vectorised evaluator, anchored to the check")
     else:
-        notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates at a given "
-                        "flow with one heat source and no modules)")
+        notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
+                        "of fixed size at a given flow, with one heat source and no modules)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -89,7 +92,7 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
         oat[2 * i, i], oat[2 * i + 1, i] = lo, hi
     rows = np.vstack([nominal[None, :], oat, sampled])
     keys = [s.key for s in spreads]
-    out = channel_rows(design, result, keys, rows) if fast else check_rows(design, keys, rows)
+    out = evaluator_rows(design, result, keys, rows) if fast else check_rows(design, keys, rows)
     body = slice(1 + 2 * k, None)
     unsolved = int(np.count_nonzero(~np.isfinite(out["face"][body])))
     if unsolved:
@@ -134,16 +137,22 @@ def _interface_factor(keys, rows) -> np.ndarray:
     return factor
 
 
-def channel_rows(design, result, keys, rows) -> dict:
-    """Every row through the evaluator's stages, one channel-plate candidate per row; anchored to the check."""
+def evaluator_rows(design, result, keys, rows) -> dict:
+    """Every row through the evaluator's stages, one candidate per row (channels, or the design's tube);
+    anchored to the check."""
     d = design
-    c = _columns(keys, rows, {"heat.load": d.heat.load, "coolant.inlet_temperature": d.inlet_temperature,
-                              "coolant.flow": d.flow, "passage.width": d.passage.width,
-                              "passage.depth": d.passage.depth, NU_FACTOR: 1.0, F_FACTOR: 1.0})
+    defaults = {"heat.load": d.heat.load, "coolant.inlet_temperature": d.inlet_temperature, "coolant.flow": d.flow,
+                NU_FACTOR: 1.0, F_FACTOR: 1.0}
+    if d.passage.kind == "channels":
+        defaults.update({"passage.width": d.passage.width, "passage.depth": d.passage.depth})
+    c = _columns(keys, rows, defaults)
     R_area = d.interface.resistance_area * _interface_factor(keys, rows)
     ev = Evaluator(replace(d, inlet_temperature=float(np.min(c["coolant.inlet_temperature"]))))
-    got = evaluate_channel_rows(ev, c["passage.width"], c["passage.depth"], c["coolant.flow"], c["heat.load"],
-                                c["coolant.inlet_temperature"], R_area, c[NU_FACTOR], c[F_FACTOR])
+    common = (c["coolant.flow"], c["heat.load"], c["coolant.inlet_temperature"], R_area, c[NU_FACTOR], c[F_FACTOR])
+    if d.passage.kind == "channels":
+        got = evaluate_channel_rows(ev, c["passage.width"], c["passage.depth"], *common)
+    else:
+        got = evaluate_tube_rows(ev, *common)
     # anchored: the check's value plus each row's change from the nominal row (times its ratio for the drop)
     face = result.T_face_max + (got.T_face - got.T_face[0])
     outlet = result.T_out + (got.T_out - got.T_out[0])
@@ -152,6 +161,17 @@ def channel_rows(design, result, keys, rows) -> dict:
     bad = ~got.ok
     return {"face": np.where(bad, np.nan, face), "outlet": np.where(bad, np.nan, outlet),
             "pressure_drop": np.where(bad, np.nan, dp), "water_use": water}
+
+
+def _coolant(ev: Evaluator, flow, Q, T_in):
+    """Mass flow, outlet, solvable, bulk-mean properties and the rise per watt of each row: the enthalpy balance
+    on the evaluator's property table (any shape of rows)."""
+    m_dot = ev.props.at(T_in).rho * flow  # the volumetric flow is taken at inlet conditions
+    T_out = ev.props.temperature(ev.props.enthalpy(T_in) + Q / m_dot)
+    ok = np.isfinite(T_out) & (T_out < ev.T_top)
+    T_out = np.where(ok, T_out, np.nan)
+    pr = ev.props.at(np.where(ok, 0.5 * (T_in + T_out), T_in))
+    return m_dot, T_out, ok, pr, (T_out - T_in) / Q
 
 
 def _take(pr: PropertyState, rows) -> PropertyState:
@@ -170,13 +190,7 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     w, dep, flow, Q, T_in, nu, ff = (col(a) for a in (width, depth, flow, load, T_in, nu, ff))
     N = w.shape[0]
     n = np.full_like(w, float(d.passage.count))
-    # coolant: the outlet from the enthalpy balance, properties at the bulk mean (the evaluator's table)
-    m_dot = ev.props.at(T_in).rho * flow
-    T_out = ev.props.temperature(ev.props.enthalpy(T_in) + Q / m_dot)
-    ok = np.isfinite(T_out) & (T_out < ev.T_top)
-    T_out = np.where(ok, T_out, np.nan)
-    pr = ev.props.at(np.where(ok, 0.5 * (T_in + T_out), T_in))
-    s = (T_out - T_in) / Q
+    m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
     passage = SimpleNamespace(count=n, width=w, depth=dep, plenum_length=d.passage.plenum_length)
     wall = channel_passage.wall_thickness(passage, d.plate)
     L = channel_passage.channel_length(passage, d.plate)
@@ -217,6 +231,35 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     ok = ok.ravel() & np.isfinite(R_th)
     flat = lambda a: np.asarray(a, dtype=float).ravel()  # noqa: E731
     return SimpleNamespace(T_face=flat(T_in) + flat(Q) * R_th, T_out=flat(T_out), dp=flat(dp), ok=ok)
+
+
+def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
+    """:func:`evaluate_channel_rows` for the design's serpentine tube (its geometry fixed, 1-D arrays of rows):
+    the steps of :meth:`coldplate.sizing.evaluate.Evaluator.tubes` with the rows on the flow axis."""
+    d = ev.design
+    flow, Q, T_in, nu, ff = (np.asarray(a, dtype=float).ravel() for a in (flow, load, T_in, nu, ff))
+    m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
+    passage = d.passage
+    geom = tube_passage.geometry(passage, d.plate)
+    V, Re, fr, _, h = passage_flow(m_dot, pr, geom.n_parallel * geom.flow_area, geom.D_h, geom.alpha, geom.shape,
+                                   geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model)
+    h = h * nu
+    f = np.asarray(fr.f) * ff
+    dp = (friction_pressure_drop(f, geom.path_length, geom.D_h, pr.rho, V)
+          + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
+    r_conv = tube_passage.convection(passage, geom, h)[0]
+    x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, geom)
+    cv_x = nusselt_local(np.asarray(Re)[:, None], pr.Pr[:, None], x, geom.heated_length, geom.D_h, geom.alpha,
+                         shape=geom.shape, laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated,
+                         rel_roughness=geom.rel_roughness)
+    r_conv_x = tube_passage.convection(passage, geom, np.asarray(cv_x.Nu) * pr.k[:, None] / geom.D_h * nu[:, None])[0]
+    fixed = sum(r for _, r in tube_passage.conduction_parts(passage, d.plate, geom))
+    R_plate = ev.plate.rise(d.plate.base, 1.0 / (ev.A_cool * (fixed + r_conv)), s, ev.A_cool * (fixed + r_conv_x),
+                            single_pass=geom.single_pass)
+    R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float),
+                                            d.heat.footprint_length * d.heat.footprint_width)
+    ok = ok & np.isfinite(R_th)
+    return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok)
 
 
 def _design_for(design, values: dict):
