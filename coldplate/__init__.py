@@ -33,7 +33,7 @@ def solve(design):
 def size_file(path):
     """Read a design file with a ``[search]`` table, search it and recommend a plate (``coldplate size``);
     returns a frozen :class:`coldplate.sizing.recommend.SizingResult`."""
-    from coldplate.sizing.recommend import size_file as _size_file
+    from coldplate.uncertainty.sizing import size_file as _size_file  # face_limit_confidence: held at a percentile
 
     return _notebook(_size_file(path))
 
@@ -43,3 +43,11 @@ def _notebook(result):
     import coldplate.notebook  # noqa: F401  (installs them on import)
 
     return result
+
+
+def check_file_with_band(path, confidence=None):
+    """``coldplate check`` with the uncertainty band (``[uncertainty]``, or ``confidence`` such as 0.9 for the
+    correlations' scatter alone); ``result.uncertainty`` holds the band."""
+    from coldplate.uncertainty.run import check_file_with_band as _check
+
+    return _notebook(_check(path, confidence))

@@ -92,10 +92,12 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--map", metavar="OUT.csv", help="also write the mounting-face temperature map (x_m, y_m, T_C; "
                                                      "field model only)")
     c.add_argument("--force", action="store_true", help="replace an existing --map file")
+    _confidence_option(c)
     r = sub.add_parser("report", help="write a design report: one self-contained HTML file, or Markdown")
     r.add_argument("file", help="design file (TOML)")
     r.add_argument("-o", "--output", required=True, help="report file: NAME.html, or NAME.md (figures beside it)")
     r.add_argument("--units", choices=("si", "us"), default="si", help="display units (default: si)")
+    _confidence_option(r)
     _flow_range_options(r)
     r.add_argument("--force", action="store_true", help="replace existing files")
     k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with fitted flow curves")
@@ -109,6 +111,21 @@ def _parser() -> argparse.ArgumentParser:
     add_size_parser(sub)
     commands.add_parsers(sub)
     return p
+
+
+def _confidence_option(p) -> None:
+    p.add_argument("--confidence", help="central probability of the uncertainty band, e.g. '90 %%' (the 5 %%-95 %% "
+                                        "band; default: [uncertainty] confidence, else 90 %%); without an "
+                                        "[uncertainty] table: the correlations' scatter alone")
+
+
+def _confidence(args):
+    """The --confidence option as a fraction, or None (a bad value: one-line DesignError)."""
+    if getattr(args, "confidence", None) is None:
+        return None
+    from coldplate.uncertainty.reader import parse_confidence
+
+    return parse_confidence(args.confidence, "--confidence")
 
 
 def _flow_range_options(p) -> None:
@@ -135,9 +152,6 @@ def _report(args, version) -> str:
     from pathlib import Path
 
     from coldplate.plate.curves import fit_flow_curves, flow_curve, mounting_face_profile
-    from coldplate.design.reader import parse_design
-    from coldplate.check import solve
-
     from reports.make import check_targets, make_report, remove_leftovers, report_format, write_report
 
     report_format(args.output)
@@ -152,12 +166,20 @@ def _report(args, version) -> str:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
-    result = solve(parse_design(text))
+    result = _checked(text, _confidence(args))
     curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
     rep = make_report(result, curve, fit_flow_curves(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
     written = write_report(rep, args.output, args.force)
     return "wrote " + ", ".join(str(p) for p in written)
+
+
+def _checked(text: str, confidence):
+    """The check of design-file text, with its uncertainty band when the file or --confidence asks for one."""
+    from coldplate.design.reader import _toml
+    from coldplate.uncertainty.run import check_data
+
+    return check_data(_toml(text), confidence)
 
 
 def _curves(args, version) -> str:
@@ -267,11 +289,11 @@ def _run(argv, debug: bool) -> int:
         elif args.command == "curves":
             text = _curves(args, __version__)
         else:
-            from coldplate.check import check_file
+            from coldplate.uncertainty.run import check_file_with_band
 
             if args.map:
                 _map_target(args.map, args.force)
-            result = check_file(args.file)
+            result = check_file_with_band(args.file, _confidence(args))
             if args.map:
                 _write_map(result, args.map)
             if args.format == "json":

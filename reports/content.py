@@ -12,6 +12,7 @@ import hashlib
 import math
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .air_report import air_section
+from .uncertainty import uncertainty_section
 from .optional_sections import (circuit_section, field_section, module_inputs, module_section, planning_section,
                                 source_rows)
 from .text import model_line
@@ -250,6 +251,10 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
     if air is not None:
         sections.append(air_section(air, u, fig("air", "The air sink's fins to scale (a cut across the air flow) "
                                                        "and the hottest faces beside the water design.")))
+    band = uncertainty_section(r, u, fig("tornado", "Hottest mounting face with each input at its low and high "
+                                              "end; the band and the nominal marked."))
+    if band is not None:
+        sections.append(band)
     sections.append(_methods(r))
     sections.append(Section("assumptions", "Assumptions", tuple(r.assumptions)))
     return Report(title=r.design.title, job=job_line(r, u), units=units, version=version,

@@ -9,6 +9,7 @@ import json
 from .module_report import module_to_dict
 from .air_report import air_to_dict
 from .supply import supply_dict
+from .uncertainty import uncertainty_dict
 
 
 def _c(T: float) -> float:
@@ -88,6 +89,7 @@ def check_to_dict(r, version: str = "") -> dict:
     out = result_to_dict(r, version)
     out.update(module_to_dict(r.module))
     out.update(air_to_dict(r))
+    out.update(uncertainty_dict(r))  # only with a band ([uncertainty] or --confidence)
     return out
 
 

@@ -59,6 +59,8 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
     air = getattr(r, "air", None)
     if air is not None:
         figs["air"] = plots.draw(plots.air_sink, air, u, name="air")
+    if r.uncertainty is not None and r.uncertainty.sensitivity:
+        figs["tornado"] = plots.draw(plots.tornado, r.uncertainty, u, name="tornado")
     return figs
 
 

@@ -425,3 +425,29 @@ def air_sink(air, u: DisplayUnits) -> Figure:
     ax2.set_title("Hottest face", loc="left")
     ax2.legend(fontsize=8, loc="upper left")
     return fig
+
+
+def tornado(band, u: DisplayUnits) -> Figure:
+    """Tornado chart: for each input (largest swing on top) a bar from the hottest face at its low end to the
+    face at its high end, around the nominal; the band's ends as dotted lines (``band``: Result.uncertainty)."""
+    face = band.band("face")
+    rows = [s for s in band.sensitivity if np.isfinite(s.low) and np.isfinite(s.high)]
+    nominal = u.value("temperature", face.nominal)
+    fig, (ax,) = _figure(0.42 * len(rows) + 1.4)
+    y = list(range(len(rows)))[::-1]
+    for yi, s in zip(y, rows):
+        lo, hi = u.value("temperature", s.low), u.value("temperature", s.high)
+        ax.barh(yi, lo - nominal, left=nominal, color=BLUE, height=0.6, label="input at its low end" if yi == y[0]
+                else None)
+        ax.barh(yi, hi - nominal, left=nominal, color=VERMILION, height=0.6, hatch="//",
+                label="input at its high end" if yi == y[0] else None)
+    ax.axvline(nominal, color=BLACK, linewidth=1.0, label="nominal")
+    for q, x in ((band.lower_q, face.low), (band.upper_q, face.high)):
+        if np.isfinite(x):
+            ax.axvline(u.value("temperature", x), color=PURPLE, linestyle=":", label=f"{q * 100:g} % of the band")
+    ax.set_yticks(y, [s.input for s in rows])
+    ax.grid(axis="y", visible=False)
+    ax.set_xlabel(f"hottest mounting face [{u.label('temperature')}]")
+    ax.set_title(f"What drives the hottest face: {band.confidence * 100:g} % band, {band.samples} samples", loc="left")
+    ax.legend(loc="lower right", fontsize=7)
+    return fig

@@ -10,6 +10,7 @@ from .display_units import DisplayUnits, annotate, exact_values, format_number, 
 from .module_report import module_text
 from .air_report import air_text
 from .supply import supply_lines
+from .uncertainty import uncertainty_lines
 
 WIDTH = 92
 
@@ -121,6 +122,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
     out += _table(rows, "Result")
     out.append("")
     out += source_lines(r, u, _table)
+    out += uncertainty_lines(r, _table, units)
     R_unit = u.label("thermal_resistance")
     parts = [(name, v("thermal_resistance", value), f"{R_unit}  {100 * value / r.R_th:5.1f} %")
              for name, value in r.resistances]

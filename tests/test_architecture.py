@@ -34,8 +34,9 @@ LAYERS = (
     (4, "design file", ("coldplate.design.reader",)),
     (5, "check", ("coldplate.check",)),
     (6, "sizing", ("coldplate.sizing",)),
-    (7, "reports", ("reports",)),
-    (8, "command line and API", ("coldplate.cli", "coldplate.sizing.command", "coldplate")),
+    (7, "uncertainty", ("coldplate.uncertainty",)),
+    (8, "reports", ("reports",)),
+    (9, "command line and API", ("coldplate.cli", "coldplate.sizing.command", "coldplate")),
 )
 #: What reports may import from coldplate.
 REPORTS_MAY_USE = ("coldplate.design.units", "coldplate.design.errors")

@@ -107,14 +107,15 @@ def test_a_stop_that_a_library_turns_into_its_own_error_is_still_a_stop(monkeypa
     # Seen in CI: SIGTERM landing inside a C extension's import came out as "ImportError: initialization failed"
     # and was reported as an internal error with exit 1.  In process: the handler records the signal, the library
     # raises its own error instead of the handler's exception; main() must still answer with the stop.
-    import coldplate.check
+    import coldplate.uncertainty.run
     from coldplate import cli
 
-    def interrupted_import(path):
+    def interrupted_import(path, *args):
         cli._received.append(sig)
         raise ImportError("initialization failed")
 
-    monkeypatch.setattr(coldplate.check, "check_file", interrupted_import)
+    # the check command's entry (the check, then the band when one is asked for)
+    monkeypatch.setattr(coldplate.uncertainty.run, "check_file_with_band", interrupted_import)
     assert cli.main(["check", str(EXAMPLE / "reagent-block-channels.toml")]) == STATUS[sig]
     err = capsys.readouterr().err
     assert err == f"coldplate: {word}; nothing written\n"

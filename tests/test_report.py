@@ -19,7 +19,7 @@ from coldplate.cli import main
 from coldplate.plate.curves import fit_flow_curves, flow_curve
 from coldplate.design.reader import load_design
 from coldplate.findings.base import DEFER
-from coldplate.check import check_file
+from coldplate.uncertainty.run import check_file_with_band as check_file  # what the report command solves
 from reports.jsonout import render_json, result_to_dict
 
 from .helpers import EXAMPLES, ROOT, example_dict, modified, write
@@ -123,6 +123,11 @@ def test_html_parses_and_has_every_section(reports):
                 assert part in page.sections
             else:
                 assert part not in page.sections
+        if r.uncertainty is not None:  # an [uncertainty] table: the band's section and its tornado chart
+            expected.add("fig-tornado")
+            assert "uncertainty" in page.sections
+        else:
+            assert "uncertainty" not in page.sections
         assert set(page.figures) == expected, name
         assert text.startswith("<!DOCTYPE html>")
 
@@ -170,6 +175,10 @@ JSON_UNITS = {
     "heat_transfer_coefficient_W_per_m2K": ("W/(m**2*K)", "W/(m**2*K)", "Btu_it/(hour*ft**2*delta_degF)"),
     "heat_transfer_coefficient_hot_spot_W_per_m2K": ("W/(m**2*K)", "W/(m**2*K)", "Btu_it/(hour*ft**2*delta_degF)"),
     "water_use_L_per_day": ("L/day", "L/day", "gallon/day"),
+    "uncertainty.surface_temperature_max_C.nominal": ("degC", "degC", "degF"),  # the band's rows: the nominal
+    "uncertainty.outlet_temperature_C.nominal": ("degC", "degC", "degF"),
+    "uncertainty.pressure_drop_Pa.nominal": ("Pa", "kPa", "psi"),
+    "uncertainty.water_use_L_per_day.nominal": ("L/day", "L/day", "gallon/day"),
     "water_use_m3_per_year": ("m**3/year", "m**3/year", "gallon/year"),
     # thermoelectric modules (result.module)
     "module_current_A": ("A", "A", "A"),

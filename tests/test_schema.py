@@ -133,6 +133,13 @@ def test_an_unknown_key_fails_schema_and_reader(validator, path):
         data = copy.deepcopy(base)
         _at(data, where)["flow_rte"] = "1 L/min"
         assert _errors(validator, data), where
+        if where == ("uncertainty",):  # read by the band (coldplate.uncertainty.reader), not the check's reader
+            from coldplate.design.reader import design_from_dict
+            from coldplate.uncertainty.reader import read_uncertainty
+
+            with pytest.raises(DesignError):
+                read_uncertainty(data, design_from_dict(data))
+            continue
         assert _reader_refuses(data), where
     data = copy.deepcopy(base)
     data["plates"] = {"length": "1 mm"}  # an unknown table

@@ -38,6 +38,7 @@ OTHER_KINDS = {
     "heads": "an array of heads (lengths) or pressures",
     "money": "an amount and a three-letter currency code, per a unit where asked ('4.10 EUR/m**3')",
     "parts": "an array of tables, [[circuit.part]]",
+    "spread": "an input's spread: '±x %', '±x <unit>', [low, high], or { spread = ..., distribution = ... }",
     "axis": "one value, an array of values, or { from, to, steps } (spacing = \"log\" for geometric)",
 }
 
@@ -103,6 +104,21 @@ FIELDS: dict[str, Field] = {
     "[correlations] laminar": _F("choice", "laminar heat-transfer method"),
     "[correlations] turbulent": _F("choice", "turbulent heat-transfer method"),
     "[correlations] segments": _F("integer", "steps of the march along the flow (default 40)"),
+    # [uncertainty]: spreads of the inputs (coldplate/uncertainty/reader.py)
+    "[uncertainty] correlations": _F("boolean", "include each correlation's published scatter (default true)"),
+    "[uncertainty] samples": _F("integer", "how many samples to draw (default 4000)"),
+    "[uncertainty] seed": _F("integer", "the sampler's seed, so runs repeat exactly"),
+    "[uncertainty] confidence": _F("fraction", "the band's width, e.g. '90 %' for the 5 % to 95 % points"),
+    "[uncertainty] heat.load": _F("spread", "spread of the heat load"),
+    "[uncertainty] coolant.inlet_temperature": _F("spread", "spread of the inlet water, e.g. the seasons' range"),
+    "[uncertainty] coolant.flow": _F("spread", "spread of the flow"),
+    "[uncertainty] interface.resistance": _F("spread", "spread of the interface's resistance per area"),
+    "[uncertainty] interface.conductivity": _F("spread", "spread of the interface material's conductivity"),
+    "[uncertainty] interface.thickness": _F("spread", "spread of the interface's thickness"),
+    "[uncertainty] passage.width": _F("spread", "machining tolerance of the channel width"),
+    "[uncertainty] passage.depth": _F("spread", "machining tolerance of the channel depth"),
+    "[uncertainty] passage.inner_diameter": _F("spread", "tolerance of the tube's bore"),
+    "[uncertainty] passage.height": _F("spread", "machining tolerance of the cavity height"),
     # [air]: the air-cooled alternative (coldplate/air/reader.py)
     "[air] length": _F("length", "sink envelope along the air (the vertical for natural convection)"),
     "[air] width": _F("length", "sink envelope across the fins"),
@@ -179,6 +195,7 @@ FIELDS: dict[str, Field] = {
     "[search] base": _F("axis", "base thicknesses to search"),
     "[search] flow": _F("axis", "flows to search"),
     "[search] face_limit": _F("temperature", "hottest mounting face a candidate may have"),
+    "[search] face_limit_confidence": _F("fraction", "hold the face limit at this percentile of the band, e.g. '95 %'"),
     "[search] pressure_drop_limit": _F("pressure", "largest plate pressure drop"),
     "[search] discharge_limit": _F("temperature", "hottest outlet allowed"),
     "[search] min_width": _F("length", "narrowest channel the shop can cut"),

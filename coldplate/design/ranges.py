@@ -124,6 +124,7 @@ RANGES: dict[str, Bound] = dict((
     _b("[search] min_wall", 1e-5, 0.1),
     _b("[search] max_thickness", 1e-4, 0.5),
     _b("[search] max_water", 1e-9, 1.0),
+    _b("[search] face_limit_confidence", 0.5, 0.998, "a percentile above the median, below 99.8 %", low_open=True),
 ))
 
 #: Money: plausible amounts per SI unit, wide enough for every currency (some count 10 000 to the euro),

@@ -243,8 +243,9 @@ def _toml(text: str) -> dict:
 
 _TOP = ("title", "heat", "interface", "plate", "passage", "coolant", "supply", "room", "correlations")
 _OPTIONAL = ("module", "circuit", "source", "air")
-#: Tables read by features outside the design check (``[search]``: coldplate.sizing); the check ignores them.
-_FEATURE_TABLES = ("search",)
+#: Tables read by features outside the design check (``[search]``: coldplate.sizing; ``[uncertainty]``:
+#: coldplate.uncertainty); the check ignores them.
+_FEATURE_TABLES = ("search", "uncertainty")
 
 
 def design_from_dict(data: dict) -> Design:

@@ -23,6 +23,7 @@ from coldplate.plate import materials
 from coldplate.plate.sources import SOURCE_KEYS
 from coldplate.sizing.search import LIMITS, VARIABLES
 from coldplate.supply import reader as supply_reader
+from coldplate.uncertainty import reader as uncertainty_reader
 
 DRAFT = "https://json-schema.org/draft/2020-12/schema"
 _NUMBER = r"[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?"
@@ -41,7 +42,8 @@ def key_sets() -> dict[str, tuple[str, ...]]:
     return {"top": ("title",), **{t: tuple(keys) for t, keys in reader.KEYS.items()},
             "passage": reader.ANY_PASSAGE_KEY, "module": module_reader._KEYS,
             "circuit": supply_reader.CIRCUIT_KEYS, "circuit.part": supply_reader.ANY_PART_KEY,
-            "source": SOURCE_KEYS, "search": search, "air": air_reader._KEYS}
+            "source": SOURCE_KEYS, "search": search, "air": air_reader._KEYS,
+            "uncertainty": (*uncertainty_reader.SETTINGS, *uncertainty_reader.INPUTS)}
 
 
 def tables() -> tuple[str, ...]:
@@ -124,6 +126,14 @@ def value_schema(name: str, f: Field) -> dict:
         s = {"type": "string", "pattern": MONEY_PATTERN}
     elif kind == "parts":
         s = {"type": "array", "minItems": 1, "items": _table_schema("circuit.part")}
+    elif kind == "spread":
+        one = _unit_string("")
+        pm = {"type": "string", "pattern": "^\\s*(±|\\+/-)"}
+        s = {"anyOf": [pm, {"type": "array", "items": one, "minItems": 2, "maxItems": 2},
+                       {"type": "object", "required": ["spread"], "additionalProperties": False,
+                        "properties": {"spread": {"anyOf": [pm, {"type": "array", "items": one, "minItems": 2,
+                                                                  "maxItems": 2}]},
+                                       "distribution": {"enum": list(uncertainty_reader.DISTRIBUTIONS)}}}]}
     elif kind == "axis":
         one = {"anyOf": [{"type": "number"}, _unit_string("")]}
         s = {"anyOf": [one, {"type": "array", "items": one, "minItems": 1},

@@ -21,6 +21,7 @@ if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages
     from coldplate.modules.result import ModuleResult
     from coldplate.air.result import AirResult
     from coldplate.supply.result import CircuitResult, PlanningResult
+    from coldplate.uncertainty.result import Uncertainty
 
 @dataclass(frozen=True)
 class MethodUse:
@@ -121,3 +122,5 @@ class Result:
     grid_uncertainty: float | None = None  #: of T_face_max [K] (field model: Richardson / grid convergence index)
     field: FieldResult | None = None  #: the solved field (face map, coolant per channel) with model "field"
     air: AirResult | None = None  #: the air-cooled alternative beside this design (from [air]; coldplate.air)
+    uncertainty: Uncertainty | None = None  #: the band of the headline numbers ([uncertainty]; set by
+    #: coldplate.uncertainty.run after the check, never by the check itself)

@@ -56,7 +56,8 @@ def add_parser(sub) -> None:
 
 def run(args, write_stdout) -> int:
     from coldplate import __version__
-    from coldplate.sizing.recommend import binding_line, read_file, size
+    from coldplate.sizing.recommend import binding_line, read_file
+    from coldplate.uncertainty.sizing import size  # the nominal search, or held at a face percentile
 
     out_path = Path(args.write_best) if args.write_best else None
     if out_path is not None and out_path.exists() and not args.force:

@@ -53,6 +53,7 @@ LIMITS = {
     "min_wall": "length",
     "max_thickness": "length",
     "max_water": "flow",
+    "face_limit_confidence": "fraction",
 }
 #: The most candidates one search may hold (memory for the axes is small; this guards against typos).
 MAX_CANDIDATES = 200_000_000
@@ -71,6 +72,7 @@ class Limits:
     min_wall: float | None  #: thinnest wall between channels [m]
     max_thickness: float | None  #: plate stock: base + channel depth (or base + tube radius) at most [m]
     max_water: float | None  #: once-through water per day, as an average flow [m^3/s]
+    face_confidence: float | None = None  #: hold the face limit at this percentile of the band ([uncertainty])
 
 
 @dataclass(frozen=True)
@@ -159,7 +161,10 @@ def _limits(t: Table, design: Design) -> Limits:
     if max_water is not None and not once:
         raise DesignError(t.field("max_water"), "the water returns to its loop, so it uses none; "
                                                 "bound the flow's range instead")
-    return Limits(face, dp, source, discharge, min_width, min_wall, max_thickness, max_water)
+    # face_limit_confidence: the percentile of the band at which the face limit must hold (coldplate/uncertainty/
+    # sizing.py runs the search again with the limit lowered until it does)
+    return Limits(face, dp, source, discharge, min_width, min_wall, max_thickness, max_water,
+                  t.value("face_limit_confidence", "fraction", required=False))
 
 
 def _axis(t: Table, name: str, unit: str, whole: bool, low: float, high: float) -> np.ndarray:

@@ -1,0 +1,320 @@
+"""Propagation: every sample a candidate with perturbed inputs and correlation factors, run all at once.
+
+Rows: the nominal (every input at its design value), then each input at its low and at its high end with the
+others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
+
+* **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow, one
+  heat source, no modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows through the sizing
+  evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``,
+  ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``, the minor losses)
+  with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean and
+  local) and the friction factor are multiplied by the row's correlation factors.  The evaluator agrees with
+  the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the check's value plus the
+  row's change from the nominal row (temperatures) or times its ratio to it (pressure drop), so with every
+  spread zero the band is the check itself.
+* **repeated check** (cavities, a tube whose size varies, modules, a supply that sets the flow): :func:`check_rows` solves each
+  row's design as the check does (the supply's operating point, the plate, the modules; not the water
+  planning or the findings, which are not banded) at a smaller sample count (200 by default, 64 where each
+  sample solves a circuit or modules).  The check takes no correlation factors, so this path leaves the
+  correlation scatter out, and says so in the notes.
+
+Samples that cannot be solved (boiling, beyond the property data) count as the hottest and highest values, so
+they widen the upper end instead of vanishing from it.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+from types import SimpleNamespace
+
+import numpy as np
+
+from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+
+from coldplate.design.errors import ColdplateError
+from coldplate.plate import conduction
+from coldplate.plate.convection import nusselt_local
+from coldplate.plate.passages import channels as channel_passage
+from coldplate.plate.passages import tube as tube_passage
+from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
+from coldplate.sizing.evaluate import LOCAL_BLOCK, Evaluator
+from coldplate.sizing.proptable import PropertyState
+from coldplate.uncertainty.reader import (DEFAULT_SAMPLES, FALLBACK_SAMPLES, SLOW_FALLBACK_SAMPLES, Spread,
+                                         UncertaintySpec)
+from coldplate.uncertainty.result import OUTPUTS, Band, Sensitivity, Uncertainty
+from coldplate.uncertainty.sampling import ends, latin_hypercube, percentile, to_values
+from coldplate.uncertainty.scatter import band_of
+
+#: Keys of the correlation factors among the inputs.
+NU_FACTOR, F_FACTOR = "correlations.Nu", "correlations.f"
+
+
+def covered(design, result, keys=()) -> bool:
+    """Whether the vectorised evaluator covers this design (else: repeated checks)."""
+    d = design
+    return (d.passage.kind in ("channels", "tube") and d.module is None and d.flow is not None
+            and d.supply.drive == "flow" and d.model.laminar != "sieder-tate" and len(d.sources) <= 1
+            and result.model == "network" and not (keys and "passage.inner_diameter" in keys))
+
+
+def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
+    """The band of ``result`` (the check of ``design``) under the spreads of ``spec``."""
+    spreads = list(spec.spreads(design, data))
+    fast = covered(design, result, [s.key for s in spreads])
+    notes = []
+    factors = []
+    if spec.correlations:
+        for key, quantity in ((NU_FACTOR, "Nu"), (F_FACTOR, "f")):
+            s = band_of(result.methods, result.regime, quantity)
+            if s is not None:
+                factors.append((quantity, s.method, s.band, s.source))
+                if fast:
+                    spreads.append(Spread(key, 1.0, 1.0 - s.band, 1.0 + s.band, "uniform",
+                                          f"±{s.band * 100:g} % ({s.method})"))
+        if not fast:
+            notes.append("the correlations' scatter is left out: the repeated check takes no correlation factors")
+            factors = []
+    slow = design.module is not None or (design.circuit is not None and design.supply.drive != "flow")
+    n = spec.samples or (DEFAULT_SAMPLES if fast else SLOW_FALLBACK_SAMPLES if slow else FALLBACK_SAMPLES)
+    if fast:
+        notes.insert(0, f"{n} samples through the sizing search's vectorised evaluator, anchored to the check")
+    else:
+        notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
+                        "of fixed size at a given flow, with one heat source and no modules)")
+    k = len(spreads)
+    u = latin_hypercube(n, k, spec.seed)
+    sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
+        if k else np.empty((n, 0))
+    nominal = np.array([s.nominal for s in spreads])
+    oat_ends = [ends(s.low, s.high, s.distribution, spec.confidence) for s in spreads]
+    oat = np.repeat(nominal[None, :], 2 * k, axis=0)
+    for i, (lo, hi) in enumerate(oat_ends):
+        oat[2 * i, i], oat[2 * i + 1, i] = lo, hi
+    rows = np.vstack([nominal[None, :], oat, sampled])
+    keys = [s.key for s in spreads]
+    out = evaluator_rows(design, result, keys, rows) if fast else check_rows(design, keys, rows)
+    body = slice(1 + 2 * k, None)
+    unsolved = int(np.count_nonzero(~np.isfinite(out["face"][body])))
+    if unsolved:
+        notes.append(f"{unsolved} of {n} samples could not be solved (boiling or beyond the property data); they "
+                     "count as the hottest")
+    lq, uq = 0.5 - 0.5 * spec.confidence, 0.5 + 0.5 * spec.confidence
+    nominal_of = {"face": result.T_face_max, "outlet": result.T_out, "pressure_drop": result.dp,
+                  "water_use": result.water_use_L_per_day}
+    bands = []
+    for name in OUTPUTS:
+        x = np.where(np.isfinite(out[name][body]), out[name][body], math.inf)
+        (lo, elo), (med, emed), (hi, ehi) = (percentile(x, q) for q in (lq, 0.5, uq))
+        bands.append(Band(name, nominal_of[name], lo, med, hi, elo, emed, ehi))
+    sens = tuple(sorted((Sensitivity(keys[i], oat_ends[i][0], oat_ends[i][1], float(out["face"][1 + 2 * i]),
+                                     float(out["face"][2 + 2 * i]), float(out["pressure_drop"][1 + 2 * i]),
+                                     float(out["pressure_drop"][2 + 2 * i])) for i in range(k)),
+                        key=lambda s: -s.swing if math.isfinite(s.swing) else -math.inf))
+    if "coolant.inlet_temperature" in keys:
+        inlet_low = percentile(sampled[:, keys.index("coolant.inlet_temperature")], lq)[0]
+    else:
+        inlet_low = result.T_in
+    inputs = tuple((s.key, s.low, s.high, s.distribution, s.text) for s in spreads
+                   if s.key not in (NU_FACTOR, F_FACTOR))
+    return Uncertainty(spec.confidence, n, spec.seed, "vectorised evaluator" if fast else "repeated check",
+                       tuple(bands), sens, inputs, tuple(factors), unsolved, float(inlet_low), tuple(notes))
+
+
+def _columns(keys, rows, defaults: dict) -> dict:
+    """Each input as a column of ``rows`` (its default where no spread names it)."""
+    return {name: rows[:, keys.index(name)] if name in keys else np.full(rows.shape[0], float(value))
+            for name, value in defaults.items()}
+
+
+def _interface_factor(keys, rows) -> np.ndarray:
+    """R''/R''_design of each row: resistance in proportion, conductivity inversely, thickness in proportion."""
+    factor = np.ones(rows.shape[0])
+    for key in ("interface.resistance", "interface.conductivity", "interface.thickness"):
+        if key in keys:
+            v = rows[:, keys.index(key)]
+            nominal = rows[0, keys.index(key)]
+            factor = factor * (nominal / v if key == "interface.conductivity" else v / nominal)
+    return factor
+
+
+def evaluator_rows(design, result, keys, rows) -> dict:
+    """Every row through the evaluator's stages, one candidate per row (channels, or the design's tube);
+    anchored to the check."""
+    d = design
+    defaults = {"heat.load": d.heat.load, "coolant.inlet_temperature": d.inlet_temperature, "coolant.flow": d.flow,
+                NU_FACTOR: 1.0, F_FACTOR: 1.0}
+    if d.passage.kind == "channels":
+        defaults.update({"passage.width": d.passage.width, "passage.depth": d.passage.depth})
+    c = _columns(keys, rows, defaults)
+    R_area = d.interface.resistance_area * _interface_factor(keys, rows)
+    ev = Evaluator(replace(d, inlet_temperature=float(np.min(c["coolant.inlet_temperature"]))))
+    common = (c["coolant.flow"], c["heat.load"], c["coolant.inlet_temperature"], R_area, c[NU_FACTOR], c[F_FACTOR])
+    if d.passage.kind == "channels":
+        got = evaluate_channel_rows(ev, c["passage.width"], c["passage.depth"], *common)
+    else:
+        got = evaluate_tube_rows(ev, *common)
+    # anchored: the check's value plus each row's change from the nominal row (times its ratio for the drop)
+    face = result.T_face_max + (got.T_face - got.T_face[0])
+    outlet = result.T_out + (got.T_out - got.T_out[0])
+    dp = result.dp * got.dp / got.dp[0]
+    water = result.water_use_L_per_day * c["coolant.flow"] / c["coolant.flow"][0]
+    bad = ~got.ok
+    return {"face": np.where(bad, np.nan, face), "outlet": np.where(bad, np.nan, outlet),
+            "pressure_drop": np.where(bad, np.nan, dp), "water_use": water}
+
+
+def _coolant(ev: Evaluator, flow, Q, T_in):
+    """Mass flow, outlet, solvable, bulk-mean properties and the rise per watt of each row: the enthalpy balance
+    on the evaluator's property table (any shape of rows)."""
+    m_dot = ev.props.at(T_in).rho * flow  # the volumetric flow is taken at inlet conditions
+    T_out = ev.props.temperature(ev.props.enthalpy(T_in) + Q / m_dot)
+    ok = np.isfinite(T_out) & (T_out < ev.T_top)
+    T_out = np.where(ok, T_out, np.nan)
+    pr = ev.props.at(np.where(ok, 0.5 * (T_in + T_out), T_in))
+    return m_dot, T_out, ok, pr, (T_out - T_in) / Q
+
+
+def _take(pr: PropertyState, rows) -> PropertyState:
+    return PropertyState(pr.rho[rows], pr.mu[rows], pr.cp[rows], pr.k[rows])
+
+
+def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area, nu, ff):
+    """Hottest face [K], outlet [K], plate pressure drop [Pa] of N channel-plate candidates, one per row (arrays
+    of length N: channel width and depth [m], flow [m³/s], load [W], inlet [K], interface R'' [m² K/W], factors
+    on the Nusselt number and the friction factor [-]).  The channel count, plate and base are the design's.
+
+    The steps of :meth:`coldplate.sizing.evaluate.Evaluator.channels` with every per-flow quantity per row
+    (shape (N, 1, 1) throughout, so the evaluator's functions broadcast row by row)."""
+    d = ev.design
+    col = lambda a: np.asarray(a, dtype=float).reshape(-1, 1, 1)  # noqa: E731
+    w, dep, flow, Q, T_in, nu, ff = (col(a) for a in (width, depth, flow, load, T_in, nu, ff))
+    N = w.shape[0]
+    n = np.full_like(w, float(d.passage.count))
+    m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
+    passage = SimpleNamespace(count=n, width=w, depth=dep, plenum_length=d.passage.plenum_length)
+    wall = channel_passage.wall_thickness(passage, d.plate)
+    L = channel_passage.channel_length(passage, d.plate)
+    D_h = hydraulic_diameter_rectangle(w, dep)
+    alpha = aspect_ratio(w, dep)
+    V, Re, f, h = (np.empty((N, 1, 1)) for _ in range(4))
+    heated = channel_passage.heated_walls(w, dep).ravel()
+    for kind in np.unique(heated):
+        r = heated == kind
+        V[r], Re[r], fr, _, h[r] = passage_flow(m_dot[r], _take(pr, r), (n * w * dep)[r], D_h[r], alpha[r],
+                                                "rectangle", L, L, str(kind), d.passage.roughness / D_h[r], d.model)
+        f[r] = fr.f
+    h = h * nu
+    f = f * ff
+    _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
+    h_eff = effective * h / ev.A_cool
+    P = ev.plate.xg.size
+    x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, SimpleNamespace(single_pass=True))
+    r_x = np.empty((N, 1, P))
+    for kind in np.unique(heated):
+        idx = np.flatnonzero(heated == kind)
+        for a in range(0, idx.size, max(1, LOCAL_BLOCK // P)):
+            rows = idx[a:a + max(1, LOCAL_BLOCK // P)]
+            e = lambda v: v[rows][..., None]  # noqa: E731  (rows, 1, 1, 1): march points last
+            cv_x = nusselt_local(e(Re), e(pr.Pr), x, L, e(D_h), e(alpha), laminar=d.model.laminar,
+                                 turbulent=d.model.turbulent, heated=str(kind),
+                                 rel_roughness=d.passage.roughness / e(D_h))
+            h_x = np.asarray(cv_x.Nu) * e(pr.k) / e(D_h) * e(nu)
+            _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), L, e(wall), d.plate.conductivity, h_x)
+            r_x[rows] = (ev.A_cool / (h_x * eff_x))[:, 0]
+    R_plate = ev.plate.rises(np.array([d.plate.base]), h_eff[:, 0, :], s[:, 0, :], r_x)[:, 0, 0]
+    dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
+    dyn = 0.5 * pr.rho * V**2
+    for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
+        dp = dp + K * ratio**2 * dyn
+    A_fp = d.heat.footprint_length * d.heat.footprint_width
+    R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float), A_fp)
+    ok = ok.ravel() & np.isfinite(R_th)
+    flat = lambda a: np.asarray(a, dtype=float).ravel()  # noqa: E731
+    return SimpleNamespace(T_face=flat(T_in) + flat(Q) * R_th, T_out=flat(T_out), dp=flat(dp), ok=ok)
+
+
+def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
+    """:func:`evaluate_channel_rows` for the design's serpentine tube (its geometry fixed, 1-D arrays of rows):
+    the steps of :meth:`coldplate.sizing.evaluate.Evaluator.tubes` with the rows on the flow axis."""
+    d = ev.design
+    flow, Q, T_in, nu, ff = (np.asarray(a, dtype=float).ravel() for a in (flow, load, T_in, nu, ff))
+    m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
+    passage = d.passage
+    geom = tube_passage.geometry(passage, d.plate)
+    V, Re, fr, _, h = passage_flow(m_dot, pr, geom.n_parallel * geom.flow_area, geom.D_h, geom.alpha, geom.shape,
+                                   geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model)
+    h = h * nu
+    f = np.asarray(fr.f) * ff
+    dp = (friction_pressure_drop(f, geom.path_length, geom.D_h, pr.rho, V)
+          + tube_passage.bend_loss_coefficient(passage, f, Re) * 0.5 * pr.rho * V**2)
+    r_conv = tube_passage.convection(passage, geom, h)[0]
+    x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, geom)
+    cv_x = nusselt_local(np.asarray(Re)[:, None], pr.Pr[:, None], x, geom.heated_length, geom.D_h, geom.alpha,
+                         shape=geom.shape, laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated,
+                         rel_roughness=geom.rel_roughness)
+    r_conv_x = tube_passage.convection(passage, geom, np.asarray(cv_x.Nu) * pr.k[:, None] / geom.D_h * nu[:, None])[0]
+    fixed = sum(r for _, r in tube_passage.conduction_parts(passage, d.plate, geom))
+    R_plate = ev.plate.rise(d.plate.base, 1.0 / (ev.A_cool * (fixed + r_conv)), s, ev.A_cool * (fixed + r_conv_x),
+                            single_pass=geom.single_pass)
+    R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float),
+                                            d.heat.footprint_length * d.heat.footprint_width)
+    ok = ok & np.isfinite(R_th)
+    return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok)
+
+
+def _design_for(design, values: dict):
+    """The design with one row's values (SI) put in."""
+    d = design
+    if "heat.load" in values:
+        load = values["heat.load"]
+        if d.module is not None:
+            d = replace(d, module=replace(d.module, cold_load=load))
+        else:
+            scale = load / d.heat.load
+            d = replace(d, heat=replace(d.heat, load=load),
+                        sources=tuple(replace(s, load=s.load * scale) for s in d.sources))
+    if "coolant.inlet_temperature" in values:
+        d = replace(d, inlet_temperature=values["coolant.inlet_temperature"])
+    if "coolant.flow" in values:
+        d = replace(d, flow=values["coolant.flow"])
+    passage = {k.split(".")[1]: v for k, v in values.items() if k.startswith("passage.")}
+    if "inner_diameter" in passage:  # a tube keeps its wall thickness
+        wall = 0.5 * (d.passage.outer_diameter - d.passage.inner_diameter)
+        passage["outer_diameter"] = passage["inner_diameter"] + 2 * wall
+    if passage:
+        d = replace(d, passage=replace(d.passage, **passage))
+    return d
+
+
+def _solve_row(d):
+    """One row's design solved as the check solves it, without the planning and the findings."""
+    if d.module is not None:
+        from coldplate.check import solve
+
+        return solve(d)
+    from coldplate.plate.solve import solve_plate
+    from coldplate.supply.stage import supply_stage
+
+    flow, _ = supply_stage(d)  # a circuit's operating point (the planning it would attach is not banded)
+    return solve_plate(d, flow)
+
+
+def check_rows(design, keys, rows) -> dict:
+    """Every row solved as the check solves it (:func:`_solve_row`); NaN where a row cannot be solved."""
+    R0 = design.interface.resistance_area
+    factor = _interface_factor(keys, rows)
+    out = {name: np.full(rows.shape[0], np.nan) for name in OUTPUTS}
+    for i, row in enumerate(rows):
+        values = {k: float(v) for k, v in zip(keys, row) if not k.startswith("interface.")}
+        d = _design_for(design, values)
+        if factor[i] != 1.0:
+            R = R0 * factor[i]
+            d = replace(d, interface=replace(d.interface, resistance_area=R),
+                        sources=tuple(replace(s, interface=s.interface * factor[i]) for s in d.sources))
+        try:
+            r = _solve_row(d)
+        except (ColdplateError, ArithmeticError, ValueError):
+            continue
+        out["face"][i], out["outlet"][i], out["pressure_drop"][i], out["water_use"][i] = (
+            r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)
+    return out
