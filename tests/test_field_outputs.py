@@ -145,9 +145,9 @@ def test_text_of_one_source_without_a_limit_has_no_source_block():
 
 def _run(argv, monkeypatch, result):
     from coldplate import cli
-    import coldplate.check
+    import coldplate.uncertainty.run
 
-    monkeypatch.setattr(coldplate.check, "check_file", lambda path: result)  # the stand-in's result
+    monkeypatch.setattr(coldplate.uncertainty.run, "check_file_with_band", lambda path, confidence=None: result)
     return cli.main(argv)
 
 
@@ -377,6 +377,8 @@ def test_report_with_the_field_has_the_map_section_in_both_layouts(tmp_path, mon
 
     r = three()
     monkeypatch.setattr(coldplate.check, "solve", lambda design: r)  # the stand-in's result
+    import coldplate.uncertainty.run
+    monkeypatch.setattr(coldplate.uncertainty.run, "solve", lambda design: r)  # the report's path to it
     src = ROOT / "examples" / "three-sources-channels.toml"
     assert cli.main(["report", str(src), "-o", str(tmp_path / "r.html")]) == 0
     html = (tmp_path / "r.html").read_text()
