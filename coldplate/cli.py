@@ -90,6 +90,9 @@ def _parser() -> argparse.ArgumentParser:
     r.add_argument("--units", choices=("si", "us"), default="si", help="display units (default: si)")
     _flow_range_options(r)
     r.add_argument("--force", action="store_true", help="replace existing files")
+    for q in (c, r):  # the plate model (coldplate.check.MODELS)
+        q.add_argument("--model", choices=("field", "network"), default="field",
+                       help="plate model: field (3-D, every source placed; default) or network (fast)")
     k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with fitted flow curves")
     k.add_argument("file", help="design file (TOML)")
     k.add_argument("-o", "--output", help="file to write (NAME.csv or NAME.json); standard output when absent")
@@ -143,7 +146,7 @@ def _report(args, version) -> str:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
-    result = solve(parse_design(text))
+    result = solve(parse_design(text), model=args.model)
     curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
     rep = make_report(result, curve, fit_flow_curves(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
@@ -239,7 +242,7 @@ def _run(argv, debug: bool) -> int:
         else:
             from coldplate.check import check_file
 
-            result = check_file(args.file)
+            result = check_file(args.file, model=args.model)
             if args.format == "json":
                 from reports.jsonout import render_json
 
