@@ -35,7 +35,7 @@ import numpy as np
 
 from coldplate.plate import field as F
 from coldplate.plate.convection import nusselt_local
-from coldplate.plate.fieldgrid import channel_walls
+from coldplate.plate.fieldgrid import GridRules, channel_walls
 from coldplate.plate.passages import tube
 from coldplate.plate.result import Profile, Result, source_outcomes
 from coldplate.plate.solve import OperatingPoint, operating_point, passage_flow
@@ -143,10 +143,11 @@ COOLINGS = {"channels": _channels, "tube": lambda d, op, flows: _tube(d, op),
 
 def solve_plate_field(design: Design, flow: float | None = None, load: float | None = None, *,
                       channel_flows: Sequence[float] | None = None, level: int = F.DEFAULT_LEVEL,
-                      uncertainty: bool = True) -> Result:
+                      rules: GridRules = GridRules(), uncertainty: bool = True) -> Result:
     """The plate alone at a volumetric flow [m³/s] and heat load [W] (the design's own when not given), solved
     as a field; the same call as :func:`coldplate.plate.solve.solve_plate`, so the modules' solve and the supply
-    take either.  ``channel_flows`` [m³/s each]: a channel plate's split (default: equal shares)."""
+    take either.  ``channel_flows`` [m³/s each]: a channel plate's split (default: equal shares); ``level``,
+    ``rules``, ``uncertainty`` as in :func:`coldplate.plate.field.solve_field`."""
     d = design
     Q = d.heat.load if load is None else float(load)
     flow = d.flow if flow is None else float(flow)
@@ -156,7 +157,7 @@ def solve_plate_field(design: Design, flow: float | None = None, load: float | N
     cooling, locals_, centres = COOLINGS[d.passage.kind](d, op, channel_flows)
     plate = F.FieldPlate(d.plate.length, d.plate.width, d.plate.base, d.plate.conductivity)
     sources = field_sources(d, Q)
-    fr = F.solve_field(plate, sources, cooling, level=level, uncertainty=uncertainty)
+    fr = F.solve_field(plate, sources, cooling, level=level, rules=rules, uncertainty=uncertainty)
 
     hot = max(range(len(fr.sources)), key=lambda i: fr.sources[i].face_max)
     x_hot, y_hot = fr.sources[hot].hottest_at

@@ -133,10 +133,13 @@ def network_sources(d: Design, op: OperatingPoint, Q: float, L_cool: float, h_ef
 
     One source: the network's own hottest face.  Several: each source's own spreading (the
     Muzychka-Culham-Yovanovich series at its own load and footprint, centred on the cooled length, with the mean
-    back side ``h_eff``) at its centroid, plus its own interface, plus the coolant's rise from all the load whose
-    centre lies upstream of this source's outlet-side edge (the source's own included), and never below the
-    stand-in's hottest face (the total load over the sources' bounding box).  Cautious by construction except
-    for a source at a plate edge, whose spreading the centred series overstates (the field model places it).
+    back side ``h_eff``) at its centroid, plus every other source's spreading rise at that source's own centroid
+    (the most a source puts anywhere on the face, so their sum bounds the heating of neighbours through the
+    plate), plus its own interface, plus the coolant's rise from all the load whose centre lies upstream of this
+    source's outlet-side edge (the source's own included), and never below the stand-in's hottest face (the
+    total load over the sources' bounding box).  Cautious by construction except for a source at a plate edge,
+    whose own spreading the centred series understates (the field model places it; measured in
+    tests/test_field_check.py on the three-source case).
     No mean face (NaN), no grid uncertainty.  Loads scale with ``Q`` when the solve's load differs from the
     sources' total."""
     sources = d.sources
@@ -146,13 +149,16 @@ def network_sources(d: Design, op: OperatingPoint, Q: float, L_cool: float, h_ef
         s = sources[0]
         return (SourceOutcome(s.name, Q, T_face_max, math.nan, s.limit, (x_hot, s.at[1]), math.nan),)
     mcp = op.m_dot * op.props.cp
+    loads = [s.load * scale for s in sources]
+    rises = []  # each source's spreading rise at its own centroid [K]: the most it can put anywhere
+    for s, q in zip(sources, loads):
+        own = conduction.spreading_MCY(L_cool, d.plate.width, min(s.size[0], L_cool), s.size[1], d.plate.base,
+                                       d.plate.conductivity, h_eff)
+        rises.append(q * own.R_centroid)
     out = []
-    for s in sources:
-        q = s.load * scale
-        c, w = min(s.size[0], L_cool), s.size[1]
-        own = conduction.spreading_MCY(L_cool, d.plate.width, c, w, d.plate.base, d.plate.conductivity, h_eff)
-        upstream = sum(o.load * scale for o in sources if o.at[0] <= s.edges()[1])
-        T = op.T_in + upstream / mcp + q * (own.R_centroid + s.interface / s.area)
+    for s, q in zip(sources, loads):
+        upstream = sum(qo for o, qo in zip(sources, loads) if o.at[0] <= s.edges()[1])
+        T = op.T_in + upstream / mcp + sum(rises) + q * s.interface / s.area
         out.append(SourceOutcome(s.name, q, max(T, T_face_max), math.nan, s.limit, s.at, math.nan))
     return tuple(out)
 
