@@ -68,6 +68,8 @@ from coldplate.plate.fieldgrid import BASE, CHANNEL_LAYER, LID, Grid, GridRules,
 DEFAULT_LEVEL = 1
 #: Formal order of the discretisation and the two-grid safety factor of the grid convergence index (Roache 1994).
 GRID_ORDER, GCI_SAFETY = 2.0, 3.0
+#: SuperLU's diagonal pivot threshold: the diagonal is taken unless under this share of its column's largest entry.
+DIAG_PIVOT = 0.01
 #: Tolerance of the iterative path (relative residual); the direct path is exact to round-off.
 GMRES_RTOL = 1e-11
 
@@ -501,7 +503,10 @@ def _linear_solve(M, B, method):
     if method == "direct":
         from scipy.sparse.linalg import splu
 
-        lu = splu(M, permc_spec="MMD_AT_PLUS_A")
+        # SymmetricMode with a small diagonal threshold: the pivots stay on the diagonal (the rows are
+        # diagonally dominant but for the coolant's), so the minimum-degree ordering on A + A^T is kept as
+        # chosen; measured 15-20 % faster than partial pivoting, equal to 3e-15 (benchmarks/field.py)
+        lu = splu(M, permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=DIAG_PIVOT, options=dict(SymmetricMode=True))
         return lu.solve(B), 0
     if method == "gmres":
         from scipy.sparse.linalg import LinearOperator, gmres, spilu
