@@ -242,3 +242,34 @@ def test_tube_passes_in_series():
     assert fr.bulk[2, 0] == pytest.approx(fr.bulk[1, 0])
     assert fr.heat_to_coolant == pytest.approx(fr.load, rel=1e-6)
     assert fr.bulk[2, -1] - fr.reference == pytest.approx(fr.load / (r.m_dot * r.props.cp), rel=1e-9)
+
+
+def test_random_placements_solve_to_finite_balanced_fields():
+    # source: energy conservation and the contract (every accepted placement solves to finite numbers): seeded
+    # random sources (1 to 3, sizes 3-25 mm, anywhere on the face, edges and plenums included) on the example
+    # channel plate and the tube plate
+    from coldplate.plate.sources import Source
+
+    rng = np.random.default_rng(13)
+    for name in ("reagent-block-channels.toml", "laser-mount-tube.toml", "detector-cavity-glycol.toml"):
+        d = load_design(Path(EXAMPLES[0]).parent / name)
+        L, W = d.plate.length, d.plate.width
+        for trial in range(3):
+            placed = []
+            for k in range(int(rng.integers(1, 4))):
+                for _ in range(50):
+                    a, b = rng.uniform(0.003, 0.025, 2)
+                    x = rng.uniform(a / 2, L - a / 2)
+                    y = rng.uniform(-W / 2 + b / 2, W / 2 - b / 2)
+                    s = Source(f"s{k}", float(rng.uniform(1, 40)), (float(a), float(b)), (float(x), float(y)),
+                               1e-5, "test")
+                    if all(min(s.edges()[1], o.edges()[1]) <= max(s.edges()[0], o.edges()[0])
+                           or min(s.edges()[3], o.edges()[3]) <= max(s.edges()[2], o.edges()[2]) for o in placed):
+                        placed.append(s)
+                        break
+            dd = replace(d, sources=tuple(placed))
+            total = sum(s.load for s in placed)
+            r = solve_plate_field(dd, load=total, uncertainty=False)
+            assert math.isfinite(r.T_face_max) and r.T_face_max > r.T_in
+            assert r.field.heat_to_coolant == pytest.approx(total, rel=1e-6)
+            assert r.T_face_max == pytest.approx(max(s.face_max for s in r.sources))
