@@ -273,3 +273,25 @@ def test_random_placements_solve_to_finite_balanced_fields():
             assert math.isfinite(r.T_face_max) and r.T_face_max > r.T_in
             assert r.field.heat_to_coolant == pytest.approx(total, rel=1e-6)
             assert r.T_face_max == pytest.approx(max(s.face_max for s in r.sources))
+
+
+def test_model_option_of_the_command(capsys):
+    # source: the command-line contract: --model network gives the network's figures, --model field (the
+    # default) the field's; an unknown model is refused on one line with exit 2
+    import json
+
+    from coldplate.cli import main
+
+    path = str(Path(EXAMPLES[0]).parent / "detector-cavity-glycol.toml")
+    d = load_design(path)
+    assert main(["check", path, "--format", "json", "--model", "network"]) == 0
+    net = json.loads(capsys.readouterr().out)
+    assert net["thermal_resistance_K_per_W"] == pytest.approx(solve(d, model="network").R_th, rel=1e-9)
+    assert main(["check", path, "--format", "json"]) == 0
+    fld = json.loads(capsys.readouterr().out)
+    assert fld["thermal_resistance_K_per_W"] == pytest.approx(solve(d, model="field").R_th, rel=1e-9)
+    with pytest.raises(SystemExit) as stop:  # argparse's refusal, as the CLI contract tests take it
+        main(["check", path, "--model", "guess"])
+    assert stop.value.code == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "--model" in err

@@ -81,7 +81,9 @@ def _channels(d: Design, op: OperatingPoint, channel_flows):
     g, p = op.geom, d.passage
     off = g.cooled_offset
     span = (off, d.plate.length - off) if off > 0 else None
-    entry = lambda x: x - off  # noqa: E731  (distance from the channels' entry)
+    L_cool = d.plate.length - 2.0 * off
+    # distance from the channels' entry (over a plenum, where no channel runs, the nearest channel end's)
+    entry = lambda x: np.clip(x - off, 0.0, L_cool)  # noqa: E731
     if channel_flows is None:
         locals_ = [_Local(d, op, op.Re, op.cv, entry)] * p.count
         mass = op.m_dot
