@@ -1,6 +1,7 @@
 """The plate as a field: a 3-D finite-volume conduction solve of a cold plate carrying several heat sources.
 
-Not yet wired into the check: this module is the computational core.  Inputs are plain dataclasses in SI
+The computational core; :mod:`coldplate.plate.fieldcheck` builds its inputs from a design and turns its
+result into the check's ``Result`` (the check's default plate model).  Inputs are plain dataclasses in SI
 (kelvin, metres, watts), so it does not depend on the design reader; the output is a frozen
 :class:`FieldResult`.
 
@@ -18,7 +19,9 @@ the inlet edge, where an entry coefficient is singular).
 The coolant of each channel is a bulk temperature at every x edge of the grid, solved in the same sparse
 system: for segment i of channel c (one x cell), ``m_c cp (T_i - T_(i-1)) = sum over its wetted faces of
 G (T_wall - (T_(i-1) + T_i) / 2)``, with T_0 the inlet temperature.  The flow is shared equally between
-the channels (no plenum maldistribution; see the note in ``ChannelCooling``).  The unknowns are the rises
+the channels unless one mass flow per channel is given (a manifold's split).  ``LaneCooling`` carries the
+same balance for coolant under the base's bottom face: a tube's passes in series (each pass its own water
+temperature, alternating direction) or a cavity.  The unknowns are the rises
 above the inlet, so the system is linear in the loads, and the field of several sources is the sum of each
 source's field per watt (superposition): one factorisation, one back-substitution per source.  The
 coupling matrix ``C[i, j]`` is the mean face rise of source i per watt of source j; with the coolant
