@@ -295,3 +295,14 @@ def test_model_option_of_the_command(capsys):
     assert stop.value.code == 2
     err = capsys.readouterr().err
     assert err.count("\n") == 1 and "--model" in err
+
+
+def test_a_grid_too_large_is_refused_in_one_line():
+    # source: the contract (physics that cannot be solved: one line, exit 1): a plate whose field would exceed
+    # field.MAX_CELLS raises SolveError naming the count and the network model, before any assembly
+    from coldplate.design.errors import SolveError
+
+    d = load_design(Path(EXAMPLES[0]).parent / "reagent-block-channels.toml")
+    with pytest.raises(SolveError, match="--model network") as err:
+        solve_plate_field(d, level=3, uncertainty=False)
+    assert "\n" not in str(err.value)

@@ -71,6 +71,9 @@ from coldplate.plate.fieldgrid import BASE, CHANNEL_LAYER, LID, Grid, GridRules,
 DEFAULT_LEVEL = 1
 #: Formal order of the discretisation and the two-grid safety factor of the grid convergence index (Roache 1994).
 GRID_ORDER, GCI_SAFETY = 2.0, 3.0
+#: The most solid cells the field solves (a direct LU of more takes minutes and gigabytes): beyond, a SolveError
+#: names the count and points to the network model.  The examples take 13k-40k, eight sources 77k.
+MAX_CELLS = 250_000
 #: SuperLU's diagonal pivot threshold: the diagonal is taken unless under this share of its column's largest entry.
 DIAG_PIVOT = 0.01
 #: Tolerance of the iterative path (relative residual); the direct path is exact to round-off.
@@ -559,6 +562,12 @@ def _solve_level(plate, sources, cooling, rules, level, method) -> _Level:
     grid = build_grid(plate.length, plate.width, plate.base,
                       [(s.at[0], s.at[1], s.size[0], s.size[1]) for s in sources], channels, rules, level,
                       channel_span=span, lanes=lanes)
+    nx, ny, nz = grid.shape
+    if nx * ny * nz > MAX_CELLS:
+        from coldplate.design.errors import SolveError
+
+        raise SolveError(f"the plate as a field would need {nx * ny * nz:,} cells (more than {MAX_CELLS:,}: many "
+                         "channels or sources far smaller than the plate); use the network model (--model network)")
     system = _assemble(grid, plate.conductivity, cooling)
     B, flux = _source_columns(grid, system, sources)
     X, iterations = _linear_solve(system.matrix, B, method)
