@@ -60,8 +60,9 @@ def system_of(plate, sources, cooling, level=F.DEFAULT_LEVEL):
 def solvers(M, B, repeat):
     from scipy.sparse.linalg import splu
 
-    t_fact = _median(lambda: splu(M, permc_spec="MMD_AT_PLUS_A"), repeat)
-    lu = splu(M, permc_spec="MMD_AT_PLUS_A")
+    opts = dict(permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=F.DIAG_PIVOT, options=dict(SymmetricMode=True))
+    t_fact = _median(lambda: splu(M, **opts), repeat)
+    lu = splu(M, **opts)
     t_back1 = _median(lambda: lu.solve(B[:, :1]), repeat)
     t_backN = _median(lambda: lu.solve(B), repeat)
     # GMRES is timed once per case (it is slow here, see the module docstring); one right-hand side only
@@ -92,11 +93,42 @@ def report(name, plate, sources, cooling, repeat):
     return s
 
 
+def examples_table(repeat):
+    """Every example through the design path (coldplate.plate.fieldcheck): cells, unknowns, the default solve's
+    median time (two grids, with the uncertainty) and one grid's, the network's time, and the field against the
+    network (R_th, hottest face)."""
+    from coldplate.design.reader import load_design
+    from coldplate.check import solve
+    from coldplate.plate.fieldcheck import solve_plate_field
+    from coldplate.plate.solve import solve_plate
+
+    print("\nexamples through the design path (plate alone at the check's flow and load)")
+    print(f"  {'example':34s} {'cells':>7s} {'default s':>9s} {'1 grid s':>8s} {'network s':>9s}"
+          f" {'R field':>8s} {'R netw.':>8s} {'diff %':>7s} {'U K':>6s}")
+    for path in sorted((ROOT / "examples").glob("*.toml")):
+        d = load_design(path)
+        here = solve(d, model="network")  # the check's flow and load (a circuit's flow, the modules' heat)
+        flow, load = here.V_dot, here.load
+        r = solve_plate_field(d, flow, load)
+        n = solve_plate(d, flow, load)
+        t_def = _median(lambda: solve_plate_field(d, flow, load), repeat)
+        t_one = _median(lambda: solve_plate_field(d, flow, load, uncertainty=False), repeat)
+        t_net = _median(lambda: solve_plate(d, flow, load), repeat)
+        print(f"  {path.stem:34s} {r.field.cells:7d} {t_def:9.2f} {t_one:8.2f} {t_net:9.3f}"
+              f" {r.R_th:8.4f} {n.R_th:8.4f} {(r.R_th / n.R_th - 1) * 100:+7.1f} {r.grid_uncertainty:6.3f}")
+
+
 def main():
     ap = argparse.ArgumentParser()
     ap.add_argument("--repeat", type=int, default=5)
+    ap.add_argument("--examples-only", action="store_true", help="only the examples through the design path")
     args = ap.parse_args()
     tracemalloc.start()
+    examples_table(args.repeat)
+    rss = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    print(f"  process peak RSS after the examples {rss:.0f} MB")
+    if args.examples_only:
+        return
     report("review channel case (20 copper channels, 300 W over the face)", *review_inputs(), args.repeat)
     report("example channel plate (12 aluminium channels, 85 W footprint)", *example_inputs(), args.repeat)
     plate, srcs, cooling = example_inputs(8)

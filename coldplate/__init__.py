@@ -16,18 +16,19 @@ In a notebook both results show the report's summary; ``result.to_dict()`` is th
 from coldplate._version import __version__  # noqa: F401  (re-exported)
 
 
-def check_file(path):
-    """Read a design file and solve it; returns a frozen :class:`coldplate.plate.result.Result`."""
+def check_file(path, model="field"):
+    """Read a design file and solve it; returns a frozen :class:`coldplate.plate.result.Result`.
+    ``model``: "field" (the plate as a 3-D field, default) or "network" (the fast resistance network)."""
     from coldplate.check import check_file as _check_file
 
-    return _notebook(_check_file(path))
+    return _notebook(_check_file(path, model=model))
 
 
-def solve(design):
-    """Solve an already-read :class:`coldplate.design.reader.Design`."""
+def solve(design, model="field"):
+    """Solve an already-read :class:`coldplate.design.reader.Design` (``model`` as in :func:`check_file`)."""
     from coldplate.check import solve as _solve
 
-    return _notebook(_solve(design))
+    return _notebook(_solve(design, model=model))
 
 
 def size_file(path):

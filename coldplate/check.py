@@ -24,32 +24,50 @@ from coldplate.supply.findings import RULES as SUPPLY_RULES
 RULES = PLATE_RULES + SOURCE_RULES + MODULE_RULES + SUPPLY_RULES + AIR_RULES
 
 
-def check_file(path) -> Result:
+#: The plate models: "field" (the 3-D solve, default) and "network" (the fast resistance network).
+MODELS = ("field", "network")
+
+
+def plate_model(model: str):
+    """The plate function of a model name (both take design, flow, load and return a Result)."""
+    if model == "field":
+        from coldplate.plate.fieldcheck import solve_plate_field  # imports scipy
+
+        return solve_plate_field
+    if model == "network":
+        return solve_plate
+    raise ValueError(f"unknown plate model {model!r}: one of {', '.join(MODELS)}")
+
+
+def check_file(path, model: str = "field") -> Result:
     """Read a design file and solve it (the Python API of ``coldplate check``)."""
-    return solve(load_design(path))
+    return solve(load_design(path), model=model)
 
 
-def solve(design: Design) -> Result:
+def solve(design: Design, model: str = "field") -> Result:
     """Solve the design check for one design: the plate at the design's flow and load, then the findings.
 
-    With a [circuit], the flow is the circuit's operating point; once-through supplies with planning keys
-    get the water planning (coldplate/supply/stage.py).  With thermoelectric modules the plate's load is
-    their hot-side heat (coldplate/modules/solve.py).
+    ``model``: "field" (the plate as a 3-D field, every source placed; default) or "network" (the fast
+    resistance network over one stand-in footprint).  With a [circuit], the flow is the circuit's operating
+    point; once-through supplies with planning keys get the water planning (coldplate/supply/stage.py).  With
+    thermoelectric modules the plate's load is their hot-side heat (coldplate/modules/solve.py), solved with
+    the chosen model's plate function.
     """
     from coldplate.supply.stage import supply_stage  # imports scipy only when a circuit or planning is asked for
 
+    plate = plate_model(model)
     if design.module is None:
         flow, attach = supply_stage(design)
-        result = attach(solve_plate(design, flow))
+        result = attach(plate(design, flow))
     else:
-        result = _solve_with_modules(design, supply_stage)
+        result = _solve_with_modules(design, supply_stage, plate)
     if design.air is not None:  # the air-cooled alternative beside the water design (coldplate/air/stage.py)
         from coldplate.air.stage import solve_air
         result = replace(result, air=solve_air(design, result))
     return replace(result, findings=collect_findings(result))
 
 
-def _solve_with_modules(design: Design, supply_stage) -> Result:
+def _solve_with_modules(design: Design, supply_stage, plate=solve_plate) -> Result:
     """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
     properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
     flow, then the supply at the modules' real heat and the modules once more at its flow."""
@@ -57,9 +75,9 @@ def _solve_with_modules(design: Design, supply_stage) -> Result:
 
     flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
     if flow is not None:
-        first = solve_with_module(design, partial(solve_plate, flow=flow))
+        first = solve_with_module(design, partial(plate, flow=flow))
         flow, attach = supply_stage(design, load=first.load)
-    result = solve_with_module(design, partial(solve_plate, flow=flow))
+    result = solve_with_module(design, partial(plate, flow=flow))
     if flow is None:  # no circuit: planning (if any) at the modules' real heat
         _, attach = supply_stage(design, load=result.load)
     return attach(result)

@@ -100,6 +100,9 @@ def _parser() -> argparse.ArgumentParser:
     _confidence_option(r)
     _flow_range_options(r)
     r.add_argument("--force", action="store_true", help="replace existing files")
+    for q in (c, r):  # the plate model (coldplate.check.MODELS)
+        q.add_argument("--model", choices=("field", "network"), default="field",
+                       help="plate model: field (3-D, every source placed; default) or network (fast)")
     k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with fitted flow curves")
     k.add_argument("file", help="design file (TOML)")
     k.add_argument("-o", "--output", help="file to write (NAME.csv or NAME.json); standard output when absent")
@@ -166,7 +169,7 @@ def _report(args, version) -> str:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
-    result = _checked(text, _confidence(args))
+    result = _checked(text, _confidence(args), args.model)
     curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
     rep = make_report(result, curve, fit_flow_curves(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
@@ -174,12 +177,12 @@ def _report(args, version) -> str:
     return "wrote " + ", ".join(str(p) for p in written)
 
 
-def _checked(text: str, confidence):
+def _checked(text: str, confidence, model: str = "field"):
     """The check of design-file text, with its uncertainty band when the file or --confidence asks for one."""
     from coldplate.design.reader import _toml
     from coldplate.uncertainty.run import check_data
 
-    return check_data(_toml(text), confidence)
+    return check_data(_toml(text), confidence, model=model)
 
 
 def _curves(args, version) -> str:
@@ -293,7 +296,7 @@ def _run(argv, debug: bool) -> int:
 
             if args.map:
                 _map_target(args.map, args.force)
-            result = check_file_with_band(args.file, _confidence(args))
+            result = check_file_with_band(args.file, _confidence(args), model=args.model)
             if args.map:
                 _write_map(result, args.map)
             if args.format == "json":

@@ -66,6 +66,14 @@ def render_sizing_text(s, version: str = "") -> str:
     else:
         out += ["Recommended", "-----------"]
         out += _grid([_row(s.recommended, names, d)], heads)
+        out.append("  (the row above: the search, network model)")
+        n = getattr(s, "network_check", None)
+        if n is not None and s.check is not None:
+            f = s.check
+            out.append(f"  R K/W      network {n.R_th:.4f}   field {f.R_th:.4f}   "
+                       f"difference {(f.R_th / n.R_th - 1) * 100:+.1f} %")
+            out.append(f"  face °C    network {n.T_face_max - 273.15:.1f}     field {f.T_face_max - 273.15:.1f}     "
+                       f"difference {f.T_face_max - n.T_face_max:+.2f} K")
         out.append("")
         out.append("Why")
         for line in s.why:
@@ -115,6 +123,13 @@ def sizing_to_dict(s, version: str = "") -> dict:
         "binding": list(s.binding),
         "notes": list(s.notes),
         "check": check_to_dict(s.check, version) if s.check else None,
+        "recheck": ({"search_model": "network", "check_model": s.check.model,
+                     "network_thermal_resistance_K_per_W": s.network_check.R_th,
+                     "field_thermal_resistance_K_per_W": s.check.R_th,
+                     "field_minus_network_percent": (s.check.R_th / s.network_check.R_th - 1) * 100,
+                     "network_surface_temperature_max_C": s.network_check.T_face_max - 273.15,
+                     "field_surface_temperature_max_C": s.check.T_face_max - 273.15}
+                    if s.check is not None and getattr(s, "network_check", None) is not None else None),
         "design_file": s.text,
     }
 

@@ -65,7 +65,23 @@ def write(tmp_path, data: dict, name="design.toml") -> Path:
     return path
 
 
-def solved_or_refused(data: dict):
+def network_solve(design):
+    """The check with the network plate model: for tests that hold the network's own numbers or test other
+    stages (supply, modules, findings) where the plate model does not matter; the field model's checks are in
+    tests/test_field_check.py and tests/test_field.py (and it costs about a second a solve)."""
+    from coldplate.check import solve
+
+    return solve(design, model="network")
+
+
+def network_check_file(path):
+    """:func:`coldplate.check_file` with the network plate model (see :func:`network_solve`)."""
+    from coldplate.check import check_file
+
+    return check_file(path, model="network")
+
+
+def solved_or_refused(data: dict, model: str = "network"):
     """(design, result) for a design dict, or None when it is refused with a one-line DesignError."""
     from coldplate.design.reader import design_from_dict
     from coldplate.design.errors import DesignError
@@ -73,7 +89,7 @@ def solved_or_refused(data: dict):
 
     try:
         d = design_from_dict(data)
-        return d, solve(d)
+        return d, solve(d, model=model)
     except DesignError as exc:
         assert exc.field or "design" in str(exc)
         assert "\n" not in str(exc)

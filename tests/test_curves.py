@@ -9,7 +9,7 @@ from coldplate.plate.curves import (FittedCurves, FlowCurve, default_flows, fit_
                                     flow_independent_resistance, mounting_face_profile)
 from coldplate.design.reader import design_from_dict
 from coldplate.design.errors import DesignError
-from coldplate.check import solve
+from .helpers import network_solve as solve  # the network model's numbers
 from coldplate.plate.solve import solve_plate
 
 from .helpers import example_dict, modified

@@ -110,7 +110,7 @@ def test_a_stop_that_a_library_turns_into_its_own_error_is_still_a_stop(monkeypa
     import coldplate.uncertainty.run
     from coldplate import cli
 
-    def interrupted_import(path, *args):
+    def interrupted_import(path, *args, **kwargs):  # as the CLI calls it (confidence, model=...)
         cli._received.append(sig)
         raise ImportError("initialization failed")
 

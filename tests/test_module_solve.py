@@ -23,7 +23,7 @@ from coldplate.cli import main
 from coldplate.design.reader import design_from_dict
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.modules.solve import couple
-from coldplate.check import solve
+from .helpers import network_solve as solve  # the network model's numbers
 from coldplate.plate.solve import solve_plate
 from reports.jsonout import render_json
 from reports.text import render_text

@@ -107,8 +107,14 @@ def test_written_design_reads_back_and_passes_check(tmp_path, capsys):
     assert main(["check", str(out), "--format", "json"]) == 0
     check = json.loads(capsys.readouterr().out)
     assert check["thermal_resistance_K_per_W"] == pytest.approx(report["check"]["thermal_resistance_K_per_W"])
+    assert main(["check", str(out), "--format", "json", "--model", "network"]) == 0
+    network = json.loads(capsys.readouterr().out)  # the search's model
     assert report["recommended"]["thermal_resistance_K_per_W"] == pytest.approx(
-        check["thermal_resistance_K_per_W"], rel=1e-3)
+        network["thermal_resistance_K_per_W"], rel=1e-3)
+    assert report["recheck"]["network_thermal_resistance_K_per_W"] == pytest.approx(
+        network["thermal_resistance_K_per_W"])
+    assert report["recheck"]["field_thermal_resistance_K_per_W"] == pytest.approx(
+        check["thermal_resistance_K_per_W"])
     assert {f["id"] for f in report["check"]["findings"]} >= {"cross-connection", "electricity-near-water"}
 
 

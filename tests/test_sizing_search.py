@@ -107,7 +107,7 @@ def test_known_good_design_in_the_grid_is_found():
     s = size(data, design, spec, do_refine=False)
     assert dict(s.recommended.values) == pytest.approx({"count": 12, "width": 2e-3, "depth": 6e-3, "base": 3e-3,
                                                         "flow": 1.5 / 6e4})
-    assert s.check.R_th == pytest.approx(r0.R_th, rel=1e-9)
+    assert s.network_check.R_th == pytest.approx(r0.R_th, rel=1e-9)  # the search's model
 
 
 def test_known_good_design_is_feasible_or_dominated_in_a_wider_grid():
@@ -131,7 +131,8 @@ def test_refinement_needs_less_flow_and_still_meets_the_limits():
     assert s.recommended.flow < grid.flow
     lim = spec.limits
     # the one-design check of the written design meets every limit
-    assert s.check.T_face_max <= lim.face and s.check.dp <= lim.pressure_drop and s.check.T_out <= lim.discharge
+    n = s.network_check  # the search's model; the field's re-check is s.check
+    assert n.T_face_max <= lim.face and n.dp <= lim.pressure_drop and n.T_out <= lim.discharge
     for name in ("width", "depth", "base"):
         assert spec.axes[name].min() - 1e-12 <= s.recommended.value(name) <= spec.axes[name].max() + 1e-12
 
@@ -198,8 +199,9 @@ def test_a_small_tube_search_runs_and_its_recommendation_checks():
                                 "face_limit": "50 degC", "pressure_drop_limit": "50 kPa"}, tube)
     s = size(data, design, spec)
     assert s.recommended is not None
-    assert s.check.T_face_max <= spec.limits.face
-    assert s.check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)
+    assert s.network_check.T_face_max <= spec.limits.face
+    assert s.network_check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)
+    assert s.check.model == "field" and s.network_check.model == "network"
     assert dataclasses.replace(s.check.design.passage).kind == "tube"
 
 
@@ -230,5 +232,8 @@ def test_any_accepted_search_finishes_with_a_design_or_the_binding_limit(count, 
     if s.recommended is None:
         assert s.binding and s.binding[0].startswith("No ")
     else:
-        assert s.check.T_face_max <= spec.limits.face + 1e-6
-        assert s.check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)
+        # the search's own model confirms it; the field's re-check is shown beside it (and may differ: the
+        # network's smeared back side is not always the hotter one, see the lead's report)
+        assert s.network_check.T_face_max <= spec.limits.face + 1e-6
+        assert s.network_check.R_th == pytest.approx(s.recommended.R_th, rel=1e-3)
+        assert s.check.model == "field" and any("re-checked as a field" in w for w in s.why)

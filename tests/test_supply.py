@@ -16,7 +16,7 @@ from iapws import IAPWS97
 from coldplate.cli import main
 from coldplate.design.reader import design_from_dict
 from coldplate.supply.operating import PlateAt
-from coldplate.check import solve
+from .helpers import network_solve as solve  # the network model's numbers
 from coldplate.plate.solve import solve_plate
 from hydraulics.circuit import G
 

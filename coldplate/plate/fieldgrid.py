@@ -58,6 +58,9 @@ class Grid:
     layer: np.ndarray  #: per z cell: BASE, CHANNEL_LAYER or LID
     channel_of_y: np.ndarray  #: per y cell: channel index inside a channel's span, -1 under a wall
     level: int
+    #: per x cell: True where the channels run (False over a plenum: the channel layer is void there, the base
+    #: above it uncooled); None: everywhere
+    channels_at_x: np.ndarray | None = None
 
     @property
     def dx(self):
@@ -90,6 +93,8 @@ class Grid:
         fluid_y = self.channel_of_y >= 0
         fluid_z = self.layer == CHANNEL_LAYER
         mask[:, fluid_y[:, None] & fluid_z[None, :]] = False
+        if self.channels_at_x is not None:  # over a plenum: no walls, no channels (void, adiabatic)
+            mask[np.ix_(~self.channels_at_x, np.arange(ny), fluid_z)] = False
         return mask
 
 
@@ -126,11 +131,14 @@ def channel_walls(width, count, channel_width):
     return np.column_stack((lo, lo + channel_width))
 
 
-def build_grid(length, width, base, sources, channels=None, rules=GridRules(), level=1):
+def build_grid(length, width, base, sources, channels=None, rules=GridRules(), level=1, channel_span=None,
+               lanes=()):
     """The grid of a plate ``length`` × ``width`` [m] with a ``base`` [m] below the mounting face.
 
     ``sources``: iterable of (x centre, y centre, size along, size across) [m]; ``channels``: None (base only)
-    or (count, channel width, depth, lid thickness) [m].  Returns a :class:`Grid` at ``level`` (>= 0).
+    or (count, channel width, depth, lid thickness) [m]; ``channel_span``: (x start, x end) [m] where the
+    channels run (None: the whole length), each end an x edge; ``lanes``: (y low, y high) [m] spans of coolant
+    under the base (a tube's groove, a cavity), each end a y edge.  Returns a :class:`Grid` at ``level`` (>= 0).
     """
     sources = list(sources)
     smallest = min(min(s[2], s[3]) for s in sources)
@@ -143,8 +151,8 @@ def build_grid(length, width, base, sources, channels=None, rules=GridRules(), l
     tol = 1e-9 * max(length, width)
     x_marks = [v for v in x_all if tol < v < length - tol]
     y_marks = [v for v in y_all if abs(v) < width / 2 - tol]
-    xb = [0.0, length] + x_all
-    yb = [-width / 2, width / 2] + y_all
+    xb = [0.0, length] + x_all + (list(channel_span) if channel_span is not None else [])
+    yb = [-width / 2, width / 2] + y_all + [float(np.clip(v, -width / 2, width / 2)) for ln in lanes for v in ln]
     spans = None
     if channels is not None:
         count, w, depth, lid = channels
@@ -173,4 +181,9 @@ def build_grid(length, width, base, sources, channels=None, rules=GridRules(), l
     if spans is not None:
         for j, (lo, hi) in enumerate(spans):
             channel_of_y[(yc > lo) & (yc < hi)] = j
-    return Grid(xe=xe, ye=ye, ze=ze_f, layer=layer, channel_of_y=channel_of_y, level=int(level))
+    at_x = None
+    if spans is not None and channel_span is not None:
+        xc = 0.5 * (xe[1:] + xe[:-1])
+        at_x = (xc > channel_span[0]) & (xc < channel_span[1])
+    return Grid(xe=xe, ye=ye, ze=ze_f, layer=layer, channel_of_y=channel_of_y, level=int(level),
+                channels_at_x=at_x)

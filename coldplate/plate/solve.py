@@ -24,6 +24,7 @@ The check (``coldplate/check.py``) runs this with the modules, the supply and th
 from __future__ import annotations
 
 import math
+from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -38,7 +39,9 @@ from coldplate.plate import conduction, psychro
 from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt, nusselt_local
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
-from coldplate.plate.result import MethodUse, Profile, Result
+from coldplate.plate.passages.base import BackSide, Geometry
+from coldplate.plate.result import MethodUse, Profile, Result, SourceOutcome
+from hydraulics.coolant import Props
 
 if TYPE_CHECKING:
     from coldplate.design.reader import Design
@@ -60,45 +63,10 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     d = design
     Q = d.heat.load if load is None else float(load)
     flow = d.flow if flow is None else float(flow)
-    p = d.supply.line_pressure
-    coolant = d.coolant
-    module = PASSAGES[d.passage.kind]
-    geom = module.geometry(d.passage, d.plate)
-    T_in = d.inlet_temperature
-    T_boil = coolant.boiling_point(p)
-
-    pr_in = coolant.props(T_in, p)
-    m_dot = pr_in.rho * flow  # the volumetric flow is taken at inlet conditions
-    H_in = enthalpy(coolant, T_in, p)
-    total_area = geom.n_parallel * geom.flow_area
+    op = operating_point(d, flow, Q)
+    geom, module, T_in, T_out, pr, cv, h, back = op.geom, op.module, op.T_in, op.T_out, op.props, op.cv, op.h, op.back
+    Re, mu_ratio = op.Re, op.mu_ratio
     A_fp = d.heat.footprint_length * d.heat.footprint_width
-
-    T_out = T_in + Q / (m_dot * pr_in.cp)
-    T_wall = T_out
-    for iteration in range(1, MAX_ITERATIONS + 1):
-        _check_outlet(T_out, T_boil, coolant, p)
-        T_mean = 0.5 * (T_in + T_out)
-        pr = coolant.props(T_mean, p)
-        mu_ratio = 1.0
-        if d.model.laminar == "sieder-tate":
-            mu_ratio = pr.mu / coolant.props(min(T_wall, coolant.upper_limit(p) - 0.5), p).mu
-        V, Re, fr, cv, h = passage_flow(m_dot, pr, total_area, geom.D_h, geom.alpha, geom.shape, geom.path_length,
-                                        geom.heated_length, geom.heated, geom.rel_roughness, d.model, mu_ratio)
-        back = module.back_side(d.passage, d.plate, geom, h)
-        conv = dict(back.parts)["convection"]
-        # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
-        H_target = H_in + Q / m_dot
-        cp_bar = (enthalpy(coolant, T_out, p) - H_in) / (T_out - T_in) if T_out - T_in > 1e-9 else pr.cp
-        T_out_new = T_in + (H_target - H_in) / cp_bar
-        T_wall_new = T_mean + Q * conv
-        change = max(abs(T_out_new - T_out), abs(T_wall_new - T_wall) if mu_ratio != 1.0 else 0.0)
-        T_out, T_wall = T_out_new, T_wall_new
-        if change < TOLERANCE_K:
-            break
-    else:
-        raise SolveError(f"the outlet temperature did not settle in {MAX_ITERATIONS} iterations "
-                         f"(last change {change:.3g} K)")
-    _check_outlet(T_out, T_boil, coolant, p)
 
     # --- the plate: spreading with the mean back side smeared over the cooled length, then the march with the
     # local coefficient and the local bulk temperature at each point
@@ -144,39 +112,165 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     parts += list(back_hot.parts)
     parts.append(("coolant temperature rise", R_coolant))
 
-    # --- pressure drop
+    methods = op.methods(cv_x.methods, spreading=(_use("spreading", conduction.spreading_MCY,
+                                         {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
+                                          "Bi": h_eff * d.plate.base / d.plate.conductivity}),))
+
+    result = Result(
+        **op.result_fields(), R_th=R_th, resistances=tuple(parts), T_face_max=T_face_max,
+        T_plate_max=T_plate_max, x_hot=x_hot, methods=methods,
+        profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
+        assumptions=_assumptions(d), load=Q,
+        Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
+        model="network", sources=network_sources(d, op, Q, L_cool, h_eff, T_face_max, x_hot),
+    )
+    return result
+
+
+def network_sources(d: Design, op: OperatingPoint, Q: float, L_cool: float, h_eff: float, T_face_max: float,
+                    x_hot: float) -> tuple[SourceOutcome, ...]:
+    """Per source, the network's cautious hottest face [K].
+
+    One source: the network's own hottest face.  Several: each source's own spreading (the
+    Muzychka-Culham-Yovanovich series at its own load and footprint, centred on the cooled length, with the mean
+    back side ``h_eff``) at its centroid, plus every other source's spreading rise at that source's own centroid
+    (the most a source puts anywhere on the face, so their sum bounds the heating of neighbours through the
+    plate), plus its own interface, plus the coolant's rise from all the load whose centre lies upstream of this
+    source's outlet-side edge (the source's own included), and never below the stand-in's hottest face (the
+    total load over the sources' bounding box).  Cautious by construction except for a source at a plate edge,
+    whose own spreading the centred series understates (the field model places it; measured in
+    tests/test_field_check.py on the three-source case).
+    No mean face (NaN), no grid uncertainty.  Loads scale with ``Q`` when the solve's load differs from the
+    sources' total."""
+    sources = d.sources
+    total = sum(s.load for s in sources)
+    scale = Q / total if total > 0 and math.isfinite(total) else 1.0
+    if len(sources) == 1:
+        s = sources[0]
+        return (SourceOutcome(s.name, Q, T_face_max, math.nan, s.limit, (x_hot, s.at[1]), math.nan),)
+    mcp = op.m_dot * op.props.cp
+    loads = [s.load * scale for s in sources]
+    rises = []  # each source's spreading rise at its own centroid [K]: the most it can put anywhere
+    for s, q in zip(sources, loads):
+        own = conduction.spreading_MCY(L_cool, d.plate.width, min(s.size[0], L_cool), s.size[1], d.plate.base,
+                                       d.plate.conductivity, h_eff)
+        rises.append(q * own.R_centroid)
+    out = []
+    for s, q in zip(sources, loads):
+        upstream = sum(qo for o, qo in zip(sources, loads) if o.at[0] <= s.edges()[1])
+        T = op.T_in + upstream / mcp + sum(rises) + q * s.interface / s.area
+        out.append(SourceOutcome(s.name, q, max(T, T_face_max), math.nan, s.limit, s.at, math.nan))
+    return tuple(out)
+
+
+@dataclass(frozen=True)
+class OperatingPoint:
+    """The passage at one flow and load, shared by both plate models (the network below, the field in
+    ``plate/fieldcheck.py``): coolant properties at the bulk mean temperature iterated with the outlet (and the
+    wall, for a viscosity correction), the flow's Re, friction, mean Nusselt number and coefficient, the mean
+    back side, the pressure drop and the room air."""
+
+    design: object
+    geom: Geometry
+    module: object
+    flow: float  #: [m^3/s]
+    load: float  #: [W]
+    T_in: float
+    T_out: float
+    T_boil: float
+    props: Props
+    m_dot: float
+    mu_ratio: float
+    V: float
+    Re: float
+    fr: object
+    cv: object
+    h: float
+    back: BackSide
+    iterations: int
+    dp: float
+    dp_friction: float
+    losses: tuple
+    T_dew: float
+    dew_kind: str
+
+    def result_fields(self) -> dict:
+        """The Result fields both plate models take from here as they are."""
+        d, pr = self.design, self.props
+        litres_per_day = self.flow * 1000.0 * d.supply.seconds_per_day if d.supply.once_through else 0.0
+        return dict(
+            design=d, geometry=self.geom, props=pr, T_in=self.T_in, T_out=self.T_out, dp=self.dp,
+            dp_friction=self.dp_friction, minor_losses=self.losses, velocity=self.V, Re=self.Re, Pr=pr.Pr,
+            Nu=float(self.cv.Nu), f_darcy=float(self.fr.f), regime=self.cv.regime, h=self.h,
+            eta_fin=self.back.eta_fin, wetted_area=self.back.wetted_area, V_dot=self.flow, m_dot=self.m_dot,
+            line_pressure=d.supply.line_pressure, T_boil=self.T_boil, T_dew=self.T_dew, dew_kind=self.dew_kind,
+            water_use_L_per_day=litres_per_day,
+            water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0, iterations=self.iterations)
+
+    def methods(self, local_methods=None, spreading=()) -> tuple[MethodUse, ...]:
+        """The range checks of the methods used: friction and convection (``local_methods``: the local
+        correlation's records, the mean's by default), the plate model's own (``spreading``), the back side's
+        and the dew point."""
+        d, geom, pr, Re = self.design, self.geom, self.props, self.Re
+        out = _methods(self.fr.methods, self.cv.methods if local_methods is None else local_methods, Re=Re,
+                       Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h, alpha=geom.alpha,
+                       Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
+        out += tuple(spreading)
+        out += tuple(_use(role, fn, values) for role, fn, values in self.back.methods)
+        out += (_use("dew point", psychro.dew_point, {"T": d.room.temperature, "RH": d.room.relative_humidity}),)
+        return out
+
+
+def operating_point(design: Design, flow: float, Q: float) -> OperatingPoint:
+    """The coolant's state, the passage's flow and heat transfer at its mean, and the pressure drop for a
+    volumetric flow [m^3/s] and heat load [W] (see :class:`OperatingPoint`)."""
+    d = design
+    p = d.supply.line_pressure
+    coolant = d.coolant
+    module = PASSAGES[d.passage.kind]
+    geom = module.geometry(d.passage, d.plate)
+    T_in = d.inlet_temperature
+    T_boil = coolant.boiling_point(p)
+
+    pr_in = coolant.props(T_in, p)
+    m_dot = pr_in.rho * flow  # the volumetric flow is taken at inlet conditions
+    H_in = enthalpy(coolant, T_in, p)
+    total_area = geom.n_parallel * geom.flow_area
+
+    T_out = T_in + Q / (m_dot * pr_in.cp)
+    T_wall = T_out
+    for iteration in range(1, MAX_ITERATIONS + 1):
+        _check_outlet(T_out, T_boil, coolant, p)
+        T_mean = 0.5 * (T_in + T_out)
+        pr = coolant.props(T_mean, p)
+        mu_ratio = 1.0
+        if d.model.laminar == "sieder-tate":
+            mu_ratio = pr.mu / coolant.props(min(T_wall, coolant.upper_limit(p) - 0.5), p).mu
+        V, Re, fr, cv, h = passage_flow(m_dot, pr, total_area, geom.D_h, geom.alpha, geom.shape, geom.path_length,
+                                        geom.heated_length, geom.heated, geom.rel_roughness, d.model, mu_ratio)
+        back = module.back_side(d.passage, d.plate, geom, h)
+        conv = dict(back.parts)["convection"]
+        # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
+        H_target = H_in + Q / m_dot
+        cp_bar = (enthalpy(coolant, T_out, p) - H_in) / (T_out - T_in) if T_out - T_in > 1e-9 else pr.cp
+        T_out_new = T_in + (H_target - H_in) / cp_bar
+        T_wall_new = T_mean + Q * conv
+        change = max(abs(T_out_new - T_out), abs(T_wall_new - T_wall) if mu_ratio != 1.0 else 0.0)
+        T_out, T_wall = T_out_new, T_wall_new
+        if change < TOLERANCE_K:
+            break
+    else:
+        raise SolveError(f"the outlet temperature did not settle in {MAX_ITERATIONS} iterations "
+                         f"(last change {change:.3g} K)")
+    _check_outlet(T_out, T_boil, coolant, p)
+
     losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
     dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
     dp = dp_f + total_pressure_drop(losses, pr.rho)
-
-    # --- room air
     T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
-
-    litres_per_day = flow * 1000.0 * d.supply.seconds_per_day if d.supply.once_through else 0.0
-    methods = _methods(fr.methods, cv_x.methods, Re=Re, Pr=pr.Pr, L_over_D=geom.heated_length / geom.D_h,
-                       alpha=geom.alpha, Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
-    methods += (_use("spreading", conduction.spreading_MCY,
-                     {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
-                      "Bi": h_eff * d.plate.base / d.plate.conductivity}),)
-    methods += tuple(_use(role, fn, values) for role, fn, values in back.methods)
-    methods += (_use("dew point", psychro.dew_point,
-                     {"T": d.room.temperature, "RH": d.room.relative_humidity}),)
-
-    result = Result(
-        design=d, geometry=geom, props=pr, R_th=R_th, resistances=tuple(parts), T_in=T_in, T_out=T_out,
-        T_face_max=T_face_max, T_plate_max=T_plate_max, x_hot=x_hot, dp=dp, dp_friction=dp_f,
-        minor_losses=losses, velocity=V, Re=Re, Pr=pr.Pr, Nu=float(cv.Nu), f_darcy=float(fr.f),
-        regime=cv.regime, h=h, eta_fin=back.eta_fin, wetted_area=back.wetted_area, V_dot=flow,
-        m_dot=m_dot, line_pressure=p, T_boil=T_boil, T_dew=T_dew, dew_kind=dew_kind,
-        water_use_L_per_day=litres_per_day,
-        water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0,
-        methods=methods,
-        profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
-        iterations=iteration, assumptions=_assumptions(d), load=Q,
-        Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
-    )
-    return result
+    return OperatingPoint(d, geom, module, flow, Q, T_in, T_out, T_boil, pr, m_dot, mu_ratio, V, Re, fr, cv, h,
+                          back, iteration, dp, dp_f, losses, T_dew, dew_kind)
 
 
 def passage_flow(m_dot, pr, total_area, D_h, alpha, shape, path_length, heated_length, heated, rel_roughness,

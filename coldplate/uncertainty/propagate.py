@@ -14,7 +14,9 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
   spread zero the band is the check itself.
 * **repeated check** (cavities, a tube whose size varies, modules, a supply that sets the flow): :func:`check_rows` solves each
   row's design as the check does (the supply's operating point, the plate, the modules; not the water
-  planning or the findings, which are not banded) at a smaller sample count (200 by default, 64 where each
+  planning or the findings, which are not banded) but on the resistance network (the field model would cost
+  seconds a row), and :func:`anchored` moves the rows onto the check's own values as the evaluator's rows are,
+  at a smaller sample count (200 by default, 64 where each
   sample solves a circuit or modules).  The check takes no correlation factors, so this path leaves the
   correlation scatter out, and says so in the notes.
 
@@ -92,7 +94,7 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
         oat[2 * i, i], oat[2 * i + 1, i] = lo, hi
     rows = np.vstack([nominal[None, :], oat, sampled])
     keys = [s.key for s in spreads]
-    out = evaluator_rows(design, result, keys, rows) if fast else check_rows(design, keys, rows)
+    out = evaluator_rows(design, result, keys, rows) if fast else anchored(result, check_rows(design, keys, rows))
     body = slice(1 + 2 * k, None)
     unsolved = int(np.count_nonzero(~np.isfinite(out["face"][body])))
     if unsolved:
@@ -291,12 +293,21 @@ def _solve_row(d):
     if d.module is not None:
         from coldplate.check import solve
 
-        return solve(d)
+        return solve(d, model="network")  # a field solve per sample would cost seconds; anchored to the check
     from coldplate.plate.solve import solve_plate
     from coldplate.supply.stage import supply_stage
 
     flow, _ = supply_stage(d)  # a circuit's operating point (the planning it would attach is not banded)
     return solve_plate(d, flow)
+
+
+def anchored(result, out: dict) -> dict:
+    """Rows of the network model moved onto the check's own values (which the field model may have given): the
+    check's value plus each row's change from the nominal row 0 (times its ratio for the pressure drop and the
+    water), as the evaluator's rows are."""
+    face, outlet, dp, water = (out[k] for k in ("face", "outlet", "pressure_drop", "water_use"))
+    return {"face": result.T_face_max + (face - face[0]), "outlet": result.T_out + (outlet - outlet[0]),
+            "pressure_drop": result.dp * dp / dp[0], "water_use": result.water_use_L_per_day * water / water[0]}
 
 
 def check_rows(design, keys, rows) -> dict:

@@ -20,12 +20,12 @@ def attach(result, band):
     return replace(with_u, findings=tuple(sorted((*result.findings, *extra), key=lambda f: rank[f.severity])))
 
 
-def check_data(data: dict, confidence: float | None = None):
+def check_data(data: dict, confidence: float | None = None, model: str = "field"):
     """Read, check and band a design file's data; the ``[uncertainty]`` table is read before anything is solved
     (a bad entry is a one-line DesignError, nothing computed)."""
     design = design_from_dict(data)
     spec = read_uncertainty(data, design, confidence)
-    result = solve(design)
+    result = solve(design, model=model)
     if spec is None:
         return result
     from coldplate.uncertainty.propagate import propagate  # the evaluator: only when a band is asked for
@@ -33,6 +33,7 @@ def check_data(data: dict, confidence: float | None = None):
     return attach(result, propagate(design, result, spec, data))
 
 
-def check_file_with_band(path, confidence: float | None = None):
-    """``coldplate check`` with the band: the Python API (``coldplate.check_file`` stays the nominal check)."""
-    return check_data(load_data(path), confidence)
+def check_file_with_band(path, confidence: float | None = None, model: str = "field"):
+    """``coldplate check`` with the band: the Python API (``coldplate.check_file`` stays the nominal check);
+    ``model`` is the nominal check's plate model (the band's samples run on the network, anchored to it)."""
+    return check_data(load_data(path), confidence, model)
