@@ -101,8 +101,9 @@ def _parser() -> argparse.ArgumentParser:
     _flow_range_options(r)
     r.add_argument("--force", action="store_true", help="replace existing files")
     for q in (c, r):  # the plate model (coldplate.check.MODELS)
-        q.add_argument("--model", choices=("field", "network"), default="field",
-                       help="plate model: field (3-D, every source placed; default) or network (fast)")
+        q.add_argument("--model", choices=("field", "network"), default=None,
+                       help="plate model: field (3-D, every source placed; the default) or network (fast; the "
+                            "default of --watch)")
     k = sub.add_parser("curves", help="thermal resistance and pressure drop against flow, with fitted flow curves")
     k.add_argument("file", help="design file (TOML)")
     k.add_argument("-o", "--output", help="file to write (NAME.csv or NAME.json); standard output when absent")
@@ -169,7 +170,7 @@ def _report(args, version) -> str:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise DesignError("", f"design file {args.file!r} is not UTF-8 text") from None
-    result = _checked(text, _confidence(args), args.model)
+    result = _checked(text, _confidence(args), args.model or "field")
     curve = flow_curve(result.design, _flows(args, result.V_dot), load=result.load, flow=result.V_dot)
     rep = make_report(result, curve, fit_flow_curves(curve), mounting_face_profile(result), units=args.units,
                       version=version, source_name=Path(args.file).name, source_bytes=raw)
@@ -296,7 +297,7 @@ def _run(argv, debug: bool) -> int:
 
             if args.map:
                 _map_target(args.map, args.force)
-            result = check_file_with_band(args.file, _confidence(args), model=args.model)
+            result = check_file_with_band(args.file, _confidence(args), model=args.model or "field")
             if args.map:
                 _write_map(result, args.map)
             if args.format == "json":

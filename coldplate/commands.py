@@ -106,12 +106,12 @@ def _names(files) -> list[str]:
     return [b if base.count(b) == 1 else f for b, f in zip(base, files)]
 
 
-def check_one(path):
+def check_one(path, model: str = "field"):
     """(result, None) or (None, (exit status, the one line saying why)) for one design file."""
     from coldplate.check import check_file
 
     try:
-        return check_file(path), None
+        return check_file(path, model=model), None
     except DesignError as exc:
         return None, _failed(2, f"error: {one_line(exc)}")
     except ColdplateError as exc:
@@ -135,10 +135,12 @@ def compare_command(args, write_stdout) -> int:
     from coldplate.findings.base import SEVERITIES
     from reports.compare import Column, render_comparison_csv, render_comparison_json, render_comparison_text
 
+    if getattr(args, "map", None):
+        raise DesignError("--map", "writes the map of one design; check one file with it")
     files = [args.file, *args.more]
     columns, worst = [], 0
     for name, path in zip(_names(files), files):
-        result, failed = check_one(path)
+        result, failed = check_one(path, args.model or "field")
         if failed:
             status, line = failed
             worst = max(worst, status)
@@ -168,8 +170,14 @@ def signature(path) -> tuple | None:
     return st.st_mtime_ns, st.st_size, st.st_ino
 
 
+#: The plate model of a live re-check unless --model says otherwise: the network answers in tens of milliseconds,
+#: so a save shows its effect at once; the field (about a second a solve on the examples) is asked for with
+#: ``--model field``.  The first line of the watch says which model it runs.
+WATCH_MODEL = "network"
+
+
 def watch(path, emit, *, units: str = "si", stop: threading.Event | None = None,
-          poll: float = POLL_SECONDS, on_solved=None) -> None:
+          poll: float = POLL_SECONDS, on_solved=None, model: str = WATCH_MODEL) -> None:
     """Check ``path`` now and after each save until ``stop`` is set (or Ctrl-C): ``emit(line)`` for every line
     shown; ``on_solved(result or None)`` after each attempt (tests and benchmarks listen there)."""
     from coldplate.findings.base import SEVERITIES
@@ -184,7 +192,7 @@ def watch(path, emit, *, units: str = "si", stop: threading.Event | None = None,
         if sig != last_sig:
             last_sig = sig
             start = time.perf_counter()
-            result, failed = check_one(path) if sig is not None else (None, (2, f"error: {path} is missing"))
+            result, failed = check_one(path, model) if sig is not None else (None, (2, f"error: {path} is missing"))
             took = time.perf_counter() - start
             if failed:
                 emit(f"coldplate: {failed[1]}")
@@ -192,7 +200,7 @@ def watch(path, emit, *, units: str = "si", stop: threading.Event | None = None,
             elif last is None:
                 for line in render_text(result, __version__, units=units).rstrip("\n").splitlines():
                     emit(line)
-                emit(f"coldplate: watching {path}; checked in {took:.2f} s; Ctrl-C ends")
+                emit(f"coldplate: watching {path} ({model} model); checked in {took:.2f} s; Ctrl-C ends")
             else:
                 found = changes(last, result, units)
                 n = counts(result, SEVERITIES)
@@ -212,13 +220,15 @@ def watch_command(args) -> int:
         raise DesignError("--watch", "watches one design file; give one")
     if args.format != "text":
         raise DesignError("--watch", "shows text; leave out --format")
+    if getattr(args, "map", None):
+        raise DesignError("--map", "writes the map of one check; leave out --watch")
 
     def emit(line):
         sys.stdout.write(line + "\n")
         sys.stdout.flush()
 
     try:
-        watch(args.file, emit, units=args.units)
+        watch(args.file, emit, units=args.units, model=args.model or WATCH_MODEL)
     except KeyboardInterrupt:
         print("coldplate: stopped watching", file=sys.stderr)
         return EXIT_INTERRUPTED
