@@ -265,6 +265,10 @@ class _HeaderLine:
 
 
 def _drops(channels, Q):
+    """Each channel's drop at its flow [Pa]; one array call when every channel has the same drop function (the
+    functions take arrays)."""
+    if all(dp is channels[0] for dp in channels):
+        return np.asarray(channels[0](np.asarray(Q, dtype=float)), dtype=float).reshape(-1)
     return np.array([float(dp(q)) for dp, q in zip(channels, Q)])
 
 

@@ -31,13 +31,15 @@ import numpy as np
 from hydraulics.coolant import StateError as _CoolantStateError
 from hydraulics.coolant import SATURATION_MARGIN_K, enthalpy
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
-from hydraulics.friction import darcy_friction
-from hydraulics.losses import total_pressure_drop
+from hydraulics.losses import MinorLoss, total_pressure_drop
 
 from coldplate.plate import conduction, psychro
-from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt, nusselt_local
+from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt_local
+from coldplate.plate.flow import friction_pressure_drop, passage_flow  # noqa: F401  (the sizing evaluator imports them here)
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
+from coldplate.plate.passages.channels import PORT_LOSSES
+from coldplate.plate.split import least_fed_loop, solve_channel_split
 from coldplate.plate.result import MethodUse, Profile, Result
 
 if TYPE_CHECKING:
@@ -48,6 +50,8 @@ MAX_ITERATIONS = 60
 GRID_PER_SEGMENT = 1
 PROFILE_EVERY = 1
 TOLERANCE_K = 1e-5
+#: The names of the header parts in a split channel plate's pressure breakdown (Result.minor_losses).
+HEADER_PARTS = ("inlet header to the least-fed channel", "outlet header from the least-fed channel")
 
 
 def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:
@@ -100,6 +104,21 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                          f"(last change {change:.3g} K)")
     _check_outlet(T_out, T_boil, coolant, p)
 
+    # --- the flow split across a channel plate's channels: the least-fed channel sets the hot spot (its Re, h and
+    # the local march, every channel taken as that one), and its coolant rises by the mean over its flow
+    split = None
+    rise_scale = 1.0
+    if d.passage.kind == "channels":
+        split = solve_channel_split(d.passage, d.plate, geom, pr, d.model, m_dot / pr.rho)
+    if split is not None:
+        rise_scale = 1.0 / split.min_to_mean
+        q_least = float(np.min(split.flows.channel_flows))
+        V_mean = V
+        V, Re, fr, cv, h = passage_flow(pr.rho * q_least * geom.n_parallel, pr, total_area, geom.D_h, geom.alpha,
+                                        geom.shape, geom.path_length, geom.heated_length, geom.heated,
+                                        geom.rel_roughness, d.model, mu_ratio)
+        back = module.back_side(d.passage, d.plate, geom, h)
+
     # --- the plate: spreading with the mean back side smeared over the cooled length, then the march with the
     # local coefficient and the local bulk temperature at each point
     off = geom.cooled_offset
@@ -125,7 +144,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
                                                spread.cooled_flux_centreline(xg), r_x, r_mean)
     frac = (np.asarray(spread.absorbed_fraction(xf)) if geom.single_pass else np.ones_like(xf))
-    T_bulk_f = T_in + (T_out - T_in) * frac
+    T_bulk_f = T_in + (T_out - T_in) * rise_scale * frac
     T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xf), np.interp(xf, xg, delta))
     on_grid = np.searchsorted(xf, xg[::PROFILE_EVERY])  # the profile: points of the grid (all in xf)
     x_prof, T_bulk, T_top = xf[on_grid], T_bulk_f[on_grid], T_top_f[on_grid]
@@ -145,8 +164,12 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     parts.append(("coolant temperature rise", R_coolant))
 
     # --- pressure drop
-    losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
-    dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
+    if split is None:
+        losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
+        dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
+    else:
+        dp_f, losses = _split_pressure_parts(d, geom, pr, split, module.minor_losses(d.passage, d.plate, geom,
+                                                                                      V_mean, Re, float(fr.f)))
     dp = dp_f + total_pressure_drop(losses, pr.rho)
 
     # --- room air
@@ -175,31 +198,39 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
         profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
         iterations=iteration, assumptions=_assumptions(d), load=Q,
         Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
+        **_split_fields(split, flow),
     )
     return result
 
 
-def passage_flow(m_dot, pr, total_area, D_h, alpha, shape, path_length, heated_length, heated, rel_roughness,
-                 model, mu_ratio=1.0):
-    """The passage at an operating point: velocity [m/s], Reynolds number, Darcy friction (FrictionResult),
-    Nusselt number (ConvectionResult) and heat transfer coefficient [W/(m² K)].
+def _split_pressure_parts(d, geom, pr, split, mean_losses):
+    """The pressure drop's parts through the least-fed channel's loop of the higher-drop split: that channel's
+    friction, and as minor losses the inlet port, the inlet header (port to the channel), the channel's
+    contraction and expansion at its own velocity, the outlet header and the outlet port.  They sum to the
+    port-to-port drop plus the ports' losses."""
+    m = split.drop
+    i, p_inlet, p_outlet = least_fed_loop(m)
+    q = float(m.channel_flows[i])
+    V_i, _, fr_i, _, _ = passage_flow(pr.rho * q, pr, geom.flow_area, geom.D_h, geom.alpha, geom.shape,
+                                      geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model)
+    dyn = 0.5 * pr.rho * V_i**2
+    ports = {loss.name: loss for loss in mean_losses if loss.name in PORT_LOSSES}
+    inner = [MinorLoss(loss.name, loss.K, V_i) for loss in mean_losses if loss.name not in PORT_LOSSES]
+    parts = ([ports[PORT_LOSSES[0]]] if PORT_LOSSES[0] in ports else [])
+    parts += [MinorLoss(HEADER_PARTS[0], p_inlet / dyn, V_i)] + inner + [MinorLoss(HEADER_PARTS[1], p_outlet / dyn, V_i)]
+    parts += [ports[PORT_LOSSES[1]]] if PORT_LOSSES[1] in ports else []
+    return friction_pressure_drop(float(fr_i.f), geom.path_length, geom.D_h, pr.rho, V_i), tuple(parts)
 
-    V = ṁ / (ρ A_total), Re = ρ V D_h / μ, h = Nu k / D_h.  ``pr`` has rho, mu, k, Pr; every argument may be a
-    float or a numpy array (the sizing evaluator passes arrays of candidates), ``model`` the design's
-    correlation choices.  The one formula for both the check and the sizing search.
-    """
-    V = m_dot / (pr.rho * total_area)
-    Re = pr.rho * V * D_h / pr.mu
-    fr = darcy_friction(Re, path_length, D_h, alpha, shape, rel_roughness)
-    cv = nusselt(Re, pr.Pr, heated_length, D_h, alpha, shape=shape, laminar=model.laminar,
-                 turbulent=model.turbulent, heated=heated, mu_ratio=mu_ratio, rel_roughness=rel_roughness)
-    h = cv.Nu * pr.k / D_h
-    return V, Re, fr, cv, h
 
-
-def friction_pressure_drop(f, length, D_h, rho, V):
-    """Darcy-Weisbach: dp = f (L / D_h) ρ V² / 2 [Pa] (floats or arrays)."""
-    return f * length / D_h * 0.5 * rho * V**2
+def _split_fields(split, flow) -> dict:
+    """The Result's flow-split fields: channel flows at inlet conditions (summing to ``flow``), min over mean,
+    the header drops and the arrangement (empty without a split)."""
+    if split is None:
+        return {}
+    q = np.asarray(split.flows.channel_flows)
+    return dict(channel_flows=tuple(map(float, q * (flow / np.sum(q)))), flow_split_min_to_mean=split.min_to_mean,
+                header_pressure_drop=(split.drop.inlet_header_drop, split.drop.outlet_header_drop),
+                port_arrangement=split.flows.arrangement, flow_split=split)
 
 
 def cooled_span(plate_length: float, offset: float, footprint_length: float) -> tuple[float, float]:
@@ -306,7 +337,13 @@ def _assumptions(d: Design) -> tuple[str, ...]:
         "the sides and the lid of the plate are adiabatic (no heat to room air)",
     ]
     if d.passage.kind == "channels":
-        out.append("flow is shared evenly between channels; the walls are fins with an adiabatic tip at the lid")
+        if d.passage.count > 1 and d.passage.plenum_length > 0:
+            out.append("the flow split between channels is solved through the plenums as headers (Bajura & Jones' "
+                       "momentum form); the hot spot takes every channel at the least-fed channel's flow and its "
+                       "coolant rise (the outlet and the water use stay on the total flow)")
+        elif d.passage.count > 1:
+            out.append("no plenum (plenum_length zero): flow is shared evenly between channels")
+        out.append("the walls are fins with an adiabatic tip at the lid")
         out.append("the plate over the plenums is given no cooling (the channels' conductance is smeared over the "
                    "channel length only)")
         if d.passage.port_diameter is None:
