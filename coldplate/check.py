@@ -12,6 +12,7 @@ from functools import partial
 
 from coldplate.design.reader import Design, load_design
 from coldplate.findings.base import SEVERITIES, Finding
+from coldplate.findings.flow_split import RULES as FLOW_SPLIT_RULES
 from coldplate.findings.plate import RULES as PLATE_RULES
 from coldplate.modules.findings import RULES as MODULE_RULES
 from coldplate.plate.result import Result
@@ -19,7 +20,7 @@ from coldplate.plate.solve import solve_plate
 from coldplate.supply.findings import RULES as SUPPLY_RULES
 
 #: Every rule, in the order their findings are listed within one severity.
-RULES = PLATE_RULES + MODULE_RULES + SUPPLY_RULES
+RULES = PLATE_RULES + FLOW_SPLIT_RULES + MODULE_RULES + SUPPLY_RULES
 
 
 def check_file(path) -> Result:

@@ -108,10 +108,11 @@ class Header:
 @dataclass(frozen=True)
 class LinearQuadraticChannel:
     """A channel whose drop is ``a Q + b Q |Q|`` [Pa]: a laminar (linear) part ``a`` [Pa s/m^3] and a quadratic
-    part ``b`` [Pa s^2/m^6] (minor losses, entry and exit).  Callable as ``dp(Q)``."""
+    part ``b`` [Pa s^2/m^6] (minor losses, entry and exit).  Callable as ``dp(Q)``, Q a float or an array."""
 
     a: float
     b: float = 0.0
+    takes_arrays = True
 
     def __call__(self, Q):
         Q = np.asarray(Q, dtype=float)
@@ -265,9 +266,9 @@ class _HeaderLine:
 
 
 def _drops(channels, Q):
-    """Each channel's drop at its flow [Pa]; one array call when every channel has the same drop function (the
-    functions take arrays)."""
-    if all(dp is channels[0] for dp in channels):
+    """Each channel's drop at its flow [Pa]; one array call when every channel has the same drop function and it
+    says it takes arrays (an attribute ``takes_arrays`` that is true)."""
+    if getattr(channels[0], "takes_arrays", False) and all(dp is channels[0] for dp in channels):
         return np.asarray(channels[0](np.asarray(Q, dtype=float)), dtype=float).reshape(-1)
     return np.array([float(dp(q)) for dp, q in zip(channels, Q)])
 

@@ -6,6 +6,7 @@ from __future__ import annotations
 
 import json
 
+from .flow_split import split_dict
 from .module_report import module_to_dict
 from .supply import supply_dict
 
@@ -60,6 +61,7 @@ def result_to_dict(r, version: str = "") -> dict:
         "findings": [{"id": f.id, "severity": f.severity, "message": f.message, "action": f.action}
                      for f in r.findings],
         **supply_dict(r),
+        **split_dict(r),  # the flow split across channels (nulls without one)
     }
 
 

@@ -51,6 +51,8 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
     circuit = r.circuit
     if circuit is not None:
         figs["circuit"] = plots.draw(plots.system_curve, circuit, u, name="circuit")
+    if getattr(r, "channel_flows", ()):  # the flow split across channels
+        figs["flow_split"] = plots.draw(plots.channel_flows, r, u, name="flow_split")
     return figs
 
 

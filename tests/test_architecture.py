@@ -26,7 +26,7 @@ LAYERS = (
                                "coldplate.design.fields")),
     (2, "plate", ("coldplate.plate",)),
     (2, "finding record", ("coldplate.findings.base",)),
-    (3, "plate findings", ("coldplate.findings.plate",)),
+    (3, "plate findings", ("coldplate.findings.plate", "coldplate.findings.flow_split")),
     (3, "modules", ("coldplate.modules",)),
     (3, "supply", ("coldplate.supply",)),
     (4, "design file", ("coldplate.design.reader",)),

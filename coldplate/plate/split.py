@@ -39,6 +39,7 @@ class ChannelDrop:
     geom: object  #: the passage Geometry
     model: object  #: the design's correlation choices
     K_channel: float  #: sum of the channel's own minor-loss coefficients [-]
+    takes_arrays = True  #: q may be an array (hydraulics.manifold calls it once for all channels)
 
     def __call__(self, q):
         g = self.geom
