@@ -49,6 +49,7 @@ from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
+from coldplate.plate.split import solve_channel_split
 from coldplate.sizing.platetable import PlateTable
 from coldplate.sizing.proptable import PropertyTable
 
@@ -100,6 +101,7 @@ class Evaluator:
         self.A_cool = self.plate.area  # the back side is smeared over the cooled length between the plenums
         self.R_int = conduction.R_interface(d.interface.resistance_area,
                                             d.heat.footprint_length * d.heat.footprint_width)
+        self._split_cache: dict = {}
 
     # ---------------------------------------------------------------- shared stages
 
@@ -141,13 +143,17 @@ class Evaluator:
         alpha = aspect_ratio(w, dep)
         area = n * w * dep
         shape = (n.shape[0], 1, flow.size)
+        # the flow split per geometry and flow (the check's own header network): the least-fed channel sets the
+        # heat transfer and the coolant's rise, the port-to-port drop the pressure
+        share, port_to_port = self.splits(n.ravel(), w.ravel(), dep.ravel(), st)
+        m_heat = st.m_dot * share
         V, Re, f, h = (np.empty(shape) for _ in range(4))
         # the heated-wall arrangement follows each channel's shape: one call per arrangement
         heated = channel_passage.heated_walls(w, dep).ravel()
         for kind in np.unique(heated):
             rows = heated == kind
             V[rows], Re[rows], fr, _, h[rows] = passage_flow(
-                st.m_dot, pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
+                m_heat[rows], pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
                 d.passage.roughness / D_h[rows], d.model)
             f[rows] = fr.f
         _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
@@ -170,12 +176,50 @@ class Evaluator:
                 _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), e(L), e(wall), d.plate.conductivity,
                                                            h_x)
                 r_x[rows - a] = (self.A_cool / (h_x * eff_x))[:, 0]
-            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], st.s[:, 0, :], r_x), -1, 1)
+            s_blk = np.broadcast_to(st.s / share, shape)[blk, 0, :]
+            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], s_blk, r_x), -1, 1)
         dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
-        for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
-            dp = dp + K * ratio**2 * dyn
+        dyn_mean = 0.5 * pr.rho * (st.m_dot / (pr.rho * area))**2
+        split = np.isfinite(port_to_port)
+        dp = np.where(split, port_to_port, dp)
+        for name, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter,
+                                                                d.passage.plenum_depth):
+            if name in channel_passage.PORT_LOSSES:
+                dp = dp + K * ratio**2 * np.where(split, dyn_mean, dyn)
+            else:  # a channel's own loss: inside the port-to-port drop where there is a split
+                dp = dp + np.where(split, 0.0, K * ratio**2 * dyn)
         return self._finish(R_plate, dp, st, V, Re, (n.shape[0], base.size, flow.size))
+
+    def splits(self, count, width, depth, st):
+        """The flow split for each geometry (1-D arrays of length G) at each flow: the least channel flow over
+        the mean and the port-to-port drop [Pa], arrays (G, 1, Nq).  Share 1 and drop NaN where there is no
+        split (one channel, no plenum) or the coolant would boil.  One header network per geometry and flow
+        (:func:`coldplate.plate.split.solve_channel_split`, the check's own), solved once per distinct
+        geometry and flow."""
+        d = self.design
+        pr = st.pr
+        rho, mu = (np.broadcast_to(getattr(pr, k), st.m_dot.shape).ravel() for k in ("rho", "mu"))
+        ok = np.broadcast_to(st.ok, st.m_dot.shape).ravel()
+        mdot = st.m_dot.ravel()
+        G, Nq = count.size, mdot.size
+        share = np.ones((G, 1, Nq))
+        drop = np.full((G, 1, Nq), np.nan)
+        if d.passage.plenum_length <= 0:
+            return share, drop
+        for g in range(G):
+            if count[g] < 2:
+                continue
+            passage = replace(d.passage, count=int(count[g]), width=float(width[g]), depth=float(depth[g]))
+            geom = channel_passage.geometry(passage, d.plate)
+            for q in np.flatnonzero(ok):
+                key = (passage, float(rho[q]), float(mu[q]), float(mdot[q]))
+                if key not in self._split_cache:
+                    props = SimpleNamespace(rho=float(rho[q]), mu=float(mu[q]))
+                    sp = solve_channel_split(passage, d.plate, geom, props, d.model, float(mdot[q] / rho[q]))
+                    self._split_cache[key] = (sp.min_to_mean, sp.drop.port_to_port)
+                share[g, 0, q], drop[g, 0, q] = self._split_cache[key]
+        return share, drop
 
     # ---------------------------------------------------------------- tubes
 
