@@ -34,6 +34,7 @@ development machine; ``benchmarks/sizing.py``).  Tubes loop over geometries and 
 """
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, replace
 from types import SimpleNamespace
 
@@ -41,15 +42,17 @@ import numpy as np
 
 from hydraulics.coolant import enthalpy
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+from hydraulics.manifold import solve_split_batch
 
 from coldplate.plate import conduction
 from coldplate.design.reader import Design
-from coldplate.design.errors import DesignError
+from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
-from coldplate.plate.split import solve_channel_split
+from coldplate.plate.flow import passage_friction
+from coldplate.plate.split import channel_positions
 from coldplate.sizing.platetable import PlateTable
 from coldplate.sizing.proptable import PropertyTable
 
@@ -101,7 +104,6 @@ class Evaluator:
         self.A_cool = self.plate.area  # the back side is smeared over the cooled length between the plenums
         self.R_int = conduction.R_interface(d.interface.resistance_area,
                                             d.heat.footprint_length * d.heat.footprint_width)
-        self._split_cache: dict = {}
 
     # ---------------------------------------------------------------- shared stages
 
@@ -194,31 +196,61 @@ class Evaluator:
     def splits(self, count, width, depth, st):
         """The flow split for each geometry (1-D arrays of length G) at each flow: the least channel flow over
         the mean and the port-to-port drop [Pa], arrays (G, 1, Nq).  Share 1 and drop NaN where there is no
-        split (one channel, no plenum) or the coolant would boil.  One header network per geometry and flow
-        (:func:`coldplate.plate.split.solve_channel_split`, the check's own), solved once per distinct
-        geometry and flow."""
+        split (one channel, no plenum) or the coolant would boil.  The check's own header network
+        (:mod:`coldplate.plate.split`: its positions, headers and channel losses, the same friction through
+        ``passage_friction``), solved for every geometry and flow at once by
+        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
+        among the channels), both header-friction forms, the less even split and the higher drop kept."""
         d = self.design
+        G = count.size
         pr = st.pr
-        rho, mu = (np.broadcast_to(getattr(pr, k), st.m_dot.shape).ravel() for k in ("rho", "mu"))
-        ok = np.broadcast_to(st.ok, st.m_dot.shape).ravel()
+        full = st.m_dot.shape
+        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
+        ok = np.broadcast_to(st.ok, full).ravel()
         mdot = st.m_dot.ravel()
-        G, Nq = count.size, mdot.size
+        Nq = mdot.size
         share = np.ones((G, 1, Nq))
         drop = np.full((G, 1, Nq), np.nan)
         if d.passage.plenum_length <= 0:
             return share, drop
-        for g in range(G):
-            if count[g] < 2:
-                continue
-            passage = replace(d.passage, count=int(count[g]), width=float(width[g]), depth=float(depth[g]))
-            geom = channel_passage.geometry(passage, d.plate)
-            for q in np.flatnonzero(ok):
-                key = (passage, float(rho[q]), float(mu[q]), float(mdot[q]))
-                if key not in self._split_cache:
-                    props = SimpleNamespace(rho=float(rho[q]), mu=float(mu[q]))
-                    sp = solve_channel_split(passage, d.plate, geom, props, d.model, float(mdot[q] / rho[q]))
-                    self._split_cache[key] = (sp.min_to_mean, sp.drop.port_to_port)
-                share[g, 0, q], drop[g, 0, q] = self._split_cache[key]
+        gg, qq = np.meshgrid(np.flatnonzero(count >= 2), np.flatnonzero(ok), indexing="ij")
+        gg, qq = gg.ravel(), qq.ravel()
+        if not gg.size:
+            return share, drop
+        keys = {}
+        for i, (g, c) in enumerate(zip(gg, count[gg])):
+            passage = replace(d.passage, count=int(c), width=float(width[g]), depth=float(depth[g]))
+            y = np.asarray(channel_positions(passage, d.plate))
+            order = tuple(int(np.searchsorted(y, port, side)) for port in (passage.inlet_port, passage.outlet_port)
+                          for side in ("left", "right"))
+            keys.setdefault((int(c),) + order, []).append(i)
+        for (c, *_), rows in keys.items():
+            rows = np.asarray(rows)
+            g, q = gg[rows], qq[rows]
+            passages = [replace(d.passage, count=c, width=float(width[k]), depth=float(depth[k])) for k in g]
+            y = np.array([channel_positions(p_, d.plate) for p_ in passages])
+            w, dep = width[g][:, None], depth[g][:, None]
+            L = d.plate.length - 2.0 * d.passage.plenum_length
+            D_h, alpha = hydraulic_diameter_rectangle(w, dep), aspect_ratio(w, dep)
+            K = sum(np.asarray(Kc) * ratio**2 for name, Kc, ratio in channel_passage.loss_coefficients(
+                c, w, dep, d.plate.width, d.passage.port_diameter, d.passage.plenum_depth)
+                if name not in channel_passage.PORT_LOSSES)
+            props = SimpleNamespace(rho=rho[q][:, None], mu=mu[q][:, None])
+
+            def dp_channels(Q, r, w=w, dep=dep, D_h=D_h, alpha=alpha, K=K, props=props):
+                pr_r = SimpleNamespace(rho=props.rho[r], mu=props.mu[r])
+                V, _, fr = passage_friction(pr_r.rho * Q, pr_r, w[r] * dep[r], D_h[r], alpha[r], "rectangle", L,
+                                            d.passage.roughness / D_h[r])
+                return friction_pressure_drop(np.asarray(fr.f), L, D_h[r], pr_r.rho, V) + K[r] * 0.5 * pr_r.rho * V**2
+
+            depth_h = np.full(rows.size, d.passage.plenum_depth) if d.passage.plenum_depth is not None else depth[g]
+            both = [solve_split_batch(d.plate.width, depth_h, d.passage.plenum_length, d.passage.roughness, y,
+                                      d.passage.inlet_port, d.passage.outlet_port, dp_channels, mdot[q] / rho[q],
+                                      rho[q], mu[q], friction_length=fl) for fl in (None, math.inf)]
+            if not all(b.converged.all() for b in both):
+                raise SolveError("the flow split across the channels could not be solved for some candidates")
+            share[g, 0, q] = np.minimum(both[0].min_to_mean, both[1].min_to_mean)
+            drop[g, 0, q] = np.maximum(both[0].port_to_port, both[1].port_to_port)
         return share, drop
 
     # ---------------------------------------------------------------- tubes
