@@ -35,7 +35,8 @@ def _split_with(r, **changes) -> float | None:
 
 
 def remedies(r) -> list[str]:
-    """Each remedy as words with the split it gives (solved)."""
+    """Each remedy that helps, as words with the split it gives (solved; one that does not help is left out:
+    with the combining header's larger momentum term a Z can split worse than a U)."""
     d = r.design
     p = d.passage
     out = []
@@ -43,22 +44,22 @@ def remedies(r) -> list[str]:
     if deeper <= 0.1:  # the plausible range of [passage] plenum_depth
         s = _split_with(r, plenum_depth=deeper)
         if s is not None:
-            out.append(f"plenums twice as deep ({deeper * 1e3:.3g} mm) give {100 * s:.0f} %")
+            out.append((f"plenums twice as deep ({deeper * 1e3:.3g} mm) give {100 * s:.0f} %", s))
     if p.inlet_port != 0.0 or p.outlet_port != 0.0:
         s = _split_with(r, inlet_port=0.0, outlet_port=0.0)
         if s is not None:
-            out.append(f"both ports on the centre line give {100 * s:.0f} %")
+            out.append((f"both ports on the centre line give {100 * s:.0f} %", s))
     if r.port_arrangement == "U":
         s = _split_with(r, outlet_port=-p.outlet_port)
         if s is not None:
-            out.append(f"the outlet port at {-p.outlet_port * 1e3:+.3g} mm, opposite the inlet (a Z), gives "
-                       f"{100 * s:.0f} %")
+            out.append((f"the outlet port at {-p.outlet_port * 1e3:+.3g} mm, opposite the inlet (a Z), gives "
+                        f"{100 * s:.0f} %", s))
     if p.count >= 4:
         s = _split_with(r, count=p.count // 2)
         if s is not None:
-            out.append(f"{p.count // 2} channels of the same size instead of {p.count} give {100 * s:.0f} % "
-                       "(less cooling area: check the face again)")
-    return out
+            out.append((f"{p.count // 2} channels of the same size instead of {p.count} give {100 * s:.0f} % "
+                        "(less cooling area: check the face again)", s))
+    return [text for text, s in out if s > r.flow_split_min_to_mean]
 
 
 def flow_split(r):
@@ -74,8 +75,8 @@ def flow_split(r):
         f"plenums' pressure changes along them ({r.header_pressure_drop[0]:.3g} Pa inlet, "
         f"{r.header_pressure_drop[1]:.3g} Pa outlet, ports {r.port_arrangement}) starve it, and the device over "
         "it runs hotter (the hot spot here is computed at its flow).",
-        "Deepen the plenums, centre the ports or put them at opposite ends, or use fewer channels"
-        + (": " + "; ".join(fixes) + "." if fixes else "."))
+        "Deepen the plenums, centre the ports or move them (a U and a Z differ; solved below), or use fewer "
+        "channels" + (": " + "; ".join(fixes) + "." if fixes else "."))
 
 
 RULES = (flow_split,)
