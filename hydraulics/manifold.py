@@ -384,7 +384,8 @@ class _BatchHeader:
         B = y.shape[0]
         line = _HeaderLine(Header(1.0, 1.0, 1.0), y[0], float(port[0]), k, sign, 1.0, 1.0, None)
         self.channel_node, self.P = line.channel_node, line.port_node
-        self.upto, self.port_left = line.upto, line.port_left           # (S, N), (S,): the shared order
+        self.port_left = line.port_left                                   # (S,): the shared order
+        self.upto_count = line.upto.sum(axis=1).astype(int)               # channels at or left of each segment
         self.nodes = np.empty((B, line.nodes.size))
         self.nodes[:, :] = np.nan
         for b in range(B):
@@ -398,10 +399,15 @@ class _BatchHeader:
         self.rel = (roughness / self.D_h[:, 0])[:, None]
         self.L = (length if friction_length is None else np.full_like(length, friction_length))[:, None]
 
-    def pressures(self, Q, total):
-        V = self.sign * (total[:, None] * self.port_left[None, :] - Q @ self.upto.T) / self.A
-        Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
-        f = np.asarray(darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel).f)
+    def pressures(self, Q, total, f=None):
+        """Header pressures (b, N) and the segments' friction factors; ``f`` given: those factors are used (the
+        Jacobian's columns, where re-evaluating the correlation for every column would cost N calls)."""
+        # channels at or left of each segment: a prefix of the channels, so a cumulative sum, not a product
+        cq = np.concatenate((np.zeros((Q.shape[0], 1)), np.cumsum(Q, axis=1)), axis=1)
+        V = self.sign * (total[:, None] * self.port_left[None, :] - cq[:, self.upto_count]) / self.A
+        if f is None:
+            Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
+            f = np.asarray(darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel).f)
         friction = f * self.dx / self.D_h * self.rho * V * np.abs(V) / 2.0
         zeros = np.zeros((V.shape[0], 1))
         V2 = np.concatenate((zeros, V, zeros), axis=1) ** 2
@@ -409,7 +415,7 @@ class _BatchHeader:
         right = np.cumsum(-friction[:, P:] - k * rho * (V2[:, P + 2:] - V2[:, P + 1:-1]) / 2.0, axis=1)
         left = np.cumsum((friction[:, :P] - k * rho * (V2[:, :P] - V2[:, 1:P + 1]) / 2.0)[:, ::-1], axis=1)[:, ::-1]
         p_far = np.concatenate((left, zeros, right), axis=1)
-        return p_far[:, self.channel_node]
+        return p_far[:, self.channel_node], f
 
 
 def solve_split_batch(length, depth, width, roughness, positions, inlet_port, outlet_port, dp_channels,
@@ -421,7 +427,9 @@ def solve_split_batch(length, depth, width, roughness, positions, inlet_port, ou
     groups them).  ``dp_channels(Q, rows)`` takes flows (b, N) [m^3/s] of the rows ``rows`` (indices into B) and returns each
     channel's drop (b, N) [Pa];
     ``total_flow``, ``rho``, ``mu`` arrays (B,).  The same equations, unknowns, scaling, finite-difference
-    Jacobian and backtracking as :func:`solve_split`, row by row, vectorised over the rows."""
+    backtracking as :func:`solve_split`, row by row, vectorised over the rows; the finite-difference Jacobian
+    holds the header segments' friction factors at the current iterate (one correlation call per iteration
+    instead of N + 1: a quasi-Newton step; the residual, and so the answer, is the exact one)."""
     y = np.asarray(positions, dtype=float)
     B, n = y.shape
     arr = lambda a: np.broadcast_to(np.asarray(a, dtype=float), (B,)).copy()  # noqa: E731
@@ -435,11 +443,13 @@ def solve_split_batch(length, depth, width, roughness, positions, inlet_port, ou
     ok = np.isfinite(p_scale[:, 0]) & (p_scale[:, 0] > 0)
     p_scale = np.where(ok[:, None], p_scale, 1.0)
 
-    def headers(x, rows):
+    def headers(x, rows, f=(None, None), with_f=False):
         Q, dP = x[:, :n] * q_mean[rows], x[:, n:] * p_scale[rows]
-        loops = (_sub(inlet, rows).pressures(Q, total[rows]) - _sub(outlet, rows).pressures(Q, total[rows])
-                 + dP) / p_scale[rows]
-        return np.concatenate((loops, np.sum(x[:, :n], axis=1, keepdims=True) - n), axis=1)
+        p_in, f_in = _sub(inlet, rows).pressures(Q, total[rows], f[0])
+        p_out, f_out = _sub(outlet, rows).pressures(Q, total[rows], f[1])
+        out = np.concatenate(((p_in - p_out + dP) / p_scale[rows], np.sum(x[:, :n], axis=1, keepdims=True) - n),
+                             axis=1)
+        return (out, (f_in, f_out)) if with_f else out
 
     def channels(x, rows):
         return np.concatenate((dp_channels(x[:, :n] * q_mean[rows], rows) / p_scale[rows],
@@ -458,12 +468,15 @@ def solve_split_batch(length, depth, width, roughness, positions, inlet_port, ou
             break
         xa, ra = x[active], r[active]
         h = 1e-7 * np.maximum(1.0, np.abs(xa))
-        base_h, base_c = headers(xa, active), channels(xa, active)
-        J = np.empty((active.size, n + 1, n + 1))
-        for j in range(n + 1):
-            xp = xa.copy()
-            xp[:, j] += h[:, j]
-            J[:, :, j] = (headers(xp, active) - base_h) / h[:, j:j + 1]
+        (base_h, f_now), base_c = headers(xa, active, with_f=True), channels(xa, active)
+        frozen = headers(xa, active, f_now)
+        # every column at once: row b's N + 1 perturbed copies stacked along the batch axis
+        eye = np.eye(n + 1)
+        xp = (xa[:, None, :] + eye[None, :, :] * h[:, :, None]).reshape(-1, n + 1)
+        rep = np.repeat(active, n + 1)
+        f_rep = tuple(np.repeat(fk, n + 1, axis=0) for fk in f_now)
+        cols = headers(xp, rep, f_rep).reshape(active.size, n + 1, n + 1)    # [b, j, :] = column j
+        J = np.swapaxes((cols - frozen[:, None, :]) / h[:, :, None], 1, 2)
         xp = xa + h * (np.arange(n + 1) < n)
         diag = (channels(xp, active)[:, :n] - base_c[:, :n]) / h[:, :n]
         J[:, np.arange(n), np.arange(n)] -= diag

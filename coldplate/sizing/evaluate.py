@@ -60,6 +60,8 @@ from coldplate.sizing.proptable import PropertyTable
 TOP_MARGIN_K = 0.5
 #: Elements (geometries × flows × march points) of the local-coefficient arrays formed at once.
 LOCAL_BLOCK = 1 << 20
+#: Geometry-and-flow rows of one batched flow-split solve (its Jacobians are rows × (N + 1)² floats).
+SPLIT_BLOCK = 2048
 
 
 @dataclass(frozen=True)
@@ -224,8 +226,9 @@ class Evaluator:
             order = tuple(int(np.searchsorted(y, port, side)) for port in (passage.inlet_port, passage.outlet_port)
                           for side in ("left", "right"))
             keys.setdefault((int(c),) + order, []).append(i)
-        for (c, *_), rows in keys.items():
-            rows = np.asarray(rows)
+        blocks = [(c, np.asarray(rows[i:i + SPLIT_BLOCK])) for (c, *_), rows in keys.items()
+                  for i in range(0, len(rows), SPLIT_BLOCK)]
+        for c, rows in blocks:
             g, q = gg[rows], qq[rows]
             passages = [replace(d.passage, count=c, width=float(width[k]), depth=float(depth[k])) for k in g]
             y = np.array([channel_positions(p_, d.plate) for p_ in passages])
