@@ -63,12 +63,28 @@ class Split:
         return self.flows.min_to_mean
 
 
+#: Positions across the plate are rounded to this many decimals of a metre (a picometre): a port on a channel's
+#: centre line must meet it exactly, not 1e-18 m beside it (the network's node order would change with
+#: round-off, and with it the split).
+POSITION_DECIMALS = 12
+
+
+def snap(y):
+    """A position across the plate [m] rounded to :data:`POSITION_DECIMALS` (floats or arrays)."""
+    return np.round(y, POSITION_DECIMALS) + 0.0
+
+
+def port_offsets(passage) -> tuple[float, float]:
+    """The inlet and outlet ports' offsets [m], snapped like the channels' positions."""
+    return float(snap(passage.inlet_port)), float(snap(passage.outlet_port))
+
+
 def channel_positions(passage, plate) -> tuple[float, ...]:
     """Channel centres across the plate [m from the centre line], increasing: the walls between them and the two
-    outer walls of equal thickness (:func:`coldplate.plate.passages.channels.wall_thickness`)."""
+    outer walls of equal thickness (:func:`coldplate.plate.passages.channels.wall_thickness`), snapped."""
     t = channel_passage.wall_thickness(passage, plate)
     w = passage.width
-    return tuple(-0.5 * plate.width + t * (i + 1) + w * (i + 0.5) for i in range(passage.count))
+    return tuple(float(snap(-0.5 * plate.width + t * (i + 1) + w * (i + 0.5))) for i in range(passage.count))
 
 
 def channel_loss_coefficient(passage, plate) -> float:
@@ -83,8 +99,9 @@ def build_manifold(passage, plate, geom, pr, model, friction_length=None) -> Man
     header = Header(length=plate.width, depth=passage.header_depth, width=passage.plenum_length,
                     roughness=passage.roughness)
     drop = ChannelDrop(pr, geom, model, channel_loss_coefficient(passage, plate))
+    inlet_port, outlet_port = port_offsets(passage)
     return Manifold(header, header, channel_positions(passage, plate), (drop,) * passage.count,
-                    inlet_port=passage.inlet_port, outlet_port=passage.outlet_port, friction_length=friction_length)
+                    inlet_port=inlet_port, outlet_port=outlet_port, friction_length=friction_length)
 
 
 def solve_channel_split(passage, plate, geom, pr, model, flow: float) -> Split | None:

@@ -46,13 +46,13 @@ from hydraulics.manifold import solve_split_batch
 
 from coldplate.plate import conduction
 from coldplate.design.reader import Design
-from coldplate.design.errors import DesignError, SolveError
+from coldplate.design.errors import DesignError
 from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.plate.flow import passage_friction
-from coldplate.plate.split import channel_positions
+from coldplate.plate.split import channel_positions, port_offsets
 from coldplate.sizing.platetable import PlateTable
 from coldplate.sizing.proptable import PropertyTable
 
@@ -215,7 +215,10 @@ class Evaluator:
         drop = np.full((G, 1, Nq), np.nan)
         if d.passage.plenum_length <= 0:
             return share, drop
-        gg, qq = np.meshgrid(np.flatnonzero(count >= 2), np.flatnonzero(ok), indexing="ij")
+        wall = (d.plate.width - count * width) / (count + 1)
+        fits = (count >= 2) & np.isfinite(width) & np.isfinite(depth) & (width > 0) & (depth > 0) & (wall > 0)
+        share[~fits & (count >= 2)] = np.nan   # off the plate (a refinement's trial step): not solvable
+        gg, qq = np.meshgrid(np.flatnonzero(fits), np.flatnonzero(ok), indexing="ij")
         gg, qq = gg.ravel(), qq.ravel()
         if not gg.size:
             return share, drop
@@ -223,7 +226,7 @@ class Evaluator:
         for i, (g, c) in enumerate(zip(gg, count[gg])):
             passage = replace(d.passage, count=int(c), width=float(width[g]), depth=float(depth[g]))
             y = np.asarray(channel_positions(passage, d.plate))
-            order = tuple(int(np.searchsorted(y, port, side)) for port in (passage.inlet_port, passage.outlet_port)
+            order = tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
                           for side in ("left", "right"))
             keys.setdefault((int(c),) + order, []).append(i)
         blocks = [(c, np.asarray(rows[i:i + SPLIT_BLOCK])) for (c, *_), rows in keys.items()
@@ -248,10 +251,9 @@ class Evaluator:
 
             depth_h = np.full(rows.size, d.passage.plenum_depth) if d.passage.plenum_depth is not None else depth[g]
             both = [solve_split_batch(d.plate.width, depth_h, d.passage.plenum_length, d.passage.roughness, y,
-                                      d.passage.inlet_port, d.passage.outlet_port, dp_channels, mdot[q] / rho[q],
+                                      *port_offsets(d.passage), dp_channels, mdot[q] / rho[q],
                                       rho[q], mu[q], friction_length=fl) for fl in (None, math.inf)]
-            if not all(b.converged.all() for b in both):
-                raise SolveError("the flow split across the channels could not be solved for some candidates")
+            # a row without a split (not converged: NaN) is a candidate that cannot be solved, as in the check
             share[g, 0, q] = np.minimum(both[0].min_to_mean, both[1].min_to_mean)
             drop[g, 0, q] = np.maximum(both[0].port_to_port, both[1].port_to_port)
         return share, drop
