@@ -183,6 +183,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                      {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
                       "Bi": h_eff * d.plate.base / d.plate.conductivity}),)
     methods += tuple(_use(role, fn, values) for role, fn, values in back.methods)
+    methods += _split_methods(split)
     methods += (_use("dew point", psychro.dew_point,
                      {"T": d.room.temperature, "RH": d.room.relative_humidity}),)
 
@@ -220,6 +221,24 @@ def _split_pressure_parts(d, geom, pr, split, mean_losses):
     parts += [MinorLoss(HEADER_PARTS[0], p_inlet / dyn, V_i)] + inner + [MinorLoss(HEADER_PARTS[1], p_outlet / dyn, V_i)]
     parts += [ports[PORT_LOSSES[1]]] if PORT_LOSSES[1] in ports else []
     return friction_pressure_drop(float(fr_i.f), geom.path_length, geom.D_h, pr.rho, V_i), tuple(parts)
+
+
+def _split_methods(split) -> tuple[MethodUse, ...]:
+    """The header model and the headers' friction records, checked at the headers' largest Reynolds number; a
+    laminar record at most at the end of the laminar range, a turbulent one at least at the start of the
+    turbulent range (where the transition blend evaluates them, as in :func:`_methods`)."""
+    if split is None:
+        return ()
+    Re = max(max(split.flows.header_reynolds), max(split.drop.header_reynolds))
+    out = []
+    for v in dict.fromkeys(split.flows.methods + split.drop.methods):
+        laminar = any(b.variable == "Re" and b.high <= RE_LAMINAR_END for b in v.bounds)
+        at = min(Re, RE_LAMINAR_END) if laminar else max(Re, RE_TURBULENT_START)
+        used = {"Re": at} if any(b.variable == "Re" for b in v.bounds) else {}
+        out.append(MethodUse(role="flow split" if not v.bounds else "header friction", method=v.method,
+                             reference=v.reference, validity=v.describe(),
+                             values=tuple((k, float(x)) for k, x in used.items()), outside=v.violations(**used)))
+    return tuple(out)
 
 
 def _split_fields(split, flow) -> dict:
