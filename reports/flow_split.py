@@ -65,5 +65,5 @@ def split_section(r, u: DisplayUnits, figures) -> Section | None:
     )
     rows = tuple(Row(f"channel {i + 1}", u.fmt("flow", q, 4), f"{u.label('flow')}  ({100 * q / mean:.1f} % of the mean)")
                  for i, q in enumerate(r.channel_flows))
-    rows += (Row("least / mean", format_number(r.flow_split_min_to_mean), "", "flow_split_min_to_mean"),)
+    rows += (Row("least / mean", format_number(r.flow_split_min_to_mean), ""),)
     return Section("flow-split", "Flow split across the channels", paras, rows=rows, figures=figures)
