@@ -13,6 +13,7 @@ from functools import partial
 from coldplate.air.findings import RULES as AIR_RULES
 from coldplate.design.reader import Design, load_design
 from coldplate.findings.base import SEVERITIES, Finding
+from coldplate.findings.flow_split import RULES as FLOW_SPLIT_RULES
 from coldplate.findings.plate import RULES as PLATE_RULES
 from coldplate.findings.sources import RULES as SOURCE_RULES
 from coldplate.modules.findings import RULES as MODULE_RULES
@@ -21,7 +22,7 @@ from coldplate.plate.solve import solve_plate
 from coldplate.supply.findings import RULES as SUPPLY_RULES
 
 #: Every rule, in the order their findings are listed within one severity.
-RULES = PLATE_RULES + SOURCE_RULES + MODULE_RULES + SUPPLY_RULES + AIR_RULES
+RULES = PLATE_RULES + FLOW_SPLIT_RULES + SOURCE_RULES + MODULE_RULES + SUPPLY_RULES + AIR_RULES
 
 
 #: The plate models: "field" (the 3-D solve, default) and "network" (the fast resistance network).

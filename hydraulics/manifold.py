@@ -108,10 +108,11 @@ class Header:
 @dataclass(frozen=True)
 class LinearQuadraticChannel:
     """A channel whose drop is ``a Q + b Q |Q|`` [Pa]: a laminar (linear) part ``a`` [Pa s/m^3] and a quadratic
-    part ``b`` [Pa s^2/m^6] (minor losses, entry and exit).  Callable as ``dp(Q)``."""
+    part ``b`` [Pa s^2/m^6] (minor losses, entry and exit).  Callable as ``dp(Q)``, Q a float or an array."""
 
     a: float
     b: float = 0.0
+    takes_arrays = True
 
     def __call__(self, Q):
         Q = np.asarray(Q, dtype=float)
@@ -265,6 +266,10 @@ class _HeaderLine:
 
 
 def _drops(channels, Q):
+    """Each channel's drop at its flow [Pa]; one array call when every channel has the same drop function and it
+    says it takes arrays (an attribute ``takes_arrays`` that is true)."""
+    if getattr(channels[0], "takes_arrays", False) and all(dp is channels[0] for dp in channels):
+        return np.asarray(channels[0](np.asarray(Q, dtype=float)), dtype=float).reshape(-1)
     return np.array([float(dp(q)) for dp, q in zip(channels, Q)])
 
 
@@ -355,3 +360,164 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         header_reynolds=(Re_in, Re_out), iterations=iterations,
         residual=float(np.max(np.abs(p_in - p_out - drops))), methods=methods,
     )
+
+
+# ---------------------------------------------------------------- many manifolds at once (the sizing search)
+
+
+@dataclass(frozen=True)
+class BatchResult:
+    """The split of B manifolds: ``channel_flows`` (B, N) [m^3/s], ``min_to_mean`` (B,), ``port_to_port`` (B,)
+    [Pa], ``converged`` (B,) bool (False: no split found; the other values NaN there)."""
+
+    channel_flows: np.ndarray
+    min_to_mean: np.ndarray
+    port_to_port: np.ndarray
+    converged: np.ndarray
+
+
+class _BatchHeader:
+    """One header of B manifolds that share their node order (N channels, the port between the same two
+    channels or on the same one): the arrays of :class:`_HeaderLine` with a leading axis B."""
+
+    def __init__(self, length, depth, width, roughness, y, port, k, sign, rho, mu, friction_length):
+        B = y.shape[0]
+        line = _HeaderLine(Header(1.0, 1.0, 1.0), y[0], float(port[0]), k, sign, 1.0, 1.0, None)
+        self.channel_node, self.P = line.channel_node, line.port_node
+        self.port_left = line.port_left                                   # (S,): the shared order
+        self.upto_count = line.upto.sum(axis=1).astype(int)               # channels at or left of each segment
+        self.nodes = np.empty((B, line.nodes.size))
+        self.nodes[:, :] = np.nan
+        for b in range(B):
+            self.nodes[b] = np.union1d(y[b], [port[b]])
+        self.dx = np.diff(self.nodes, axis=1)
+        self.k, self.sign = k, sign
+        self.rho, self.mu = rho[:, None], mu[:, None]
+        self.D_h = hydraulic_diameter_rectangle(width, depth)[:, None]
+        self.alpha = aspect_ratio(width, depth)[:, None]
+        self.A = (depth * width)[:, None]
+        self.rel = (roughness / self.D_h[:, 0])[:, None]
+        self.L = (length if friction_length is None else np.full_like(length, friction_length))[:, None]
+
+    def pressures(self, Q, total, f=None):
+        """Header pressures (b, N) and the segments' friction factors; ``f`` given: those factors are used (the
+        Jacobian's columns, where re-evaluating the correlation for every column would cost N calls)."""
+        # channels at or left of each segment: a prefix of the channels, so a cumulative sum, not a product
+        cq = np.concatenate((np.zeros((Q.shape[0], 1)), np.cumsum(Q, axis=1)), axis=1)
+        V = self.sign * (total[:, None] * self.port_left[None, :] - cq[:, self.upto_count]) / self.A
+        if f is None:
+            Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
+            f = np.asarray(darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel).f)
+        friction = f * self.dx / self.D_h * self.rho * V * np.abs(V) / 2.0
+        zeros = np.zeros((V.shape[0], 1))
+        V2 = np.concatenate((zeros, V, zeros), axis=1) ** 2
+        P, k, rho = self.P, self.k, self.rho
+        right = np.cumsum(-friction[:, P:] - k * rho * (V2[:, P + 2:] - V2[:, P + 1:-1]) / 2.0, axis=1)
+        left = np.cumsum((friction[:, :P] - k * rho * (V2[:, :P] - V2[:, 1:P + 1]) / 2.0)[:, ::-1], axis=1)[:, ::-1]
+        p_far = np.concatenate((left, zeros, right), axis=1)
+        return p_far[:, self.channel_node], f
+
+
+def solve_split_batch(length, depth, width, roughness, positions, inlet_port, outlet_port, dp_channels,
+                      total_flow, rho, mu, friction_length=None, k_divide=K_DIVIDE, k_combine=K_COMBINE
+                      ) -> BatchResult:
+    """:func:`solve_split` for B manifolds at once whose inlet and outlet headers are alike (the same
+    ``length``, ``depth``, ``width``, ``roughness``, arrays (B,) [m]) and that share their node order:
+    ``positions`` (B, N) increasing [m], the ports (B,) [m] between the same channels in every row (the caller
+    groups them).  ``dp_channels(Q, rows)`` takes flows (b, N) [m^3/s] of the rows ``rows`` (indices into B) and returns each
+    channel's drop (b, N) [Pa];
+    ``total_flow``, ``rho``, ``mu`` arrays (B,).  The same equations, unknowns, scaling, finite-difference
+    backtracking as :func:`solve_split`, row by row, vectorised over the rows; the finite-difference Jacobian
+    holds the header segments' friction factors at the current iterate (one correlation call per iteration
+    instead of N + 1: a quasi-Newton step; the residual, and so the answer, is the exact one)."""
+    y = np.asarray(positions, dtype=float)
+    B, n = y.shape
+    arr = lambda a: np.broadcast_to(np.asarray(a, dtype=float), (B,)).copy()  # noqa: E731
+    length, depth, width, roughness, total, rho, mu = map(arr, (length, depth, width, roughness, total_flow, rho, mu))
+    inlet = _BatchHeader(length, depth, width, roughness, y, arr(inlet_port), k_divide, +1.0, rho, mu,
+                         friction_length)
+    outlet = _BatchHeader(length, depth, width, roughness, y, arr(outlet_port), k_combine, -1.0, rho, mu,
+                          friction_length)
+    q_mean = (total / n)[:, None]
+    p_scale = np.mean(np.abs(dp_channels(np.broadcast_to(q_mean, (B, n)).copy(), np.arange(B))), axis=1)[:, None]
+    ok = np.isfinite(p_scale[:, 0]) & (p_scale[:, 0] > 0)
+    p_scale = np.where(ok[:, None], p_scale, 1.0)
+
+    def headers(x, rows, f=(None, None), with_f=False):
+        Q, dP = x[:, :n] * q_mean[rows], x[:, n:] * p_scale[rows]
+        p_in, f_in = _sub(inlet, rows).pressures(Q, total[rows], f[0])
+        p_out, f_out = _sub(outlet, rows).pressures(Q, total[rows], f[1])
+        out = np.concatenate(((p_in - p_out + dP) / p_scale[rows], np.sum(x[:, :n], axis=1, keepdims=True) - n),
+                             axis=1)
+        return (out, (f_in, f_out)) if with_f else out
+
+    def channels(x, rows):
+        return np.concatenate((dp_channels(x[:, :n] * q_mean[rows], rows) / p_scale[rows],
+                               np.zeros((x.shape[0], 1))), axis=1)
+
+    x = np.ones((B, n + 1))
+    active = np.flatnonzero(ok)
+    r = np.zeros((B, n + 1))
+    if active.size:
+        r[active] = headers(x[active], active) - channels(x[active], active)
+    done = ~ok
+    for _ in range(MAX_ITERATIONS + 1):
+        conv = np.max(np.abs(r), axis=1) <= TOLERANCE
+        active = np.flatnonzero(~done & ~conv)
+        if not active.size:
+            break
+        xa, ra = x[active], r[active]
+        h = 1e-7 * np.maximum(1.0, np.abs(xa))
+        (base_h, f_now), base_c = headers(xa, active, with_f=True), channels(xa, active)
+        frozen = headers(xa, active, f_now)
+        # every column at once: row b's N + 1 perturbed copies stacked along the batch axis
+        eye = np.eye(n + 1)
+        xp = (xa[:, None, :] + eye[None, :, :] * h[:, :, None]).reshape(-1, n + 1)
+        rep = np.repeat(active, n + 1)
+        f_rep = tuple(np.repeat(fk, n + 1, axis=0) for fk in f_now)
+        cols = headers(xp, rep, f_rep).reshape(active.size, n + 1, n + 1)    # [b, j, :] = column j
+        J = np.swapaxes((cols - frozen[:, None, :]) / h[:, :, None], 1, 2)
+        xp = xa + h * (np.arange(n + 1) < n)
+        diag = (channels(xp, active)[:, :n] - base_c[:, :n]) / h[:, :n]
+        J[:, np.arange(n), np.arange(n)] -= diag
+        try:
+            step = np.linalg.solve(J, -ra[..., None])[..., 0]
+        except np.linalg.LinAlgError:
+            step = np.stack([np.linalg.lstsq(Jb, -rb, rcond=None)[0] for Jb, rb in zip(J, ra)])
+        norm = np.linalg.norm(ra, axis=1)
+        t = np.ones(active.size)
+        accepted = np.zeros(active.size, dtype=bool)
+        while not accepted.all() and t.max() >= 1e-10:
+            trying = np.flatnonzero(~accepted & (t >= 1e-10))
+            trial = xa[trying] + t[trying, None] * step[trying]
+            pos = np.all(trial[:, :n] > 0, axis=1)
+            r_trial = np.full(trial.shape, np.inf)
+            if pos.any():
+                rows = active[trying[pos]]
+                r_trial[pos] = headers(trial[pos], rows) - channels(trial[pos], rows)
+            good = np.all(np.isfinite(r_trial), axis=1) & (np.linalg.norm(r_trial, axis=1)
+                                                           < norm[trying] * (1 - 1e-4 * t[trying]))
+            idx = trying[good]
+            x[active[idx]], r[active[idx]] = trial[good], r_trial[good]
+            accepted[idx] = True
+            t[trying[~good]] /= 2.0
+        stuck = active[~accepted]
+        at_round_off = np.max(np.abs(r[stuck]), axis=1) < 1e3 * TOLERANCE if stuck.size else np.array([], bool)
+        r[stuck[at_round_off]] = 0.0          # at round-off already: converged
+        done[stuck[~at_round_off]] = True     # no step lowers the residual: no split
+    conv = ~done & (np.max(np.abs(r), axis=1) <= TOLERANCE)
+    Q = x[:, :n] * q_mean
+    Q = Q * (total / np.sum(Q, axis=1))[:, None]
+    dP = x[:, n] * p_scale[:, 0]
+    nan = np.where(conv, 1.0, np.nan)
+    return BatchResult(channel_flows=Q * nan[:, None], min_to_mean=np.min(Q, axis=1) / np.mean(Q, axis=1) * nan,
+                       port_to_port=dP * nan, converged=conv)
+
+
+def _sub(header: _BatchHeader, rows) -> _BatchHeader:
+    """The header's rows ``rows`` (a view of the per-row arrays)."""
+    out = object.__new__(_BatchHeader)
+    out.__dict__.update(header.__dict__)
+    for name in ("dx", "rho", "mu", "D_h", "alpha", "A", "rel", "L"):
+        out.__dict__[name] = header.__dict__[name][rows]
+    return out

@@ -12,6 +12,7 @@ import hashlib
 import math
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
 from .air_report import air_section
+from .flow_split import split_section
 from .uncertainty import uncertainty_section
 from .optional_sections import (circuit_section, field_section, module_inputs, module_section, planning_section,
                                 source_rows)
@@ -27,7 +28,7 @@ STANDING_CAUTION = (
 
 #: Passage fields that are lengths (shown in the display length unit); other numbers are shown as they are.
 _LENGTH_FIELDS = {"width", "depth", "plenum_length", "port_diameter", "roughness", "inner_diameter",
-                  "outer_diameter", "bend_radius", "height"}
+                  "outer_diameter", "bend_radius", "height", "inlet_port", "outlet_port", "plenum_depth"}
 
 
 def finding_counts(findings) -> str:
@@ -233,6 +234,9 @@ def build_report(r, curve, fit, *, figures: dict, units: str = "si", version: st
                                                 "source's hottest point marked.")
                                       + fig("coolant", "Coolant temperature along the flow in each channel."),
                                       model_line(r, u)))
+    split = split_section(r, u, fig("flow_split", "Flow per channel with the mean and the 80 % line."))
+    if split is not None:
+        sections.append(split)
     module = r.module
     if module is not None:
         sections.append(module_section(module, u, fig("module", "Thermoelectric current sweep; coldest current marked.")))

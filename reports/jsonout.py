@@ -6,6 +6,7 @@ from __future__ import annotations
 
 import json
 
+from .flow_split import split_dict
 from .module_report import module_to_dict
 from .air_report import air_to_dict
 from .supply import supply_dict
@@ -63,6 +64,7 @@ def result_to_dict(r, version: str = "") -> dict:
                      for f in r.findings],
         **supply_dict(r),
         **sources_dict(r),
+        **split_dict(r),  # the flow split across channels (nulls without one)
     }
 
 

@@ -61,6 +61,8 @@ def draw_figures(r, curve, fit, face, units: str = "si") -> dict[str, str]:
         figs["air"] = plots.draw(plots.air_sink, air, u, name="air")
     if r.uncertainty is not None and r.uncertainty.sensitivity:
         figs["tornado"] = plots.draw(plots.tornado, r.uncertainty, u, name="tornado")
+    if getattr(r, "channel_flows", ()):  # the flow split across channels
+        figs["flow_split"] = plots.draw(plots.channel_flows, r, u, name="flow_split")
     return figs
 
 

@@ -451,3 +451,30 @@ def tornado(band, u: DisplayUnits) -> Figure:
     ax.set_title(f"What drives the hottest face: {band.confidence * 100:g} % band, {band.samples} samples", loc="left")
     ax.legend(loc="lower right", fontsize=7)
     return fig
+
+
+# ------------------------------------------------------------------ flow split across channels
+
+
+def channel_flows(result, u: DisplayUnits) -> Figure:
+    """Bars: the flow in each channel (counted from the right of the flow), the mean and 80 % of the mean (a
+    common design aim, common practice); the least-fed channel drawn in the warning colour."""
+    q = u.value("flow", np.asarray(result.channel_flows, dtype=float))
+    mean = float(np.mean(q))
+    low = int(np.argmin(q))
+    fig, (ax,) = _figure(3.0)
+    x = np.arange(1, q.size + 1)
+    colours = [VERMILION if i == low else BLUE for i in range(q.size)]
+    ax.bar(x, q, color=colours, width=0.7, label="flow in the channel")
+    ax.axhline(mean, color=BLACK, linestyle="--", label="mean")
+    ax.axhline(0.8 * mean, color=ORANGE, linestyle=":", label="80 % of the mean")
+    ax.set_xlabel("channel (counted from the right of the flow)")
+    ax.set_ylabel(f"flow [{u.label('flow')}]")
+    ax.set_title(f"Flow per channel: least {100 * result.flow_split_min_to_mean:.1f} % of the mean "
+                 f"(ports {result.port_arrangement})", loc="left")
+    ax.set_ylim(0.0, max(float(np.max(q)), mean) * 1.15)
+    if q.size <= 30:
+        ax.set_xticks(x)
+    ax.grid(axis="x", visible=False)
+    ax.legend(loc="center left", bbox_to_anchor=(1.0, 0.5), fontsize=8)
+    return fig

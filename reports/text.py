@@ -7,6 +7,7 @@ from __future__ import annotations
 import textwrap
 
 from .display_units import DisplayUnits, annotate, exact_values, format_number, passage_line
+from .flow_split import split_rows
 from .module_report import module_text
 from .air_report import air_text
 from .supply import supply_lines
@@ -103,6 +104,7 @@ def render_text(r, version: str = "", units: str = "si") -> str:
          f"{u.label('heat_transfer_coefficient')}  length mean; {v('heat_transfer_coefficient', r.h_hot)} at the "
          "hottest point"),
     ]
+    rows += split_rows(r, u)  # the flow split across channels (none without one)
     if r.eta_fin is not None:
         rows.append(("fin efficiency of walls", f"{r.eta_fin:.3f}", ""))
     if d.supply.once_through:

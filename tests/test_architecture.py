@@ -26,7 +26,7 @@ LAYERS = (
                                "coldplate.design.fields", "coldplate.design.catalogue")),
     (2, "plate", ("coldplate.plate",)),
     (2, "finding record", ("coldplate.findings.base",)),
-    (3, "plate findings", ("coldplate.findings.plate", "coldplate.findings.sources")),
+    (3, "plate findings", ("coldplate.findings.plate", "coldplate.findings.sources", "coldplate.findings.flow_split")),
     (3, "modules", ("coldplate.modules",)),
     (3, "supply", ("coldplate.supply",)),
     (3, "air", ("coldplate.air",)),

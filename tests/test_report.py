@@ -128,6 +128,11 @@ def test_html_parses_and_has_every_section(reports):
             assert "uncertainty" in page.sections
         else:
             assert "uncertainty" not in page.sections
+        if r.channel_flows:  # the flow split across channels: its section and its figure
+            expected.add("fig-flow_split")
+            assert "flow-split" in page.sections
+        else:
+            assert "flow-split" not in page.sections
         assert set(page.figures) == expected, name
         assert text.startswith("<!DOCTYPE html>")
 
@@ -312,8 +317,9 @@ def test_markdown_report_and_its_figures(tmp_path):
     assert main(["report", str(source), "-o", str(out)]) == 0
     text = out.read_text(encoding="utf-8")
     links = re.findall(r"!\[[^\]]*\]\(([^)]+)\)", text)
+    # and the flow split across its channels
     assert set(links) == {"plate.plate.svg", "plate.breakdown.svg", "plate.profile.svg", "plate.flow.svg",
-                          "plate.water.svg"}
+                          "plate.water.svg", "plate.flow_split.svg"}
     for link in links:
         root = ET.parse(tmp_path / link).getroot()
         assert root.tag == SVG_NS + "svg" and len(root.findall(f".//{SVG_NS}path")) > 50

@@ -54,6 +54,10 @@ RANGES: dict[str, Bound] = dict((
     _b("[passage] height", 5e-5, 0.1),
     _b("[passage] plenum_length", 0.0, 1.0),
     _b("[passage] port_diameter", 2e-4, 0.1),
+    # the ports' offsets across the plate (the plate's own edge is the reader's limit) and the plenums' depth
+    _b("[passage] inlet_port", -1.0, 1.0),
+    _b("[passage] outlet_port", -1.0, 1.0),
+    _b("[passage] plenum_depth", 5e-5, 0.1, low_open=True),
     _b("[passage] roughness", 0.0, 1e-3),
     _b("[passage] inner_diameter", 5e-4, 0.1),
     _b("[passage] outer_diameter", 5e-4, 0.1),

@@ -63,6 +63,16 @@ class Channels:
     port_diameter: float | None  #: [m]
     roughness: float  #: absolute [m]
     kind: str = "channels"
+    #: the ports' offsets across from the plate's centre line [m], positive on the left of the flow (the
+    #: drawing in coldplate/plate/sources.py); 0 = centred
+    inlet_port: float = 0.0
+    outlet_port: float = 0.0
+    plenum_depth: float | None = None  #: [m]; None = the channel depth
+
+    @property
+    def header_depth(self) -> float:
+        """The plenums' depth normal to the plate [m] (the channel depth unless ``plenum_depth`` is given)."""
+        return self.depth if self.plenum_depth is None else self.plenum_depth
 
 
 @dataclass(frozen=True)
@@ -200,7 +210,8 @@ KEYS = {
     "correlations": ("laminar", "turbulent", "segments"),
 }
 PASSAGE_KEYS = {
-    "channels": ("kind", "count", "width", "depth", "plenum_length", "port_diameter", "roughness"),
+    "channels": ("kind", "count", "width", "depth", "plenum_length", "port_diameter", "roughness", "inlet_port",
+                 "outlet_port", "plenum_depth"),
     "tube": ("kind", "inner_diameter", "outer_diameter", "passes", "bend_radius", "material", "bond", "roughness"),
     "cavity": ("kind", "height", "port_diameter", "roughness"),
 }
@@ -371,6 +382,16 @@ def _interface(t: Table) -> Interface:
     return Interface(th / k, f"{th * 1e3:.3g} mm at {k:.3g} W/(m K)")
 
 
+def _port_offset(t: Table, key: str, plate: Plate, diameter: float | None) -> float:
+    """A port's offset across from the centre line [m]: the whole port on the plate (its centre when no
+    diameter is given)."""
+    half = 0.5 * plate.width - 0.5 * (diameter or 0.0)
+    if half < 0:
+        raise DesignError(t.field("port_diameter"), "is wider than the plate")
+    return t.value(key, "length", required=False, default=0.0, low=-half, high=half, low_inclusive=True,
+                   why="the plate's edge (half its width less half the port's diameter, either side)")
+
+
 def _passage(t: Table, plate: Plate, searches_passes: bool = False):
     kind = t.choice("kind", PASSAGE_KINDS)
     t.keys = PASSAGE_KEYS[kind]
@@ -387,8 +408,14 @@ def _passage(t: Table, plate: Plate, searches_passes: bool = False):
                                                 f"{plate.width * 1e3:.4g} mm with a wall between them")
         if plate.length - 2 * plen <= 0:
             raise DesignError(t.field("plenum_length"), "two plenums leave no length for the channels")
+        plen_depth = t.value("plenum_depth", "length", required=False)
+        ports = [_port_offset(t, key, plate, port) for key in ("inlet_port", "outlet_port")]
+        if plen == 0 and (plen_depth is not None or any(ports)):
+            key = "plenum_depth" if plen_depth is not None else ("inlet_port" if ports[0] else "outlet_port")
+            raise DesignError(t.field(key), "needs a plenum: give plenum_length above zero")
         t.finish()
-        return Channels(count, w, d, plen, port, rough)
+        return Channels(count, w, d, plen, port, rough, inlet_port=ports[0], outlet_port=ports[1],
+                        plenum_depth=plen_depth)
     if kind == "tube":
         di = t.value("inner_diameter", "length")
         do = t.value("outer_diameter", "length")

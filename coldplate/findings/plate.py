@@ -184,6 +184,10 @@ def fastest_water(r) -> tuple[float, str]:
     """The highest velocity anywhere in the plate [m/s] and where: the passage, or a port or plenum minor loss
     (each minor loss carries the velocity it refers to; a channel plate's ports are its narrowest section)."""
     where, v = "passage", r.velocity
+    if r.channel_flows:  # a split channel plate: r.velocity is the least-fed channel's; the fastest channel's
+        fastest = max(r.channel_flows) * r.m_dot / (r.V_dot * r.props.rho) / r.geometry.flow_area
+        if fastest > v:
+            where, v = "the fastest channel", fastest
     for m in r.minor_losses:
         if m.velocity > v:
             where, v = m.name, m.velocity

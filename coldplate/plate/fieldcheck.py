@@ -11,7 +11,8 @@ changes is the plate:
   the distance from the channel's entry), the channels over the cooled length only (``geometry.cooled_offset``
   from each end): over the plenums the plate is base alone with no cooling (the plenum's water would cool it:
   a hotter face).  The wall tips and the channel roofs are adiabatic (the lid unheated, as in the network).
-  ``channel_flows`` [m³/s per channel, at inlet conditions] gives each channel its own Re, h(x) and m·cp;
+  ``channel_flows`` [m³/s per channel, at inlet conditions] gives each channel its own Re, h(x) and m·cp
+  (by default the flow split the operating point solved through the plenums, where the design has plenums);
   without it the flow is shared equally.
 - **tube**: each pass a lane under the base along the whole plate length, the groove's footprint (the tube's
   outer diameter) passing heat through the bond, the tube wall and the film in series, per metre of tube as
@@ -156,6 +157,10 @@ def solve_plate_field(design: Design, flow: float | None = None, load: float | N
     op = operating_point(d, flow, Q)
     if channel_flows is not None and d.passage.kind != "channels":
         raise ValueError("channel_flows is for channel plates")
+    if channel_flows is None and op.split is not None:
+        # the flow split through the plenums (coldplate.plate.split): each channel its own flow, Re, h(x) and m cp,
+        # in the field's channel order (from y < 0 to y > 0, as the split lists them)
+        channel_flows = op.result_fields()["channel_flows"]
     cooling, locals_, centres = COOLINGS[d.passage.kind](d, op, channel_flows)
     plate = F.FieldPlate(d.plate.length, d.plate.width, d.plate.base, d.plate.conductivity)
     sources = field_sources(d, Q)

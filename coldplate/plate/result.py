@@ -16,6 +16,7 @@ from coldplate.plate.passages.base import Geometry
 if TYPE_CHECKING:  # annotations only: the plate's result knows the other stages' results by name
     from coldplate.plate.field import FieldResult
     from coldplate.plate.sources import Source
+    from coldplate.plate.split import Split
     from coldplate.design.reader import Design
     from coldplate.findings.base import Finding
     from coldplate.modules.result import ModuleResult
@@ -124,3 +125,9 @@ class Result:
     air: AirResult | None = None  #: the air-cooled alternative beside this design (from [air]; coldplate.air)
     uncertainty: Uncertainty | None = None  #: the band of the headline numbers ([uncertainty]; set by
     #: coldplate.uncertainty.run after the check, never by the check itself)
+    # the flow split across a channel plate's channels (coldplate.plate.split); empty / None without one
+    channel_flows: tuple[float, ...] = ()  #: per channel, across the plate from y < 0 to y > 0 [m^3/s, inlet]
+    flow_split_min_to_mean: float | None = None  #: least channel flow over the mean [-]
+    header_pressure_drop: tuple[float, float] | None = None  #: largest pressure change along (inlet, outlet) [Pa]
+    port_arrangement: str | None = None  #: "U", "Z" or "centred" (hydraulics.manifold.Manifold.arrangement)
+    flow_split: Split | None = None  #: the solved split (both header solves' ManifoldResult)

@@ -32,16 +32,18 @@ import numpy as np
 from hydraulics.coolant import StateError as _CoolantStateError
 from hydraulics.coolant import SATURATION_MARGIN_K, enthalpy
 from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START
-from hydraulics.friction import darcy_friction
-from hydraulics.losses import total_pressure_drop
+from hydraulics.losses import MinorLoss, total_pressure_drop
 
 from coldplate.plate import conduction, psychro
-from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt, nusselt_local
+from coldplate.plate.convection import LAMINAR_LOCAL_FORMS, Nu_Muzychka_Yovanovich_local, nusselt_local
+from coldplate.plate.flow import friction_pressure_drop, passage_flow  # noqa: F401  (the sizing evaluator imports them here)
 from coldplate.design.errors import DesignError, SolveError
 from coldplate.plate.passages import PASSAGES
 from coldplate.plate.passages.base import BackSide, Geometry
 from coldplate.plate.result import MethodUse, Profile, Result, SourceOutcome
 from hydraulics.coolant import Props
+from coldplate.plate.passages.channels import PORT_LOSSES
+from coldplate.plate.split import least_fed_loop, solve_channel_split
 
 if TYPE_CHECKING:
     from coldplate.design.reader import Design
@@ -51,6 +53,8 @@ MAX_ITERATIONS = 60
 GRID_PER_SEGMENT = 1
 PROFILE_EVERY = 1
 TOLERANCE_K = 1e-5
+#: The names of the header parts in a split channel plate's pressure breakdown (Result.minor_losses).
+HEADER_PARTS = ("inlet header to the least-fed channel", "outlet header from the least-fed channel")
 
 
 def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:
@@ -67,6 +71,9 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     geom, module, T_in, T_out, pr, cv, h, back = op.geom, op.module, op.T_in, op.T_out, op.props, op.cv, op.h, op.back
     Re, mu_ratio = op.Re, op.mu_ratio
     A_fp = d.heat.footprint_length * d.heat.footprint_width
+
+    # the flow split (channel plates): the least-fed channel's coolant rises by the mean rise over its share
+    rise_scale = 1.0 / op.split.min_to_mean if op.split is not None else 1.0
 
     # --- the plate: spreading with the mean back side smeared over the cooled length, then the march with the
     # local coefficient and the local bulk temperature at each point
@@ -93,7 +100,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
                                                spread.cooled_flux_centreline(xg), r_x, r_mean)
     frac = (np.asarray(spread.absorbed_fraction(xf)) if geom.single_pass else np.ones_like(xf))
-    T_bulk_f = T_in + (T_out - T_in) * frac
+    T_bulk_f = T_in + (T_out - T_in) * rise_scale * frac
     T_top_f = T_bulk_f + Q * local_rise(spread.top_rise_centreline(xf), np.interp(xf, xg, delta))
     on_grid = np.searchsorted(xf, xg[::PROFILE_EVERY])  # the profile: points of the grid (all in xf)
     x_prof, T_bulk, T_top = xf[on_grid], T_bulk_f[on_grid], T_top_f[on_grid]
@@ -193,6 +200,7 @@ class OperatingPoint:
     losses: tuple
     T_dew: float
     dew_kind: str
+    split: object = None  #: the flow split across a channel plate's channels (coldplate.plate.split), or None
 
     def result_fields(self) -> dict:
         """The Result fields both plate models take from here as they are."""
@@ -205,7 +213,8 @@ class OperatingPoint:
             eta_fin=self.back.eta_fin, wetted_area=self.back.wetted_area, V_dot=self.flow, m_dot=self.m_dot,
             line_pressure=d.supply.line_pressure, T_boil=self.T_boil, T_dew=self.T_dew, dew_kind=self.dew_kind,
             water_use_L_per_day=litres_per_day,
-            water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0, iterations=self.iterations)
+            water_use_m3_per_year=litres_per_day * d.supply.days_per_year / 1000.0, iterations=self.iterations,
+            **_split_fields(self.split, self.flow))
 
     def methods(self, local_methods=None, spreading=()) -> tuple[MethodUse, ...]:
         """The range checks of the methods used: friction and convection (``local_methods``: the local
@@ -217,6 +226,7 @@ class OperatingPoint:
                        Gz=Re * pr.Pr * geom.D_h / geom.heated_length)
         out += tuple(spreading)
         out += tuple(_use(role, fn, values) for role, fn, values in self.back.methods)
+        out += _split_methods(self.split)
         out += (_use("dew point", psychro.dew_point, {"T": d.room.temperature, "RH": d.room.relative_humidity}),)
         return out
 
@@ -264,36 +274,81 @@ def operating_point(design: Design, flow: float, Q: float) -> OperatingPoint:
                          f"(last change {change:.3g} K)")
     _check_outlet(T_out, T_boil, coolant, p)
 
-    losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
-    dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
+    # --- the flow split across a channel plate's channels: the least-fed channel sets the hot spot (its Re, h and
+    # the local march, every channel taken as that one), and its coolant rises by the mean over its flow
+    split = None
+    rise_scale = 1.0
+    if d.passage.kind == "channels":
+        split = solve_channel_split(d.passage, d.plate, geom, pr, d.model, m_dot / pr.rho)
+    if split is not None:
+        rise_scale = 1.0 / split.min_to_mean
+        q_least = float(np.min(split.flows.channel_flows))
+        V_mean = V
+        V, Re, fr, cv, h = passage_flow(pr.rho * q_least * geom.n_parallel, pr, total_area, geom.D_h, geom.alpha,
+                                        geom.shape, geom.path_length, geom.heated_length, geom.heated,
+                                        geom.rel_roughness, d.model, mu_ratio)
+        back = module.back_side(d.passage, d.plate, geom, h)
+
+    # --- pressure drop
+    if split is None:
+        losses = module.minor_losses(d.passage, d.plate, geom, V, Re, float(fr.f))
+        dp_f = friction_pressure_drop(float(fr.f), geom.path_length, geom.D_h, pr.rho, V)
+    else:
+        dp_f, losses = _split_pressure_parts(d, geom, pr, split, module.minor_losses(d.passage, d.plate, geom,
+                                                                                      V_mean, Re, float(fr.f)))
     dp = dp_f + total_pressure_drop(losses, pr.rho)
     T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
     return OperatingPoint(d, geom, module, flow, Q, T_in, T_out, T_boil, pr, m_dot, mu_ratio, V, Re, fr, cv, h,
-                          back, iteration, dp, dp_f, losses, T_dew, dew_kind)
+                          back, iteration, dp, dp_f, losses, T_dew, dew_kind, split)
 
 
-def passage_flow(m_dot, pr, total_area, D_h, alpha, shape, path_length, heated_length, heated, rel_roughness,
-                 model, mu_ratio=1.0):
-    """The passage at an operating point: velocity [m/s], Reynolds number, Darcy friction (FrictionResult),
-    Nusselt number (ConvectionResult) and heat transfer coefficient [W/(m² K)].
+def _split_pressure_parts(d, geom, pr, split, mean_losses):
+    """The pressure drop's parts through the least-fed channel's loop of the higher-drop split: that channel's
+    friction, and as minor losses the inlet port, the inlet header (port to the channel), the channel's
+    contraction and expansion at its own velocity, the outlet header and the outlet port.  They sum to the
+    port-to-port drop plus the ports' losses."""
+    m = split.drop
+    i, p_inlet, p_outlet = least_fed_loop(m)
+    q = float(m.channel_flows[i])
+    V_i, _, fr_i, _, _ = passage_flow(pr.rho * q, pr, geom.flow_area, geom.D_h, geom.alpha, geom.shape,
+                                      geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model)
+    dyn = 0.5 * pr.rho * V_i**2
+    ports = {loss.name: loss for loss in mean_losses if loss.name in PORT_LOSSES}
+    inner = [MinorLoss(loss.name, loss.K, V_i) for loss in mean_losses if loss.name not in PORT_LOSSES]
+    parts = ([ports[PORT_LOSSES[0]]] if PORT_LOSSES[0] in ports else [])
+    parts += [MinorLoss(HEADER_PARTS[0], p_inlet / dyn, V_i)] + inner + [MinorLoss(HEADER_PARTS[1], p_outlet / dyn, V_i)]
+    parts += [ports[PORT_LOSSES[1]]] if PORT_LOSSES[1] in ports else []
+    return friction_pressure_drop(float(fr_i.f), geom.path_length, geom.D_h, pr.rho, V_i), tuple(parts)
 
-    V = ṁ / (ρ A_total), Re = ρ V D_h / μ, h = Nu k / D_h.  ``pr`` has rho, mu, k, Pr; every argument may be a
-    float or a numpy array (the sizing evaluator passes arrays of candidates), ``model`` the design's
-    correlation choices.  The one formula for both the check and the sizing search.
-    """
-    V = m_dot / (pr.rho * total_area)
-    Re = pr.rho * V * D_h / pr.mu
-    fr = darcy_friction(Re, path_length, D_h, alpha, shape, rel_roughness)
-    cv = nusselt(Re, pr.Pr, heated_length, D_h, alpha, shape=shape, laminar=model.laminar,
-                 turbulent=model.turbulent, heated=heated, mu_ratio=mu_ratio, rel_roughness=rel_roughness)
-    h = cv.Nu * pr.k / D_h
-    return V, Re, fr, cv, h
+
+def _split_methods(split) -> tuple[MethodUse, ...]:
+    """The header model and the headers' friction records, checked at the headers' largest Reynolds number; a
+    laminar record at most at the end of the laminar range, a turbulent one at least at the start of the
+    turbulent range (where the transition blend evaluates them, as in :func:`_methods`)."""
+    if split is None:
+        return ()
+    Re = max(max(split.flows.header_reynolds), max(split.drop.header_reynolds))
+    out = []
+    for v in dict.fromkeys(split.flows.methods + split.drop.methods):
+        laminar = any(b.variable == "Re" and b.high <= RE_LAMINAR_END for b in v.bounds)
+        at = min(Re, RE_LAMINAR_END) if laminar else max(Re, RE_TURBULENT_START)
+        used = {"Re": at} if any(b.variable == "Re" for b in v.bounds) else {}
+        out.append(MethodUse(role="flow split" if not v.bounds else "header friction", method=v.method,
+                             reference=v.reference, validity=v.describe(),
+                             values=tuple((k, float(x)) for k, x in used.items()), outside=v.violations(**used)))
+    return tuple(out)
 
 
-def friction_pressure_drop(f, length, D_h, rho, V):
-    """Darcy-Weisbach: dp = f (L / D_h) ρ V² / 2 [Pa] (floats or arrays)."""
-    return f * length / D_h * 0.5 * rho * V**2
+def _split_fields(split, flow) -> dict:
+    """The Result's flow-split fields: channel flows at inlet conditions (summing to ``flow``), min over mean,
+    the header drops and the arrangement (empty without a split)."""
+    if split is None:
+        return {}
+    q = np.asarray(split.flows.channel_flows)
+    return dict(channel_flows=tuple(map(float, q * (flow / np.sum(q)))), flow_split_min_to_mean=split.min_to_mean,
+                header_pressure_drop=(split.drop.inlet_header_drop, split.drop.outlet_header_drop),
+                port_arrangement=split.flows.arrangement, flow_split=split)
 
 
 def cooled_span(plate_length: float, offset: float, footprint_length: float) -> tuple[float, float]:
@@ -400,7 +455,13 @@ def _assumptions(d: Design) -> tuple[str, ...]:
         "the sides and the lid of the plate are adiabatic (no heat to room air)",
     ]
     if d.passage.kind == "channels":
-        out.append("flow is shared evenly between channels; the walls are fins with an adiabatic tip at the lid")
+        if d.passage.count > 1 and d.passage.plenum_length > 0:
+            out.append("the flow split between channels is solved through the plenums as headers (Bajura & Jones' "
+                       "momentum form); the hot spot takes every channel at the least-fed channel's flow and its "
+                       "coolant rise (the outlet and the water use stay on the total flow)")
+        elif d.passage.count > 1:
+            out.append("no plenum (plenum_length zero): flow is shared evenly between channels")
+        out.append("the walls are fins with an adiabatic tip at the lid")
         out.append("the plate over the plenums is given no cooling (the channels' conductance is smeared over the "
                    "channel length only)")
         if d.passage.port_diameter is None:

@@ -34,6 +34,7 @@ development machine; ``benchmarks/sizing.py``).  Tubes loop over geometries and 
 """
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, replace
 from types import SimpleNamespace
 
@@ -41,6 +42,7 @@ import numpy as np
 
 from hydraulics.coolant import enthalpy
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+from hydraulics.manifold import solve_split_batch
 
 from coldplate.plate import conduction
 from coldplate.design.reader import Design
@@ -49,6 +51,8 @@ from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
+from coldplate.plate.flow import passage_friction
+from coldplate.plate.split import channel_positions, port_offsets
 from coldplate.sizing.platetable import PlateTable
 from coldplate.sizing.proptable import PropertyTable
 
@@ -56,6 +60,8 @@ from coldplate.sizing.proptable import PropertyTable
 TOP_MARGIN_K = 0.5
 #: Elements (geometries × flows × march points) of the local-coefficient arrays formed at once.
 LOCAL_BLOCK = 1 << 20
+#: Geometry-and-flow rows of one batched flow-split solve (its Jacobians are rows × (N + 1)² floats).
+SPLIT_BLOCK = 2048
 
 
 @dataclass(frozen=True)
@@ -141,13 +147,17 @@ class Evaluator:
         alpha = aspect_ratio(w, dep)
         area = n * w * dep
         shape = (n.shape[0], 1, flow.size)
+        # the flow split per geometry and flow (the check's own header network): the least-fed channel sets the
+        # heat transfer and the coolant's rise, the port-to-port drop the pressure
+        share, port_to_port = self.splits(n.ravel(), w.ravel(), dep.ravel(), st)
+        m_heat = st.m_dot * share
         V, Re, f, h = (np.empty(shape) for _ in range(4))
         # the heated-wall arrangement follows each channel's shape: one call per arrangement
         heated = channel_passage.heated_walls(w, dep).ravel()
         for kind in np.unique(heated):
             rows = heated == kind
             V[rows], Re[rows], fr, _, h[rows] = passage_flow(
-                st.m_dot, pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
+                m_heat[rows], pr, area[rows], D_h[rows], alpha[rows], "rectangle", L, L, str(kind),
                 d.passage.roughness / D_h[rows], d.model)
             f[rows] = fr.f
         _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
@@ -170,12 +180,83 @@ class Evaluator:
                 _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), e(L), e(wall), d.plate.conductivity,
                                                            h_x)
                 r_x[rows - a] = (self.A_cool / (h_x * eff_x))[:, 0]
-            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], st.s[:, 0, :], r_x), -1, 1)
+            s_blk = np.broadcast_to(st.s / share, shape)[blk, 0, :]
+            R_plate[blk] = np.moveaxis(self.plate.rises(base, h_eff[blk, 0, :], s_blk, r_x), -1, 1)
         dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
         dyn = 0.5 * pr.rho * V**2
-        for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
-            dp = dp + K * ratio**2 * dyn
+        dyn_mean = 0.5 * pr.rho * (st.m_dot / (pr.rho * area))**2
+        split = np.isfinite(port_to_port)
+        dp = np.where(split, port_to_port, dp)
+        for name, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter,
+                                                                d.passage.plenum_depth):
+            if name in channel_passage.PORT_LOSSES:
+                dp = dp + K * ratio**2 * np.where(split, dyn_mean, dyn)
+            else:  # a channel's own loss: inside the port-to-port drop where there is a split
+                dp = dp + np.where(split, 0.0, K * ratio**2 * dyn)
         return self._finish(R_plate, dp, st, V, Re, (n.shape[0], base.size, flow.size))
+
+    def splits(self, count, width, depth, st):
+        """The flow split for each geometry (1-D arrays of length G) at each flow: the least channel flow over
+        the mean and the port-to-port drop [Pa], arrays (G, 1, Nq).  Share 1 and drop NaN where there is no
+        split (one channel, no plenum) or the coolant would boil.  The check's own header network
+        (:mod:`coldplate.plate.split`: its positions, headers and channel losses, the same friction through
+        ``passage_friction``), solved for every geometry and flow at once by
+        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
+        among the channels), both header-friction forms, the less even split and the higher drop kept."""
+        d = self.design
+        G = count.size
+        pr = st.pr
+        full = st.m_dot.shape
+        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
+        ok = np.broadcast_to(st.ok, full).ravel()
+        mdot = st.m_dot.ravel()
+        Nq = mdot.size
+        share = np.ones((G, 1, Nq))
+        drop = np.full((G, 1, Nq), np.nan)
+        if d.passage.plenum_length <= 0:
+            return share, drop
+        wall = (d.plate.width - count * width) / (count + 1)
+        fits = (count >= 2) & np.isfinite(width) & np.isfinite(depth) & (width > 0) & (depth > 0) & (wall > 0)
+        share[~fits & (count >= 2)] = np.nan   # off the plate (a refinement's trial step): not solvable
+        gg, qq = np.meshgrid(np.flatnonzero(fits), np.flatnonzero(ok), indexing="ij")
+        gg, qq = gg.ravel(), qq.ravel()
+        if not gg.size:
+            return share, drop
+        keys = {}
+        for i, (g, c) in enumerate(zip(gg, count[gg])):
+            passage = replace(d.passage, count=int(c), width=float(width[g]), depth=float(depth[g]))
+            y = np.asarray(channel_positions(passage, d.plate))
+            order = tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
+                          for side in ("left", "right"))
+            keys.setdefault((int(c),) + order, []).append(i)
+        blocks = [(c, np.asarray(rows[i:i + SPLIT_BLOCK])) for (c, *_), rows in keys.items()
+                  for i in range(0, len(rows), SPLIT_BLOCK)]
+        for c, rows in blocks:
+            g, q = gg[rows], qq[rows]
+            passages = [replace(d.passage, count=c, width=float(width[k]), depth=float(depth[k])) for k in g]
+            y = np.array([channel_positions(p_, d.plate) for p_ in passages])
+            w, dep = width[g][:, None], depth[g][:, None]
+            L = d.plate.length - 2.0 * d.passage.plenum_length
+            D_h, alpha = hydraulic_diameter_rectangle(w, dep), aspect_ratio(w, dep)
+            K = sum(np.asarray(Kc) * ratio**2 for name, Kc, ratio in channel_passage.loss_coefficients(
+                c, w, dep, d.plate.width, d.passage.port_diameter, d.passage.plenum_depth)
+                if name not in channel_passage.PORT_LOSSES)
+            props = SimpleNamespace(rho=rho[q][:, None], mu=mu[q][:, None])
+
+            def dp_channels(Q, r, w=w, dep=dep, D_h=D_h, alpha=alpha, K=K, props=props):
+                pr_r = SimpleNamespace(rho=props.rho[r], mu=props.mu[r])
+                V, _, fr = passage_friction(pr_r.rho * Q, pr_r, w[r] * dep[r], D_h[r], alpha[r], "rectangle", L,
+                                            d.passage.roughness / D_h[r])
+                return friction_pressure_drop(np.asarray(fr.f), L, D_h[r], pr_r.rho, V) + K[r] * 0.5 * pr_r.rho * V**2
+
+            depth_h = np.full(rows.size, d.passage.plenum_depth) if d.passage.plenum_depth is not None else depth[g]
+            both = [solve_split_batch(d.plate.width, depth_h, d.passage.plenum_length, d.passage.roughness, y,
+                                      *port_offsets(d.passage), dp_channels, mdot[q] / rho[q],
+                                      rho[q], mu[q], friction_length=fl) for fl in (None, math.inf)]
+            # a row without a split (not converged: NaN) is a candidate that cannot be solved, as in the check
+            share[g, 0, q] = np.minimum(both[0].min_to_mean, both[1].min_to_mean)
+            drop[g, 0, q] = np.maximum(both[0].port_to_port, both[1].port_to_port)
+        return share, drop
 
     # ---------------------------------------------------------------- tubes
 

@@ -95,14 +95,19 @@ def minor_losses(passage, plate, geom: Geometry, V: float, Re: float, fd: float)
     """Plenum-to-channel contraction and channel-to-plenum expansion; port losses if ports are given."""
     return tuple(MinorLoss(name, K, V * ratio)
                  for name, K, ratio in loss_coefficients(passage.count, passage.width, passage.depth, plate.width,
-                                                         passage.port_diameter))
+                                                         passage.port_diameter, passage.header_depth))
 
 
-def loss_coefficients(count, width, depth, plate_width, port_diameter):
+#: The names of the two port losses in :func:`loss_coefficients` (the rest belong to each channel).
+PORT_LOSSES = ("inlet port into plenum", "plenum into outlet port")
+
+
+def loss_coefficients(count, width, depth, plate_width, port_diameter, plenum_depth=None):
     """The channel field's minor losses in flow order as (name, K, velocity ratio) [-]: K refers to the
     channel velocity times the ratio.  Floats or numpy arrays for the sizes; ports only when a diameter is
-    given (``None`` or 0: none)."""
-    plenum_face = plate_width * depth
+    given (``None`` or 0: none).  The plenum's face is the plate width times the deeper of the channel and the
+    plenum (``plenum_depth``, None: the channel depth): the larger area ratio gives the larger K, cautious."""
+    plenum_face = plate_width * (depth if plenum_depth is None else np.maximum(depth, plenum_depth))
     channels = count * width * depth
     out = [("contraction into channels", K_sudden_contraction(plenum_face, channels), 1.0),
            ("expansion out of channels", K_sudden_expansion(channels, plenum_face), 1.0)]
