@@ -123,13 +123,21 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                                          {"c/a": c_cool / L_cool, "d/b": d.heat.footprint_width / d.plate.width,
                                           "Bi": h_eff * d.plate.base / d.plate.conductivity}),))
 
+    sources = network_sources(d, op, Q, L_cool, h_eff, T_face_max, x_hot)
+    hottest = max(sources, key=lambda s: s.face_max)
+    if len(sources) > 1 and hottest.face_max > T_face_max:
+        # several sources: the headline is the hottest source's cautious face (network_sources), and the
+        # breakdown names what the sources add over the stand-in's footprint, so the parts still sum to R_th
+        parts.append(("several sources (network, cautious)", (hottest.face_max - T_face_max) / Q))
+        T_face_max, x_hot = hottest.face_max, hottest.hottest_at[0]
+        R_th = (T_face_max - T_in) / Q
     result = Result(
         **op.result_fields(), R_th=R_th, resistances=tuple(parts), T_face_max=T_face_max,
         T_plate_max=T_plate_max, x_hot=x_hot, methods=methods,
         profile=Profile(tuple(map(float, x_prof + off)), tuple(map(float, T_bulk)), tuple(map(float, T_top))),
         assumptions=_assumptions(d), load=Q,
         Nu_hot=float(np.interp(xf[i_hot], xg, np.asarray(cv_x.Nu))), h_hot=float(np.interp(xf[i_hot], xg, h_x)),
-        model="network", sources=network_sources(d, op, Q, L_cool, h_eff, T_face_max, x_hot),
+        model="network", sources=sources,
     )
     return result
 
