@@ -6,9 +6,8 @@ Sources of the checks, named beside each: the project's output contract (issue 1
 the field's own arrays (the reports must show what the field solved, nothing else), and common practice for the
 2 K margin.  The field's physics itself is checked in tests/test_field.py.
 
-The field is not yet wired into the check on this branch: :func:`field_result` below is a STAND-IN for the wired
-check (``solve(design, model="field")``): the network result with the field solved at the plate's own mean
-coefficient ``Result.h`` put in its field slots.  Switch it to the real path at merge.
+:func:`field_result` is the check on the field model (``solve(design, model="field")``); ``solve`` in this file is
+the check on the network model (the model without a field), so each test says which model it reads.
 """
 from __future__ import annotations
 
@@ -23,7 +22,10 @@ from functools import lru_cache
 import numpy as np
 import pytest
 
-from coldplate.check import collect_findings, solve
+from functools import partial
+
+from coldplate.check import collect_findings
+from coldplate.check import solve as check_solve
 from coldplate.design.reader import design_from_dict
 from coldplate.plate.field import ChannelCooling, FieldPlate, FieldSource, solve_field
 from coldplate.plate.result import source_outcomes
@@ -36,22 +38,17 @@ import tomllib
 THREE = tomllib.loads((ROOT / "examples" / "three-sources-channels.toml").read_text())
 
 
+solve = partial(check_solve, model="network")
+
+
 def field_result(design):
-    """STAND-IN for the wired field check (see the module docstring): the field at the plate's mean h."""
-    r = solve(design)
-    d, p = design, design.passage
-    plate = FieldPlate(d.plate.length, d.plate.width, d.plate.base, d.plate.conductivity)
-    src = [FieldSource(s.name, s.load, s.size, s.at, s.interface) for s in d.sources]
-    fr = solve_field(plate, src, ChannelCooling(p.count, p.width, p.depth, r.m_dot, r.props.cp, r.T_in, r.h))
-    out = replace(r, model="field", field=fr, sources=source_outcomes(fr, d.sources),
-                  coupling=tuple(tuple(float(v) for v in row) for row in fr.coupling),
-                  grid_uncertainty=fr.grid_uncertainty, T_face_max=fr.hottest, R_th=fr.thermal_resistance)
-    return replace(out, findings=collect_findings(out))
+    """The check on the field model."""
+    return check_solve(design, model="field")
 
 
 @lru_cache(maxsize=None)
 def three():
-    """The three-source example through the stand-in (solved once for the module)."""
+    """The three-source example on the field model (solved once for the module)."""
     return field_result(design_from_dict(THREE))
 
 
@@ -92,11 +89,15 @@ def test_json_lists_every_source_with_its_own_figures():
 
 
 def test_json_of_the_network_has_no_field_figures():
-    # source: the project's output contract: the network gives no per-source figures and no grid uncertainty
-    j = check_to_dict(solve(design_from_dict(example_dict())))
+    # source: the project's output contract: the network gives its hottest face per source, no mean face, no
+    # coupling and no grid uncertainty
+    r = solve(design_from_dict(example_dict()))
+    j = check_to_dict(r)
     assert j["model"] == "network"
     assert j["grid_uncertainty_K"] is None
-    assert j["sources"] == [] and j["coupling_K_per_W"] == []
+    assert [s["name"] for s in j["sources"]] == ["heat"] and j["sources"][0]["face_mean_C"] is None
+    assert j["sources"][0]["face_max_C"] == pytest.approx(r.T_face_max - 273.15, abs=1e-9)
+    assert j["coupling_K_per_W"] == []
     assert "thermal_resistance_K_per_W" in j and "surface_temperature_max_C" in j
 
 
@@ -147,7 +148,7 @@ def _run(argv, monkeypatch, result):
     from coldplate import cli
     import coldplate.uncertainty.run
 
-    monkeypatch.setattr(coldplate.uncertainty.run, "check_file_with_band", lambda path, confidence=None: result)
+    monkeypatch.setattr(coldplate.uncertainty.run, "check_file_with_band", lambda path, confidence=None, **kw: result)
     return cli.main(argv)
 
 
@@ -177,7 +178,8 @@ def test_map_with_the_network_is_refused_in_one_line(tmp_path, capsys):
     from coldplate import cli
 
     out = tmp_path / "face.csv"
-    assert cli.main(["check", str(ROOT / "examples" / "reagent-block-channels.toml"), "--map", str(out)]) == 2
+    assert cli.main(["check", str(ROOT / "examples" / "reagent-block-channels.toml"), "--model", "network",
+                     "--map", str(out)]) == 2
     err = capsys.readouterr()
     assert err.out == ""
     assert err.err.count("\n") == 1 and err.err.startswith("coldplate: error: --map: ")
@@ -226,13 +228,14 @@ def test_a_source_within_2_K_of_its_limit_is_a_caution(below, near):
         assert f.severity == "caution" and "'sensor'" in f.message and "common practice" in f.message
 
 
-def test_the_network_judges_each_limit_at_the_plates_hottest_face():
-    # source: the project's rule: without per-source figures, the cautious side (the plate's hottest face)
+def test_the_network_judges_each_limit_at_its_cautious_estimate():
+    # source: the project's rule: the network's per-source figures are its cautious estimates, and say so
     data = dict(THREE, source=[dict(s) for s in THREE["source"]])
     r = solve(design_from_dict(data))
-    data["source"][2]["limit"] = f"{r.T_face_max - 273.15 - 1.0} degC"
+    data["source"][2]["limit"] = f"{r.sources[2].face_max - 273.15 - 1.0} degC"
     again = solve(design_from_dict(data))
-    assert "source-over-limit" in ids(again) and "network model's hottest" in " ".join(f.message for f in again.findings)
+    text = " ".join(f.message for f in again.findings)
+    assert "source-over-limit" in ids(again) and "network model's cautious estimate" in text
 
 
 def test_a_source_over_a_plenum_is_named_with_its_end():
@@ -376,9 +379,9 @@ def test_report_with_the_field_has_the_map_section_in_both_layouts(tmp_path, mon
     from coldplate import cli
 
     r = three()
-    monkeypatch.setattr(coldplate.check, "solve", lambda design: r)  # the stand-in's result
+    monkeypatch.setattr(coldplate.check, "solve", lambda design, **kw: r)  # the stand-in's result
     import coldplate.uncertainty.run
-    monkeypatch.setattr(coldplate.uncertainty.run, "solve", lambda design: r)  # the report's path to it
+    monkeypatch.setattr(coldplate.uncertainty.run, "solve", lambda design, **kw: r)  # the report's path to it
     src = ROOT / "examples" / "three-sources-channels.toml"
     assert cli.main(["report", str(src), "-o", str(tmp_path / "r.html")]) == 0
     html = (tmp_path / "r.html").read_text()

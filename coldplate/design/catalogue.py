@@ -67,6 +67,11 @@ FIELDS: dict[str, Field] = {
     "[passage] depth": _F("length", "depth of one channel"),
     "[passage] plenum_length": _F("length", "header at each end of the channels, along the flow"),
     "[passage] port_diameter": _F("length", "bore of the inlet and outlet ports"),
+    "[passage] inlet_port": _F("length", "inlet port's offset across from the centre line (+ on the left of the flow)"),
+    "[passage] outlet_port": _F("length", "outlet port's offset across from the centre line (+ on the left of the "
+                                          "flow)"),
+    "[passage] plenum_depth": _F("length", "depth of the plenums the channels start and end in (default: the "
+                                           "channel depth)"),
     "[passage] roughness": _F("length", "absolute wall roughness (default: machined metal or drawn tubing)"),
     "[passage] inner_diameter": _F("length", "tube bore"),
     "[passage] outer_diameter": _F("length", "tube outside diameter"),

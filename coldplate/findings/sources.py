@@ -32,10 +32,12 @@ def from_heat_table(d) -> bool:
 
 def _judged(r):
     """(name, hottest face [K], limit [K], how it was found) for every source with a limit.  The field gives
-    each source its own hottest face; the network gives one for the whole plate, which each source is judged
-    at (the cautious side: no source is hotter than the plate's hottest face)."""
+    each source its own hottest face; the network its cautious estimate per source
+    (``coldplate.plate.solve.network_sources``), or, without per-source figures, the plate's hottest face for
+    every source (the cautious side)."""
     if r.sources:
-        return [(s.name, s.face_max, s.limit, "") for s in r.sources if s.limit is not None]
+        how = " (the network model's cautious estimate)" if r.model == "network" and len(r.sources) > 1 else ""
+        return [(s.name, s.face_max, s.limit, how) for s in r.sources if s.limit is not None]
     return [(s.name, r.T_face_max, s.limit, " (the network model's hottest mounting face, taken for every source)")
             for s in r.design.sources if s.limit is not None]
 
@@ -110,14 +112,14 @@ def coupled(r):
 
 
 def network_smears(r):
-    """With several sources, the network model puts their total load on one footprint."""
+    """With several sources, the network model estimates each cautiously instead of placing it."""
     d = r.design
     if r.model == "network" and len(d.sources) > 1:
         yield Finding(
             "network-smears-sources", "note",
-            f"The network model puts the {len(d.sources)} sources' {amount(r.load)} W on one footprint around "
-            "them all: it gives no temperature per source, and a small hot source in it may run hotter than "
-            "the figures say.",
+            f"The network model does not place the {len(d.sources)} sources ({amount(r.load)} W): it estimates "
+            "each one cautiously (its own spreading, plus the most every other source puts anywhere on the face, "
+            "plus the water warmed upstream), so its figures can be well above the field's.",
             "Use the field model for each source's own hottest face, its margin and the coupling.")
 
 
