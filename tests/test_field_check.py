@@ -20,6 +20,7 @@ import numpy as np
 import pytest
 
 from coldplate.check import solve
+from coldplate.design.errors import SolveError
 from coldplate.design.reader import load_design, parse_design
 from coldplate.plate import conduction
 from coldplate.plate import field as F
@@ -159,9 +160,9 @@ def test_three_sources_through_the_check():
     assert len(r.coupling) == 3 and all(len(row) == 3 for row in r.coupling)
     assert sum(s.load for s in r.sources) == pytest.approx(85.0)
     n = solve(d, model="network")
-    # the network is cautious per source: never below its own stand-in and not below the field
+    # the network is cautious per source: not below the field; its headline is its hottest source
+    assert n.T_face_max == pytest.approx(max(a.face_max for a in n.sources), abs=1e-9)
     for a, b in zip(n.sources, r.sources):
-        assert a.face_max >= n.T_face_max - 1e-9
         assert a.face_max >= b.face_max - r.grid_uncertainty
 
 
@@ -203,12 +204,13 @@ def test_uniform_coefficient_reproduces_the_spreading_series_through_the_plate_d
 
 def test_channel_flows_give_each_channel_its_own_rise():
     # source: energy conservation per channel: a channel with less flow warms more; the total still equals
-    # the load (1e-6) and the equal split reproduces the default
+    # the load (1e-6); by default the field takes the plenums' own split (the flow split through the headers)
     d = load_design(Path(EXAMPLES[0]).parent / "reagent-block-channels.toml")
     n = d.passage.count
-    equal = solve_plate_field(d, channel_flows=[d.flow / n] * n, uncertainty=False)
     default = solve_plate_field(d, uncertainty=False)
-    assert equal.T_face_max == pytest.approx(default.T_face_max, abs=1e-9)
+    assert len(default.channel_flows) == n
+    given = solve_plate_field(d, channel_flows=default.channel_flows, uncertainty=False)
+    assert given.T_face_max == pytest.approx(default.T_face_max, abs=1e-9)
     flows = np.linspace(0.5, 1.5, n)
     flows *= d.flow / flows.sum()
     uneven = solve_plate_field(d, channel_flows=list(flows), uncertainty=False)
@@ -251,6 +253,7 @@ def test_random_placements_solve_to_finite_balanced_fields():
     from coldplate.plate.sources import Source
 
     rng = np.random.default_rng(13)
+    solved = capped = 0
     for name in ("reagent-block-channels.toml", "laser-mount-tube.toml", "detector-cavity-glycol.toml"):
         d = load_design(Path(EXAMPLES[0]).parent / name)
         L, W = d.plate.length, d.plate.width
@@ -269,10 +272,17 @@ def test_random_placements_solve_to_finite_balanced_fields():
                         break
             dd = replace(d, sources=tuple(placed))
             total = sum(s.load for s in placed)
-            r = solve_plate_field(dd, load=total, uncertainty=False)
+            try:
+                r = solve_plate_field(dd, load=total, uncertainty=False)
+            except SolveError as exc:  # the grid cap: refused in one line that points to the network model
+                assert "would need" in str(exc) and "--model network" in str(exc)
+                capped += 1
+                continue
+            solved += 1
             assert math.isfinite(r.T_face_max) and r.T_face_max > r.T_in
             assert r.field.heat_to_coolant == pytest.approx(total, rel=1e-6)
             assert r.T_face_max == pytest.approx(max(s.face_max for s in r.sources))
+    assert solved >= 7 and solved + capped == 9
 
 
 def test_model_option_of_the_command(capsys):
