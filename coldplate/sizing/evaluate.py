@@ -62,6 +62,13 @@ TOP_MARGIN_K = 0.5
 LOCAL_BLOCK = 1 << 20
 #: Geometry-and-flow rows of one batched flow-split solve (its Jacobians are rows × (N + 1)² floats).
 SPLIT_BLOCK = 2048
+#: Flow axes with at most this many solvable flows get the exact split at every flow (see ``Evaluator.splits``).
+SPLIT_EXACT_FLOWS = 3
+#: Going down the flow axis, the next node of the exact split is the first flow at most this fraction of the node
+#: above (measured against speed and caution: see DEVELOPERS.md "Sizing").
+SPLIT_NODE_RATIO = 0.5
+#: Round-off allowed when two nodes are compared for the monotonicity the interpolation relies on.
+MONOTONE_TOLERANCE = 1e-9
 
 
 @dataclass(frozen=True)
@@ -198,16 +205,24 @@ class Evaluator:
     def splits(self, count, width, depth, st):
         """The flow split for each geometry (1-D arrays of length G) at each flow: the least channel flow over
         the mean and the port-to-port drop [Pa], arrays (G, 1, Nq).  Share 1 and drop NaN where there is no
-        split (one channel, no plenum) or the coolant would boil.  The check's own header network
-        (:mod:`coldplate.plate.split`: its positions, headers and channel losses, the same friction through
-        ``passage_friction``), solved for every geometry and flow at once by
-        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
-        among the channels), both header-friction forms, the less even split and the higher drop kept."""
+        split (one channel, no plenum) or the coolant would boil.
+
+        Solved exactly (:meth:`_solve_splits`) only at the nodes of the flow axis (:func:`split_nodes`: the top
+        solvable flow, then every flow that is at most ``SPLIT_NODE_RATIO`` of the node above, and the lowest);
+        a flow between two nodes takes the share of the node ABOVE it and that node's drop scaled down by the
+        flow ratio to the first power.  Both err toward a hotter face and a higher pressure where, between the
+        nodes, the least-fed share does not rise with the flow (header momentum grows as Q², channel friction as
+        Q to Q^1.75, so the split gets less even as the flow rises) and the drop falls at least in proportion to
+        the flow (laminar friction ~Q, developing and turbulent flow and the headers faster, and a lower flow
+        runs warmer, thinner water).  Where two neighbouring nodes contradict either (a share that rises with
+        the flow, a drop that falls slower than the flow, an unsolved node) every flow between them is solved
+        exactly instead.  ``tests/test_sizing_evaluate.py`` checks both properties on fine flow axes over the
+        examples' geometries and that between nodes the evaluator is never cooler nor lower in pressure than the
+        check.  With few flows (at most ``SPLIT_EXACT_FLOWS``: refinement, the check's agreement tests) every
+        flow is a node."""
         d = self.design
         G = count.size
-        pr = st.pr
         full = st.m_dot.shape
-        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
         ok = np.broadcast_to(st.ok, full).ravel()
         mdot = st.m_dot.ravel()
         Nq = mdot.size
@@ -218,23 +233,65 @@ class Evaluator:
         wall = (d.plate.width - count * width) / (count + 1)
         fits = (count >= 2) & np.isfinite(width) & np.isfinite(depth) & (width > 0) & (depth > 0) & (wall > 0)
         share[~fits & (count >= 2)] = np.nan   # off the plate (a refinement's trial step): not solvable
-        gg, qq = np.meshgrid(np.flatnonzero(fits), np.flatnonzero(ok), indexing="ij")
-        gg, qq = gg.ravel(), qq.ravel()
-        if not gg.size:
+        g_fit = np.flatnonzero(fits)
+        if not g_fit.size or not ok.any():
             return share, drop
+        Qv = mdot / self.rho_in  # the volumetric flow at the inlet, the axis the nodes are taken on
+        nodes = split_nodes(Qv, ok)
+        self._solve_splits(count, width, depth, st, share, drop, *_pairs(g_fit, nodes))
+        if nodes.size == np.count_nonzero(ok):
+            return share, drop
+        # every solvable flow between two nodes (ascending by flow): the node above it, and the node below
+        order = np.flatnonzero(ok)[np.argsort(Qv[ok], kind="stable")]
+        is_node = np.isin(order, nodes)
+        pos, j = np.flatnonzero(is_node), np.arange(order.size)
+        above = order[pos[np.searchsorted(pos, j)]]  # the top and the lowest flow are nodes: both exist
+        below = order[pos[np.searchsorted(pos, j, side="right") - 1]]
+        between = ~is_node
+        q_b, up, lo = order[between], above[between], below[between]
+        sh_up, sh_lo = share[g_fit][:, 0, up], share[g_fit][:, 0, lo]
+        dr_up, dr_lo = drop[g_fit][:, 0, up], drop[g_fit][:, 0, lo]
+        ratio_nodes = Qv[lo] / Qv[up]
+        trusted = (np.isfinite(sh_up) & np.isfinite(sh_lo) & (sh_lo >= sh_up * (1.0 - MONOTONE_TOLERANCE))
+                   & np.isfinite(dr_up) & np.isfinite(dr_lo)
+                   & (dr_lo <= dr_up * ratio_nodes * (1.0 + MONOTONE_TOLERANCE)))
+        ratio = Qv[q_b] / Qv[up]
+        gi, qi = np.nonzero(trusted)
+        share[g_fit[gi], 0, q_b[qi]] = sh_up[gi, qi]
+        drop[g_fit[gi], 0, q_b[qi]] = dr_up[gi, qi] * ratio[qi]
+        gi, qi = np.nonzero(~trusted)  # the nodes contradict the assumptions here: exact
+        if gi.size:
+            self._solve_splits(count, width, depth, st, share, drop, g_fit[gi], q_b[qi])
+        return share, drop
+
+    def _solve_splits(self, count, width, depth, st, share, drop, gg, qq):
+        """The exact split for the geometry-and-flow pairs (gg, qq), written into ``share`` and ``drop`` (G, 1, Nq).
+        The check's own header network (:mod:`coldplate.plate.split`: its positions, headers and channel losses,
+        the same friction through ``passage_friction``), solved for every pair at once by
+        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
+        among the channels), both header-friction forms, the less even split and the higher drop kept."""
+        d = self.design
+        pr = st.pr
+        full = st.m_dot.shape
+        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
+        mdot = st.m_dot.ravel()
+        if not gg.size:
+            return
+        # the channel positions and where the ports fall among them, once per geometry (not per pair)
+        positions, key_of = {}, {}
+        for g in np.unique(gg):
+            passage = replace(d.passage, count=int(count[g]), width=float(width[g]), depth=float(depth[g]))
+            y = positions[g] = np.asarray(channel_positions(passage, d.plate))
+            key_of[g] = (int(count[g]),) + tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
+                                                 for side in ("left", "right"))
         keys = {}
-        for i, (g, c) in enumerate(zip(gg, count[gg])):
-            passage = replace(d.passage, count=int(c), width=float(width[g]), depth=float(depth[g]))
-            y = np.asarray(channel_positions(passage, d.plate))
-            order = tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
-                          for side in ("left", "right"))
-            keys.setdefault((int(c),) + order, []).append(i)
+        for i, g in enumerate(gg):
+            keys.setdefault(key_of[g], []).append(i)
         blocks = [(c, np.asarray(rows[i:i + SPLIT_BLOCK])) for (c, *_), rows in keys.items()
                   for i in range(0, len(rows), SPLIT_BLOCK)]
         for c, rows in blocks:
             g, q = gg[rows], qq[rows]
-            passages = [replace(d.passage, count=c, width=float(width[k]), depth=float(depth[k])) for k in g]
-            y = np.array([channel_positions(p_, d.plate) for p_ in passages])
+            y = np.array([positions[k] for k in g])
             w, dep = width[g][:, None], depth[g][:, None]
             L = d.plate.length - 2.0 * d.passage.plenum_length
             D_h, alpha = hydraulic_diameter_rectangle(w, dep), aspect_ratio(w, dep)
@@ -256,7 +313,30 @@ class Evaluator:
             # a row without a split (not converged: NaN) is a candidate that cannot be solved, as in the check
             share[g, 0, q] = np.minimum(both[0].min_to_mean, both[1].min_to_mean)
             drop[g, 0, q] = np.maximum(both[0].port_to_port, both[1].port_to_port)
-        return share, drop
+
+
+def split_nodes(flow, ok):
+    """Indices of the flows (1-D, [m^3/s]) at which :meth:`Evaluator.splits` solves the split exactly: every
+    solvable flow when there are at most ``SPLIT_EXACT_FLOWS`` of them; otherwise the top one, going down every
+    flow at most ``SPLIT_NODE_RATIO`` times the last node, and the lowest one (so every flow has a node above and
+    below it)."""
+    idx = np.flatnonzero(ok)
+    if idx.size <= SPLIT_EXACT_FLOWS:
+        return idx
+    idx = idx[np.argsort(flow[idx], kind="stable")]
+    nodes = [idx[-1]]
+    for j in idx[-2::-1]:
+        if flow[j] <= SPLIT_NODE_RATIO * flow[nodes[-1]]:
+            nodes.append(j)
+    if nodes[-1] != idx[0]:
+        nodes.append(idx[0])
+    return np.asarray(nodes[::-1])
+
+
+def _pairs(g, q):
+    gg, qq = np.meshgrid(g, q, indexing="ij")
+    return gg.ravel(), qq.ravel()
+
 
     # ---------------------------------------------------------------- tubes
 
