@@ -282,14 +282,13 @@ class Evaluator:
         # the blend and falls back)
         drop[g_fit[gi], 0, q_b[qi]] = dr_up[gi, qi] * ratio[qi]
         gi, qi = np.nonzero(~trusted)  # the nodes contradict the assumptions here: exact
-        self.split_counts = (g_fit.size * nodes.size, gi.size, int(blend.sum()))
         if gi.size:
             self._solve_splits(count, width, depth, st, (share, drop, most), g_fit[gi], q_b[qi])
         return share, drop
 
     def _solve_splits(self, count, width, depth, st, out, gg, qq):
-        """The exact split for the geometry-and-flow pairs (gg, qq), written into ``out``: the least and the
-        greatest channel flow over the mean and the port-to-port drop, arrays (G, 1, Nq).
+        """The exact split for the geometry-and-flow pairs (gg, qq), written into ``out``: the least channel
+        flow over the mean, the port-to-port drop and the greatest channel flow over the mean, arrays (G, 1, Nq).
         The check's own header network (:mod:`coldplate.plate.split`: its positions, headers and channel losses,
         the same friction through ``passage_friction``), solved for every pair at once by
         :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
@@ -342,29 +341,6 @@ class Evaluator:
                                          for b in both))
 
 
-def split_nodes(flow, ok):
-    """Indices of the flows (1-D, [m^3/s]) at which :meth:`Evaluator.splits` solves the split exactly: every
-    solvable flow when there are at most ``SPLIT_EXACT_FLOWS`` of them; otherwise the top one, going down every
-    flow at most ``SPLIT_NODE_RATIO`` times the last node, and the lowest one (so every flow has a node above and
-    below it)."""
-    idx = np.flatnonzero(ok)
-    if idx.size <= SPLIT_EXACT_FLOWS:
-        return idx
-    idx = idx[np.argsort(flow[idx], kind="stable")]
-    nodes = [idx[-1]]
-    for j in idx[-2::-1]:
-        if flow[j] <= SPLIT_NODE_RATIO * flow[nodes[-1]]:
-            nodes.append(j)
-    if nodes[-1] != idx[0]:
-        nodes.append(idx[0])
-    return np.asarray(nodes[::-1])
-
-
-def _pairs(g, q):
-    gg, qq = np.meshgrid(g, q, indexing="ij")
-    return gg.ravel(), qq.ravel()
-
-
     # ---------------------------------------------------------------- tubes
 
     def tubes(self, inner_diameter, passes, base, flow) -> Evaluation:
@@ -409,3 +385,26 @@ def _pairs(g, q):
                 R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_cool * (fixed + r_conv)), st.s,
                                                 self.A_cool * (fixed + r_conv_x), single_pass=geom.single_pass)
         return self._finish(R_plate, dp, st, V_all, Re_all, (G, Nt, Nq))
+
+
+def split_nodes(flow, ok):
+    """Indices of the flows (1-D, [m^3/s]) at which :meth:`Evaluator.splits` solves the split exactly: every
+    solvable flow when there are at most ``SPLIT_EXACT_FLOWS`` of them; otherwise the top one, going down every
+    flow at most ``SPLIT_NODE_RATIO`` times the last node, and the lowest one (so every flow has a node above and
+    below it)."""
+    idx = np.flatnonzero(ok)
+    if idx.size <= SPLIT_EXACT_FLOWS:
+        return idx
+    idx = idx[np.argsort(flow[idx], kind="stable")]
+    nodes = [idx[-1]]
+    for j in idx[-2::-1]:
+        if flow[j] <= SPLIT_NODE_RATIO * flow[nodes[-1]]:
+            nodes.append(j)
+    if nodes[-1] != idx[0]:
+        nodes.append(idx[0])
+    return np.asarray(nodes[::-1])
+
+
+def _pairs(g, q):
+    gg, qq = np.meshgrid(g, q, indexing="ij")
+    return gg.ravel(), qq.ravel()
