@@ -62,8 +62,10 @@ TOP_MARGIN_K = 0.5
 LOCAL_BLOCK = 1 << 20
 #: Geometry-and-flow rows of one batched flow-split solve (its Jacobians are rows × (N + 1)² floats).
 SPLIT_BLOCK = 2048
-#: Flow axes with at most this many solvable flows get the exact split at every flow (see ``Evaluator.splits``).
-SPLIT_EXACT_FLOWS = 3
+#: Flow axes with at most this many solvable flows get the exact split at every flow (see ``Evaluator.splits``):
+#: short axes are cheap, and on them a design that meets a limit to the last digit is still found
+#: (tests/test_sizing_search.py).
+SPLIT_EXACT_FLOWS = 8
 #: Going down the flow axis, the next node of the exact split is the first flow at most this fraction of the node
 #: above: 6 nodes on the sizing example's 59 flows (0.3 gave 4 nodes, about as fast in the whole search on the
 #: shared machine and more pessimistic; see DEVELOPERS.md "Sizing").
