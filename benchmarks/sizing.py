@@ -8,7 +8,10 @@ Reports, for a channel plate (the bundled reagent-block example's plate):
 * the vectorised evaluator on a structured grid (geometry x base x flow), cold (property and spreading tables
   built in the timed call) and warm, in candidates per second and as a ratio to solve_plate;
 * the evaluator with every candidate a different geometry (one base, one flow: the least structure);
-* a whole search of about 1e6 candidates including the limit counts and the Pareto filter (run_search).
+* a whole search of about 1e6 candidates including the limit counts and the Pareto filter (run_search);
+* the flow split alone (Evaluator.splits) on the laser-mount sizing example's flow axis (59 flows) for
+  ``--split-geometries`` of its geometries: solved at the nodes (the search's way) against at every flow, as a
+  ratio, and the largest share taken below the exact one and drop above it.
 
 Not a test: nothing here fails on time.  Figures are medians of --repeat runs in one process.
 """
@@ -33,6 +36,7 @@ from coldplate.sizing.search import read_search  # noqa: E402
 from coldplate.plate.solve import solve_plate  # noqa: E402
 
 EXAMPLE = ROOT / "examples" / "reagent-block-channels.toml"
+SPLIT_EXAMPLE = ROOT / "examples" / "laser-mount-sizing.toml"
 
 
 def _grid(n_target: int):
@@ -62,7 +66,12 @@ def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--candidates", type=int, default=1_000_000)
     ap.add_argument("--repeat", type=int, default=3)
+    ap.add_argument("--split-geometries", type=int, default=200)
+    ap.add_argument("--split-only", action="store_true", help="only the flow split's measurement")
     args = ap.parse_args()
+    _split_benchmark(args.split_geometries)
+    if args.split_only:
+        return
     data = load_data(EXAMPLE)
     design = design_from_dict(data)
 
@@ -116,6 +125,38 @@ def main() -> None:
     print(f"{label:<52} {whole:9.3f} {o.candidates / whole:14,.0f} {o.candidates / whole / rate_one:13,.0f}")
     print(f"\nsearch: {o.feasible:,} feasible, {len(o.pareto)} on the front; "
           f"spreading series evaluated {ev.plate.series_evaluations} times for the warm evaluator's tables")
+
+
+def _split_benchmark(n_geometries: int) -> None:
+    from coldplate.sizing import evaluate
+    data = load_data(SPLIT_EXAMPLE)
+    design = design_from_dict(data)
+    spec = read_search(data, design)
+    ev = Evaluator(design)
+    flow = spec.axes["flow"]
+    rng = np.random.default_rng(2)
+    n_all, w_all, d_all = (np.ravel(a) for a in np.meshgrid(spec.axes["count"], spec.axes["width"],
+                                                            spec.axes["depth"], indexing="ij"))
+    fits = (design.plate.width - n_all * w_all) / (n_all + 1) > 0.6e-3
+    pick = rng.choice(np.flatnonzero(fits), min(n_geometries, int(fits.sum())), replace=False)
+    n, w, d = n_all[pick], w_all[pick], d_all[pick]
+    st = ev.coolant(flow.reshape(1, 1, -1))
+    t0 = time.perf_counter()
+    share, drop = ev.splits(n, w, d, st)
+    t_nodes = time.perf_counter() - t0
+    exact_flows, evaluate.SPLIT_EXACT_FLOWS = evaluate.SPLIT_EXACT_FLOWS, 10**9
+    try:
+        t0 = time.perf_counter()
+        share_x, drop_x = ev.splits(n, w, d, st)
+        t_exact = time.perf_counter() - t0
+    finally:
+        evaluate.SPLIT_EXACT_FLOWS = exact_flows
+    nodes = evaluate.split_nodes(flow, np.asarray(st.ok).ravel())
+    print(f"flow split, {n.size} geometries of {SPLIT_EXAMPLE.name} x {flow.size} flows "
+          f"({nodes.size} nodes): every flow {t_exact:.2f} s, nodes {t_nodes:.2f} s, ratio {t_exact / t_nodes:.1f}")
+    print(f"  share below exact: max {np.nanmax(share_x - share):.4f}, never above: "
+          f"{np.nanmax(share - share_x):.2e}; drop above exact: max {np.nanmax(drop / drop_x) - 1:.1%}, "
+          f"least {np.nanmin(drop / drop_x) - 1:.2e}")
 
 
 if __name__ == "__main__":

@@ -37,7 +37,26 @@ from .helpers import EXAMPLES
 N_MUTANTS = int(os.environ.get("COLDPLATE_FUZZ", "300"))
 SEED = int(os.environ.get("COLDPLATE_FUZZ_SEED", "12"))
 
-BASES = {p.stem: tomllib.loads(p.read_text(encoding="utf-8")) for p in EXAMPLES}
+FUZZ_STEPS = 3  # each searched range of an example cut to this many values: `size` on every key form, CI-sized
+
+
+def _small_search(data: dict) -> dict:
+    """The example with its [search] ranges cut to FUZZ_STEPS values and its lists to their first FUZZ_STEPS
+    (the contract is what is fuzzed, not the search's reach: the sizing example's 825,705 candidates would run
+    for tens of seconds per mutant); every key and every form of value (range, list, limit) is kept."""
+    if "search" not in data:
+        return data
+    table = {}
+    for key, v in data["search"].items():
+        if isinstance(v, dict) and "from" in v and "to" in v:
+            v = dict(v, steps=min(v.get("steps", FUZZ_STEPS), FUZZ_STEPS))
+        elif isinstance(v, list):
+            v = v[:FUZZ_STEPS]
+        table[key] = v
+    return dict(data, search=table)
+
+
+BASES = {p.stem: _small_search(tomllib.loads(p.read_text(encoding="utf-8"))) for p in EXAMPLES}
 # two small searches of our own, so `size` is fuzzed on channels and on tubes (scenarios for the test only)
 BASES["reagent-block-sizing"] = dict(BASES["reagent-block-channels"], search={
     "count": [6, 10], "width": {"from": "1 mm", "to": "2.5 mm", "steps": 3}, "depth": ["4 mm", "6 mm"],

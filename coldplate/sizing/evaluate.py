@@ -41,7 +41,7 @@ from types import SimpleNamespace
 import numpy as np
 
 from hydraulics.coolant import enthalpy
-from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+from hydraulics.ducts import RE_LAMINAR_END, RE_TURBULENT_START, aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.manifold import solve_split_batch
 
 from coldplate.plate import conduction
@@ -62,6 +62,21 @@ TOP_MARGIN_K = 0.5
 LOCAL_BLOCK = 1 << 20
 #: Geometry-and-flow rows of one batched flow-split solve (its Jacobians are rows × (N + 1)² floats).
 SPLIT_BLOCK = 2048
+#: Flow axes with at most this many solvable flows get the exact split at every flow (see ``Evaluator.splits``):
+#: short axes are cheap, and on them a design that meets a limit to the last digit is still found
+#: (tests/test_sizing_search.py).
+SPLIT_EXACT_FLOWS = 8
+#: Going down the flow axis, the next node of the exact split is the first flow at most this fraction of the node
+#: above: 6 nodes on the sizing example's 59 flows (0.3 gave 4 nodes, about as fast in the whole search on the
+#: shared machine and more pessimistic; see DEVELOPERS.md "Sizing").
+SPLIT_NODE_RATIO = 0.5
+#: Round-off allowed when two nodes are compared for the monotonicity the interpolation relies on.
+MONOTONE_TOLERANCE = 1e-9
+#: Taken off the least-fed share between two nodes in the friction's blend: about three times the deepest dip
+#: below the lesser node measured on the examples' geometries at SPLIT_NODE_RATIO 0.5 (0.0082 on the laser-mount
+#: sizing example's, 0.0092 on the reagent block's; at 0.3 the dips reached 0.0205: a wider ratio needs a wider
+#: margin).  Held by tests/test_sizing_split_nodes.py.
+BLEND_SHARE_MARGIN = 0.03
 
 
 @dataclass(frozen=True)
@@ -198,16 +213,25 @@ class Evaluator:
     def splits(self, count, width, depth, st):
         """The flow split for each geometry (1-D arrays of length G) at each flow: the least channel flow over
         the mean and the port-to-port drop [Pa], arrays (G, 1, Nq).  Share 1 and drop NaN where there is no
-        split (one channel, no plenum) or the coolant would boil.  The check's own header network
-        (:mod:`coldplate.plate.split`: its positions, headers and channel losses, the same friction through
-        ``passage_friction``), solved for every geometry and flow at once by
-        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
-        among the channels), both header-friction forms, the less even split and the higher drop kept."""
+        split (one channel, no plenum) or the coolant would boil.
+
+        Solved exactly (:meth:`_solve_splits`) only at the nodes of the flow axis (:func:`split_nodes`: the top
+        solvable flow, then every flow that is at most ``SPLIT_NODE_RATIO`` of the node above, and the lowest);
+        a flow between two nodes takes the lesser of the two nodes' shares and the drop of the node above scaled
+        down by the flow ratio to the first power.  Why that errs toward a hotter face and a higher pressure
+        (measured on the examples' geometries, ``tests/test_sizing_split_nodes.py``): the drop falls at least in
+        proportion to the flow (laminar friction ~Q, developing and turbulent flow and the headers faster, and a
+        lower flow runs warmer, thinner water); the least-fed share mostly falls as the flow rises (header
+        momentum ~Q² against channel friction ~Q to Q^1.75) but rises at low flows where the headers' laminar
+        friction (~Q) leads (offset ports): a rise then a fall has its least at an end of the interval, so the
+        lesser node share bounds it.  Only in the friction's laminar-turbulent blend does the share dip between
+        its nodes (friction rising with Re evens the split, then turbulence ends it): there the lesser node share
+        is lowered by ``BLEND_SHARE_MARGIN``.  Where a node is unsolved or the drop falls slower than the flow
+        between two nodes, every flow between them is solved exactly.  With few flows (at most
+        ``SPLIT_EXACT_FLOWS``: refinement, single checks) every flow is a node."""
         d = self.design
         G = count.size
-        pr = st.pr
         full = st.m_dot.shape
-        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
         ok = np.broadcast_to(st.ok, full).ravel()
         mdot = st.m_dot.ravel()
         Nq = mdot.size
@@ -218,23 +242,84 @@ class Evaluator:
         wall = (d.plate.width - count * width) / (count + 1)
         fits = (count >= 2) & np.isfinite(width) & np.isfinite(depth) & (width > 0) & (depth > 0) & (wall > 0)
         share[~fits & (count >= 2)] = np.nan   # off the plate (a refinement's trial step): not solvable
-        gg, qq = np.meshgrid(np.flatnonzero(fits), np.flatnonzero(ok), indexing="ij")
-        gg, qq = gg.ravel(), qq.ravel()
-        if not gg.size:
+        g_fit = np.flatnonzero(fits)
+        if not g_fit.size or not ok.any():
             return share, drop
+        Qv = mdot / self.rho_in  # the volumetric flow at the inlet, the axis the nodes are taken on
+        nodes = split_nodes(Qv, ok)
+        most = np.full((G, 1, Nq), np.nan)  # the best-fed channel's flow over the mean, at the nodes
+        self._solve_splits(count, width, depth, st, (share, drop, most), *_pairs(g_fit, nodes))
+        if nodes.size == np.count_nonzero(ok):
+            return share, drop
+        # every solvable flow between two nodes (ascending by flow): the node above it, and the node below
+        order = np.flatnonzero(ok)[np.argsort(Qv[ok], kind="stable")]
+        is_node = np.isin(order, nodes)
+        pos, j = np.flatnonzero(is_node), np.arange(order.size)
+        above = order[pos[np.searchsorted(pos, j)]]  # the top and the lowest flow are nodes: both exist
+        below = order[pos[np.searchsorted(pos, j, side="right") - 1]]
+        between = ~is_node
+        q_b, up, lo = order[between], above[between], below[between]
+        sh_up, sh_lo = share[g_fit][:, 0, up], share[g_fit][:, 0, lo]
+        dr_up, dr_lo = drop[g_fit][:, 0, up], drop[g_fit][:, 0, lo]
+        ratio_nodes = Qv[lo] / Qv[up]
+        # Reynolds numbers of the channels: the least-fed one at the node below, the best-fed one at the node
+        # above (the larger of the two nodes' best-fed shares).  Where the span between reaches into the
+        # friction's laminar-turbulent blend, friction rising with Re makes the split MORE even as the flow rises
+        # (measured: up to +0.5 % of share from one flow step to the next on the laser example's geometries) and
+        # the share dips below both nodes (see BLEND_SHARE_MARGIN): there the interval takes
+        # the lesser of its two nodes' shares less ``BLEND_SHARE_MARGIN``.
+        mu = np.broadcast_to(st.pr.mu, full).ravel()
+        D_h = hydraulic_diameter_rectangle(width[g_fit], depth[g_fit])[:, None]
+        Re_mean = mdot[None, :] * D_h / (mu[None, :] * count[g_fit][:, None] * width[g_fit][:, None]
+                                         * depth[g_fit][:, None])
+        Re_least_lo = np.minimum(sh_lo, sh_up) * Re_mean[:, lo]
+        Re_most_up = np.maximum(most[g_fit][:, 0, up], most[g_fit][:, 0, lo]) * Re_mean[:, up]
+        blend = (Re_most_up >= RE_LAMINAR_END) & (Re_least_lo <= RE_TURBULENT_START)
+        solved = np.isfinite(sh_up) & np.isfinite(sh_lo) & np.isfinite(dr_up) & np.isfinite(dr_lo)
+        falls = dr_lo <= dr_up * ratio_nodes * (1.0 + MONOTONE_TOLERANCE)
+        trusted = solved & falls
+        ratio = Qv[q_b] / Qv[up]
+        gi, qi = np.nonzero(trusted)
+        share[g_fit[gi], 0, q_b[qi]] = (np.minimum(sh_lo[gi, qi], sh_up[gi, qi])
+                                        - np.where(blend[gi, qi], BLEND_SHARE_MARGIN, 0.0))
+        # the drop: the node above's scaled down by the flow ratio to the first power, the least any part of it
+        # falls with the flow (a chord on log axes was tried: 0.2 % low in places where the exponent passes 2 in
+        # the blend and falls back)
+        drop[g_fit[gi], 0, q_b[qi]] = dr_up[gi, qi] * ratio[qi]
+        gi, qi = np.nonzero(~trusted)  # the nodes contradict the assumptions here: exact
+        if gi.size:
+            self._solve_splits(count, width, depth, st, (share, drop, most), g_fit[gi], q_b[qi])
+        return share, drop
+
+    def _solve_splits(self, count, width, depth, st, out, gg, qq):
+        """The exact split for the geometry-and-flow pairs (gg, qq), written into ``out``: the least channel
+        flow over the mean, the port-to-port drop and the greatest channel flow over the mean, arrays (G, 1, Nq).
+        The check's own header network (:mod:`coldplate.plate.split`: its positions, headers and channel losses,
+        the same friction through ``passage_friction``), solved for every pair at once by
+        :func:`hydraulics.manifold.solve_split_batch` (rows grouped by channel count and where the ports fall
+        among the channels), both header-friction forms, the less even split and the higher drop kept."""
+        d = self.design
+        pr = st.pr
+        full = st.m_dot.shape
+        rho, mu = (np.broadcast_to(getattr(pr, k), full).ravel() for k in ("rho", "mu"))
+        mdot = st.m_dot.ravel()
+        if not gg.size:
+            return
+        # the channel positions and where the ports fall among them, once per geometry (not per pair)
+        positions, key_of = {}, {}
+        for g in np.unique(gg):
+            passage = replace(d.passage, count=int(count[g]), width=float(width[g]), depth=float(depth[g]))
+            y = positions[g] = np.asarray(channel_positions(passage, d.plate))
+            key_of[g] = (int(count[g]),) + tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
+                                                 for side in ("left", "right"))
         keys = {}
-        for i, (g, c) in enumerate(zip(gg, count[gg])):
-            passage = replace(d.passage, count=int(c), width=float(width[g]), depth=float(depth[g]))
-            y = np.asarray(channel_positions(passage, d.plate))
-            order = tuple(int(np.searchsorted(y, port, side)) for port in port_offsets(passage)
-                          for side in ("left", "right"))
-            keys.setdefault((int(c),) + order, []).append(i)
+        for i, g in enumerate(gg):
+            keys.setdefault(key_of[g], []).append(i)
         blocks = [(c, np.asarray(rows[i:i + SPLIT_BLOCK])) for (c, *_), rows in keys.items()
                   for i in range(0, len(rows), SPLIT_BLOCK)]
         for c, rows in blocks:
             g, q = gg[rows], qq[rows]
-            passages = [replace(d.passage, count=c, width=float(width[k]), depth=float(depth[k])) for k in g]
-            y = np.array([channel_positions(p_, d.plate) for p_ in passages])
+            y = np.array([positions[k] for k in g])
             w, dep = width[g][:, None], depth[g][:, None]
             L = d.plate.length - 2.0 * d.passage.plenum_length
             D_h, alpha = hydraulic_diameter_rectangle(w, dep), aspect_ratio(w, dep)
@@ -254,9 +339,12 @@ class Evaluator:
                                       *port_offsets(d.passage), dp_channels, mdot[q] / rho[q],
                                       rho[q], mu[q], friction_length=fl) for fl in (None, math.inf)]
             # a row without a split (not converged: NaN) is a candidate that cannot be solved, as in the check
+            share, drop, most = out
             share[g, 0, q] = np.minimum(both[0].min_to_mean, both[1].min_to_mean)
             drop[g, 0, q] = np.maximum(both[0].port_to_port, both[1].port_to_port)
-        return share, drop
+            most[g, 0, q] = np.maximum(*(np.max(b.channel_flows, axis=1) / np.mean(b.channel_flows, axis=1)
+                                         for b in both))
+
 
     # ---------------------------------------------------------------- tubes
 
@@ -302,3 +390,26 @@ class Evaluator:
                 R_plate[g, b] = self.plate.rise(float(t), 1.0 / (self.A_cool * (fixed + r_conv)), st.s,
                                                 self.A_cool * (fixed + r_conv_x), single_pass=geom.single_pass)
         return self._finish(R_plate, dp, st, V_all, Re_all, (G, Nt, Nq))
+
+
+def split_nodes(flow, ok):
+    """Indices of the flows (1-D, [m^3/s]) at which :meth:`Evaluator.splits` solves the split exactly: every
+    solvable flow when there are at most ``SPLIT_EXACT_FLOWS`` of them; otherwise the top one, going down every
+    flow at most ``SPLIT_NODE_RATIO`` times the last node, and the lowest one (so every flow has a node above and
+    below it)."""
+    idx = np.flatnonzero(ok)
+    if idx.size <= SPLIT_EXACT_FLOWS:
+        return idx
+    idx = idx[np.argsort(flow[idx], kind="stable")]
+    nodes = [idx[-1]]
+    for j in idx[-2::-1]:
+        if flow[j] <= SPLIT_NODE_RATIO * flow[nodes[-1]]:
+            nodes.append(j)
+    if nodes[-1] != idx[0]:
+        nodes.append(idx[0])
+    return np.asarray(nodes[::-1])
+
+
+def _pairs(g, q):
+    gg, qq = np.meshgrid(g, q, indexing="ij")
+    return gg.ravel(), qq.ravel()
