@@ -1,17 +1,18 @@
 """Thermoelectric modules on the field model in a few field solves (coldplate.modules.solve.solve_with_module_field).
 
 What is checked, and against what (the module model itself is checked against outside references in
-test_thermoelectric.py and test_demo_module.py; these are consistency checks of the calibration):
+test_thermoelectric.py and test_demo_module.py; these hold the calibration to the field it stands in for):
 
 * the modules' hot face equals the hottest mounting face of a fresh field solve at the modules' heat, within
-  FIELD_TOLERANCE_K (computed: the field solve itself, coldplate.plate.fieldcheck.solve_plate_field);
+  1e-3 K (computed by our own solver: the field solve itself, coldplate.plate.fieldcheck.solve_plate_field);
 * the calibrated answer equals the module solve run on the field at every step (the former path, seven field
-  solves) within 1e-4 K (computed: our own solver on two paths);
+  solves) within 1e-4 K (computed by our own solver, two paths);
 * the number of field solves is small: counted with a wrapper, never timed;
 * the network model's numbers are those of the module solve on solve_plate (the path before the calibration)
-  to 1e-12;
+  to 1e-12 (computed by our own solver, two paths);
 * the first law: Q_hot = Q_cold + electrical power (common practice);
-* the calibration's algorithm on plate functions whose true scale is known exactly (computed).
+* the calibration's algorithm on stand-in plate functions whose true scale is known exactly (computed: the
+  scale is set in the test).
 """
 from __future__ import annotations
 
