@@ -71,17 +71,42 @@ def solve(design: Design, model: str = "field") -> Result:
 def _solve_with_modules(design: Design, supply_stage, plate=solve_plate) -> Result:
     """Modules and supply together.  The supply's flow depends on the plate's load only through the coolant's
     properties, so: the supply at a first load (twice the cold-side load, a COP of one), the modules at that
-    flow, then the supply at the modules' real heat and the modules once more at its flow."""
-    from coldplate.modules.solve import solve_with_module
-
+    flow, then the supply at the modules' real heat and the modules once more at its flow.  On the field model
+    the modules are solved by :func:`module_solver`'s calibration, the second pass starting from the first's
+    scale (one field solve more when it still holds)."""
+    solve_modules = module_solver(plate)
     flow, attach = supply_stage(design, load=max(2.0 * design.module.cold_load, 1.0))
     if flow is not None:
-        first = solve_with_module(design, partial(plate, flow=flow))
+        first = solve_modules(design, flow)
         flow, attach = supply_stage(design, load=first.load)
-    result = solve_with_module(design, partial(plate, flow=flow))
+    result = solve_modules(design, flow)
     if flow is None:  # no circuit: planning (if any) at the modules' real heat
         _, attach = supply_stage(design, load=result.load)
     return attach(result)
+
+
+def module_solver(plate=solve_plate):
+    """``solve(design, flow) -> Result`` for the modules on the plate function ``plate``.
+
+    The network (``solve_plate``) is handed to the module solve as it is (coldplate.modules.solve.solve_with_module,
+    several plate solves).  Any other plate function (the field) is not called once per step of the module solve:
+    the module solve runs on the network scaled by the field's resistance over the network's, and the field is
+    solved only at the modules' heat until the two agree (solve_with_module_field: two field solves, one more on
+    a later call, which starts from the scale the last call ended with).
+    """
+    from coldplate.modules.solve import solve_with_module, solve_with_module_field
+
+    if plate is solve_plate:
+        return lambda design, flow: solve_with_module(design, partial(solve_plate, flow=flow))
+    scale = [1.0]
+
+    def on_field(design, flow):
+        result = solve_with_module_field(design, partial(plate, flow=flow), partial(solve_plate, flow=flow),
+                                         scale=scale[0])
+        scale[0] = result.module.field_scale
+        return result
+
+    return on_field
 
 
 def collect_findings(r) -> tuple[Finding, ...]:

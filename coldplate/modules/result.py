@@ -50,3 +50,7 @@ class ModuleResult:
     parameters: tuple[float, float, float] = (0.0, 0.0, 0.0)  #: (S [V/K], R [ohm], K [W/K]) of one module
     iterations: int = 0  #: plate solves of the coupled operating point
     shortfall: str = ""  #: when a target cold face is out of reach: why, and what would reach it (else empty)
+    field_solves: int = 0  #: field solves of the calibrated module solve (model "field"; 0 on the network)
+    #: the field's resistance over the network's at the modules' heat, the scale the module solve ran the
+    #: network with (model "field"; None on the network; coldplate.modules.solve.solve_with_module_field)
+    field_scale: float | None = None

@@ -235,10 +235,25 @@ def _sweep(design, line: PlateLine):
 
 def solve_with_module(design, plate_solver):
     """The design with its ``[module]`` table: the plate result at the modules' heat, with ``.module`` set."""
+    pr, mr, methods = module_operating_point(design, plate_solver)
+    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS, methods=pr.methods + methods)
+
+
+def first_load(design) -> float:
+    """The load of the module solve's first plate solve [W]: half the modules' hot-side heat at I_max with both
+    faces at the inlet water (a guess inside the sweep's range of loads)."""
+    m = design.module
+    return m.count * (m.cold_load / m.count + 0.5 * m.max_current**2 * m.R
+                      + m.S * m.max_current * design.inlet_temperature) * 0.5
+
+
+def module_operating_point(design, plate_solver):
+    """The modules and the plate solved together with ``plate_solver``: ``(plate result at the modules' heat,
+    ModuleResult, the modules' MethodUse records)``; :func:`solve_with_module` joins them into one Result."""
     m = design.module
     N, q, T_in = m.count, m.cold_load / m.count, design.inlet_temperature
     line = PlateLine(design, plate_solver)
-    seed = N * (q + 0.5 * m.max_current**2 * m.R + m.S * m.max_current * T_in) * 0.5
+    seed = first_load(design)
     for load in (seed, 0.1 * seed, max(N * q, 1e-3)):  # a first plate solve; a smaller load if the water boils
         if line.solve(max(load, 1e-3)) is not None:
             break
@@ -324,7 +339,7 @@ def solve_with_module(design, plate_solver):
     methods = tuple(MethodUse(role="thermoelectric module", method=v.method, reference=v.reference,
                               validity=v.describe(), values=tuple(values.items()), outside=v.violations(**values))
                     for v, values in uses)
-    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS, methods=pr.methods + methods)
+    return pr, mr, methods
 
 
 def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:
@@ -360,3 +375,104 @@ def _unreachable(design, target, I_c, T_min, line: PlateLine) -> str:
     return (f"The target cold face {_c(target)} is not reachable at any current up to I_max "
             f"({m.max_current:g} A): the coldest is {_c(T_min)} at {I_c:.3g} A per module, where the results "
             f"are given. It would be reached with {'; or '.join(ways)}.")
+
+
+# --- the modules on the field model, in a few field solves ------------------------------------------------------
+#
+# The field (coldplate.plate.fieldcheck.solve_plate_field) costs about a second a solve; the module solve above
+# calls its plate function seven times or more (the first node, the sweep's nodes, every step of ``couple``).
+# So the module solve runs on the network (coldplate.plate.solve.solve_plate, milliseconds) scaled by the field:
+# at fixed coolant properties and coefficients the field is linear in the load, so its resistance over the
+# network's at one load, ``k = R_field(Q) / R_network(Q)``, carries the network to the field's answer near that
+# load.  The scale changes with the load only through the properties and the coefficients (the outlet's
+# temperature), so one update from the field at the modules' heat normally settles it: two field solves from a
+# start without a scale, one when a scale from a nearby solve (the supply's first pass) is handed in.
+
+#: Agreement of the modules' hot face with the field's hottest face at the modules' heat [K].  The module
+#: solve's own tolerance (TOLERANCE_K, 1e-6 K) holds between the modules and the scaled network; against the
+#: field 1e-3 K is enough: it is about a twentieth of the field's own grid uncertainty on the examples
+#: (0.01-0.03 K) and far below the design margins the findings test.
+FIELD_TOLERANCE_K = 1e-3
+#: Field solves before the calibration gives up with a SolveError (two or three settle it on the examples).
+MAX_FIELD_SOLVES = 6
+
+FIELD_ASSUMPTION = (
+    "thermoelectric modules on the field model: the operating point and the current sweep are solved on the "
+    "resistance network with its face rise scaled by the field's resistance over the network's at the modules' "
+    "heat; the plate's figures are the field at that heat, its hottest face the modules' hot face within "
+    f"{FIELD_TOLERANCE_K:g} K")
+
+
+def scaled_plate(result, scale: float):
+    """A plate Result with its face's rise above the inlet water scaled by ``scale`` [-].
+
+    Scaled: ``R_th`` and each of its ``resistances`` (so they still add up), ``T_face_max`` and ``T_plate_max``
+    (inlet + scale · rise), the profile's top face ``T_top`` (inlet + scale · rise) and each source's
+    ``face_max`` and ``face_mean`` in ``sources``.  Not scaled: the coolant (``T_out``, the profile's
+    ``T_bulk``), the flow, pressure drop, coefficients and properties, which the scale does not describe.  A
+    scale below one (the field cooler than the network) lowers the face, which the calibration's check at the
+    field's own answer then confirms; the reported plate figures are never the scaled ones.
+    """
+    T_in = result.T_in
+
+    def up(T):
+        return T_in + scale * (T - T_in)
+
+    p = result.profile
+    profile = type(p)(p.x, p.T_bulk, tuple(up(T) for T in p.T_top))
+    sources = tuple(replace(s, face_max=up(s.face_max), face_mean=up(s.face_mean)) for s in result.sources)
+    return replace(result, R_th=scale * result.R_th,
+                   resistances=tuple((name, scale * R) for name, R in result.resistances),
+                   T_face_max=up(result.T_face_max), T_plate_max=up(result.T_plate_max), profile=profile,
+                   sources=sources)
+
+
+def scaled_solver(network, scale: float):
+    """The plate function ``network(design, load=Q)`` with its face rise scaled (:func:`scaled_plate`)."""
+    def plate(design, load):
+        return scaled_plate(network(design, load=load), scale)
+    return plate
+
+
+def solve_with_module_field(design, field, network, scale: float = 1.0):
+    """The modules on the field model in a few field solves: the plate Result of ``field`` at the modules' heat,
+    with ``.module`` set (its ``field_solves`` and ``field_scale`` filled).
+
+    ``field`` and ``network`` are plate functions ``(design, load=Q) -> Result`` at the same flow (the field's
+    and the network's, e.g. ``partial(solve_plate_field, flow=V)``); ``scale`` is a first field-over-network
+    resistance ratio (1: none known).  Steps: the module solve (:func:`module_operating_point`) on the network
+    scaled by ``scale`` gives the modules' heat ``Q`` and hot face ``T_h``; the field at ``Q`` gives its hottest
+    face; when that is within :data:`FIELD_TOLERANCE_K` of ``T_h`` the answer is that field result, else the
+    scale becomes ``R_field(Q) / R_network(Q)`` and the module solve runs again.  Raises :class:`SolveError`
+    after :data:`MAX_FIELD_SOLVES` field solves.
+    """
+    gaps, solves = [], 0
+    while solves < MAX_FIELD_SOLVES:
+        try:
+            pr, mr, methods = module_operating_point(design, scaled_solver(network, scale))
+        except SolveError:
+            # the unscaled network (hotter than the field, as it errs) may find no steady state where the field
+            # has one: take the scale at the first load the module solve tries, once, and solve again
+            if solves or scale != 1.0:
+                raise
+            Q = first_load(design)
+            try:
+                solves += 1
+                scale = field(design, load=Q).R_th / network(design, load=Q).R_th
+            except DesignError:  # the water boils at that load: the network's reason stands
+                scale = math.inf
+            if scale >= 1.0:
+                raise
+            continue
+        fr = field(design, load=mr.Q_hot)
+        solves += 1
+        gap = fr.T_face_max - mr.T_hot
+        gaps.append(gap)
+        if abs(gap) <= FIELD_TOLERANCE_K:
+            mr = replace(mr, field_solves=solves, field_scale=scale)
+            return replace(fr, module=mr, assumptions=fr.assumptions + ASSUMPTIONS + (FIELD_ASSUMPTION,),
+                           methods=fr.methods + methods)
+        scale = fr.R_th / network(design, load=mr.Q_hot).R_th
+    raise SolveError(f"the modules and the field model did not agree in {MAX_FIELD_SOLVES} field solves (hot "
+                     f"face against the field's hottest face: {', '.join(f'{g:+.3g} K' for g in gaps)}); "
+                     "the network model (--model network) solves the modules alone")
