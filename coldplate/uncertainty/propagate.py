@@ -56,7 +56,7 @@ def covered(design, result, keys=()) -> bool:
     d = design
     return (d.passage.kind in ("channels", "tube") and d.module is None and d.flow is not None
             and d.supply.drive == "flow" and d.model.laminar != "sieder-tate" and len(d.sources) <= 1
-            and result.model == "network" and not (keys and "passage.inner_diameter" in keys))
+            and not (keys and "passage.inner_diameter" in keys))
 
 
 def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
@@ -306,8 +306,12 @@ def anchored(result, out: dict) -> dict:
     check's value plus each row's change from the nominal row 0 (times its ratio for the pressure drop and the
     water), as the evaluator's rows are."""
     face, outlet, dp, water = (out[k] for k in ("face", "outlet", "pressure_drop", "water_use"))
+
+    def times_ratio(value, rows):  # a zero nominal (no water used: a loop) stays the rows' own values
+        return value * rows / rows[0] if rows[0] != 0 else rows
+
     return {"face": result.T_face_max + (face - face[0]), "outlet": result.T_out + (outlet - outlet[0]),
-            "pressure_drop": result.dp * dp / dp[0], "water_use": result.water_use_L_per_day * water / water[0]}
+            "pressure_drop": times_ratio(result.dp, dp), "water_use": times_ratio(result.water_use_L_per_day, water)}
 
 
 def check_rows(design, keys, rows) -> dict:
