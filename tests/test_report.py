@@ -128,6 +128,13 @@ def test_html_parses_and_has_every_section(reports):
             assert "uncertainty" in page.sections
         else:
             assert "uncertainty" not in page.sections
+        if r.field is not None:  # the field solve: its map section, the face map and (with coolant) the bulk plot
+            expected.add("fig-facemap")
+            if r.field.bulk.size:
+                expected.add("fig-coolant")
+            assert "field" in page.sections
+        else:
+            assert "field" not in page.sections
         if r.channel_flows:  # the flow split across channels: its section and its figure
             expected.add("fig-flow_split")
             assert "flow-split" in page.sections
@@ -317,9 +324,9 @@ def test_markdown_report_and_its_figures(tmp_path):
     assert main(["report", str(source), "-o", str(out)]) == 0
     text = out.read_text(encoding="utf-8")
     links = re.findall(r"!\[[^\]]*\]\(([^)]+)\)", text)
-    # and the flow split across its channels
+    # and the flow split across its channels, and (the field being the default model) the face map and coolant
     assert set(links) == {"plate.plate.svg", "plate.breakdown.svg", "plate.profile.svg", "plate.flow.svg",
-                          "plate.water.svg", "plate.flow_split.svg"}
+                          "plate.water.svg", "plate.flow_split.svg", "plate.facemap.svg", "plate.coolant.svg"}
     for link in links:
         root = ET.parse(tmp_path / link).getroot()
         assert root.tag == SVG_NS + "svg" and len(root.findall(f".//{SVG_NS}path")) > 50
