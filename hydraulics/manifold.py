@@ -246,23 +246,29 @@ class _HeaderLine:
         self.L = header.length if friction_length is None else friction_length
 
     def segment_flows(self, Q, total):
-        """Flow through each segment toward +y [m^3/s]; ``sign`` +1 for the dividing header, -1 combining."""
-        return self.sign * (total * self.port_left - self.upto @ Q)
+        """Flow through each segment toward +y [m^3/s]; ``sign`` +1 for the dividing header, -1 combining.
+        ``Q`` is (N,) or (N, M): M flow sets at once, one per column."""
+        port_left = self.port_left if np.ndim(Q) == 1 else self.port_left[:, None]
+        return self.sign * (total * port_left - self.upto @ Q)
 
     def pressures(self, Q, total):
         """Header pressure each channel sees, relative to the port [Pa]; the friction records used; the
-        largest segment Reynolds number."""
+        largest segment Reynolds number.  ``Q`` (N,) gives (N,) pressures; ``Q`` (N, M), M flow sets as columns
+        (the Newton step's finite-difference columns in one call), gives (N, M)."""
+        one = np.ndim(Q) == 1
         V = self.segment_flows(Q, total) / self.A
+        V = V[:, None] if one else V
         Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
         fr = darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel_rough)
-        friction = np.asarray(fr.f) * self.dx / self.D_h * self.rho * V * np.abs(V) / 2.0  # drop toward +y
-        V2 = np.concatenate(([0.0], V, [0.0])) ** 2      # [n] left of node n, [n + 1] right of it
+        friction = (np.asarray(fr.f) * self.dx[:, None] / self.D_h * self.rho * V * np.abs(V) / 2.0)  # toward +y
+        edge = np.zeros((1, V.shape[1]))
+        V2 = np.concatenate((edge, V, edge)) ** 2       # [n] left of node n, [n + 1] right of it
         P = self.port_node
         # right of the port the far side of node n is its right segment; left of it, its left segment
-        right = np.cumsum(-friction[P:] - self.k * self.rho * (V2[P + 2:] - V2[P + 1:-1]) / 2.0)
-        left = np.cumsum((friction[:P] - self.k * self.rho * (V2[:P] - V2[1:P + 1]) / 2.0)[::-1])[::-1]
-        p_far = np.concatenate((left, [0.0], right))
-        return p_far[self.channel_node], fr.methods, float(np.max(Re))
+        right = np.cumsum(-friction[P:] - self.k * self.rho * (V2[P + 2:] - V2[P + 1:-1]) / 2.0, axis=0)
+        left = np.cumsum((friction[:P] - self.k * self.rho * (V2[:P] - V2[1:P + 1]) / 2.0)[::-1], axis=0)[::-1]
+        p_far = np.concatenate((left, edge, right))[self.channel_node]
+        return (p_far[:, 0] if one else p_far), fr.methods, float(np.max(Re))
 
 
 def _drops(channels, Q):
@@ -290,10 +296,11 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         raise ManifoldError("the channels' drop at the mean flow is not a positive number")
 
     def headers(x):
-        """The loops' header part, inlet header - outlet header [p_scale], and the mass balance [-]."""
+        """The loops' header part, inlet header - outlet header [p_scale], and the mass balance [-]; ``x``
+        (N + 1,) or (N + 1, M), M unknown sets as columns."""
         Q, dP = x[:n] * q_mean, x[n] * p_scale
         loops = (inlet.pressures(Q, total_flow)[0] - outlet.pressures(Q, total_flow)[0] + dP) / p_scale
-        return np.concatenate((loops, [np.sum(x[:n]) - n]))
+        return np.concatenate((loops, [np.sum(x[:n], axis=0) - n]))
 
     def channels(x):
         return np.concatenate((_drops(manifold.channels, x[:n] * q_mean) / p_scale, [0.0]))
@@ -308,15 +315,11 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         if iterations >= MAX_ITERATIONS:
             raise ManifoldError(f"the flow split did not converge in {MAX_ITERATIONS} Newton steps "
                                 f"(loop residual {np.max(np.abs(r[:n])) * p_scale:.3g} Pa)")
-        # finite differences: the headers couple every flow (N + 1 cheap array evaluations); a channel's drop
-        # depends on its own flow only, so its part of the Jacobian is diagonal (one call per channel)
+        # finite differences: the headers couple every flow (the N + 1 columns in one array evaluation); a
+        # channel's drop depends on its own flow only, so its part of the Jacobian is diagonal (one call per channel)
         step_sizes = 1e-7 * np.maximum(1.0, np.abs(x))
         base_h, base_c = headers(x), channels(x)
-        J = np.empty((n + 1, n + 1))
-        for j in range(n + 1):
-            xp = x.copy()
-            xp[j] += step_sizes[j]
-            J[:, j] = (headers(xp) - base_h) / step_sizes[j]
+        J = (headers(x[:, None] + np.diag(step_sizes)) - base_h[:, None]) / step_sizes[None, :]
         J[np.arange(n), np.arange(n)] -= (channels(x + step_sizes * (np.arange(n + 1) < n))[:n]
                                           - base_c[:n]) / step_sizes[:n]
         try:
