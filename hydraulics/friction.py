@@ -178,12 +178,15 @@ def darcy_friction(Re, L, D_h, alpha, shape, rel_roughness=0.0) -> FrictionResul
     Re = np.asarray(Re, dtype=float)
     if np.any(Re <= 0):
         raise ValueError("Re must be positive")
-    w = np.asarray(transition_weight(Re), dtype=float)
     lam_here, v_lam = _laminar_f(np.minimum(Re, RE_LAMINAR_END), L, D_h, alpha, shape)
-    lam_end, _ = _laminar_f(RE_LAMINAR_END, L, D_h, alpha, shape)
     turb_here, v_turb = _turbulent_f(np.maximum(Re, RE_TURBULENT_START), rel_roughness)
-    turb_start, _ = _turbulent_f(RE_TURBULENT_START, rel_roughness)
-    blend = (1.0 - w) * lam_end + w * turb_start
+    if np.any((Re > RE_LAMINAR_END) & (Re < RE_TURBULENT_START)):  # the blend's two ends, only where it is used
+        w = np.asarray(transition_weight(Re), dtype=float)
+        lam_end, _ = _laminar_f(RE_LAMINAR_END, L, D_h, alpha, shape)
+        turb_start, _ = _turbulent_f(RE_TURBULENT_START, rel_roughness)
+        blend = (1.0 - w) * lam_end + w * turb_start
+    else:
+        blend = 0.0
     f = np.where(Re <= RE_LAMINAR_END, lam_here, np.where(Re >= RE_TURBULENT_START, turb_here, blend))
     used = []
     if np.any(Re < RE_TURBULENT_START):
