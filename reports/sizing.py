@@ -15,6 +15,8 @@ _SHOW = {  # variable -> (heading, scale from SI, format)
     "width": ("width mm", 1e3, "{:.3g}"), "depth": ("depth mm", 1e3, "{:.3g}"),
     "inner_diameter": ("bore mm", 1e3, "{:.3g}"), "base": ("base mm", 1e3, "{:.3g}"),
     "flow": ("L/min", 6e4, "{:.3g}"),
+    "plenum_depth": ("plenum mm", 1e3, "{:.3g}"), "inlet_port": ("in port mm", 1e3, "{:+.3g}"),
+    "outlet_port": ("out port mm", 1e3, "{:+.3g}"),
 }
 
 

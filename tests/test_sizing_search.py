@@ -209,10 +209,10 @@ def test_a_small_tube_search_runs_and_its_recommendation_checks():
 
 def test_writer_places_every_searched_variable():
     # the writer's table of places names exactly the variables the [search] reader knows
-    from coldplate.sizing.search import VARIABLES
+    from coldplate.sizing.search import HEADER_VARIABLES, VARIABLES
     from coldplate.sizing.writer import PLACES
 
-    assert set(PLACES) == {name for kind in VARIABLES.values() for name in kind}
+    assert set(PLACES) == {name for kind in VARIABLES.values() for name in kind} | set(HEADER_VARIABLES)
 
 
 @settings(max_examples=20, deadline=None, suppress_health_check=[HealthCheck.too_slow])

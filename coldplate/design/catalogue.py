@@ -40,6 +40,7 @@ OTHER_KINDS = {
     "parts": "an array of tables, [[circuit.part]]",
     "spread": "an input's spread: '±x %', '±x <unit>', [low, high], or { spread = ..., distribution = ... }",
     "axis": "one value, an array of values, or { from, to, steps } (spacing = \"log\" for geometric)",
+    "variants": "one length or an array of lengths, each a variant searched on its own (no range)",
 }
 
 _F = Field
@@ -199,6 +200,10 @@ FIELDS: dict[str, Field] = {
     "[search] passes": _F("axis", "tube passes to search"),
     "[search] base": _F("axis", "base thicknesses to search"),
     "[search] flow": _F("axis", "flows to search"),
+    "[search] plenum_depth": _F("variants", "plenum depths to search (channel plates; each a variant)"),
+    "[search] inlet_port": _F("variants", "inlet port offsets across the plate to search, as [passage] inlet_port"),
+    "[search] outlet_port": _F("variants", "outlet port offsets across the plate to search, as [passage] "
+                                           "outlet_port"),
     "[search] face_limit": _F("temperature", "hottest mounting face a candidate may have"),
     "[search] face_limit_confidence": _F("fraction", "hold the face limit at this percentile of the band, e.g. '95 %'"),
     "[search] pressure_drop_limit": _F("pressure", "largest plate pressure drop"),

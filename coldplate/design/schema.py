@@ -21,7 +21,7 @@ from coldplate.design.units import KINDS
 from coldplate.modules import reader as module_reader
 from coldplate.plate import materials
 from coldplate.plate.sources import SOURCE_KEYS
-from coldplate.sizing.search import LIMITS, VARIABLES
+from coldplate.sizing.search import HEADER_VARIABLES, LIMITS, VARIABLES
 from coldplate.supply import reader as supply_reader
 from coldplate.uncertainty import reader as uncertainty_reader
 
@@ -38,7 +38,8 @@ MONEY_PATTERN = rf"^\s*{_NUMBER}\s*[A-Z]{{3}}\s*(/\s*.+?)?\s*$"
 def key_sets() -> dict[str, tuple[str, ...]]:
     """Every key each table accepts, from the readers' own tuples (``source``: one ``[[source]]`` table,
     ``circuit.part``: one ``[[circuit.part]]``; ``passage``: any kind's keys)."""
-    search = tuple(dict.fromkeys(k for kind in VARIABLES.values() for k in kind)) + tuple(LIMITS)
+    search = (tuple(dict.fromkeys(k for kind in VARIABLES.values() for k in kind)) + tuple(HEADER_VARIABLES)
+              + tuple(LIMITS))
     return {"top": ("title",), **{t: tuple(keys) for t, keys in reader.KEYS.items()},
             "passage": reader.ANY_PASSAGE_KEY, "module": module_reader._KEYS,
             "circuit": supply_reader.CIRCUIT_KEYS, "circuit.part": supply_reader.ANY_PART_KEY,
@@ -134,6 +135,8 @@ def value_schema(name: str, f: Field) -> dict:
                         "properties": {"spread": {"anyOf": [pm, {"type": "array", "items": one, "minItems": 2,
                                                                   "maxItems": 2}]},
                                        "distribution": {"enum": list(uncertainty_reader.DISTRIBUTIONS)}}}]}
+    elif kind == "variants":
+        s = {"anyOf": [_unit_string("length"), {"type": "array", "items": _unit_string("length"), "minItems": 1}]}
     elif kind == "axis":
         one = {"anyOf": [{"type": "number"}, _unit_string("")]}
         s = {"anyOf": [one, {"type": "array", "items": one, "minItems": 1},

@@ -15,6 +15,7 @@ from coldplate.plate.result import Result
 from coldplate.check import solve
 from coldplate.sizing.evaluate import Evaluator
 from coldplate.sizing.refine import Refinement, refine
+from coldplate.sizing.headers import Evaluators
 from coldplate.sizing.run import Candidate, SearchOutcome, run_search
 from coldplate.sizing.search import SearchSpec, read_search
 from coldplate.sizing.writer import design_text
@@ -60,7 +61,7 @@ def size(data: dict, design: Design, spec: SearchSpec, progress=None, do_refine:
     if design.supply.drive != "flow":
         first.append("the written design fixes the recommended flow (drive = \"flow\"); its [circuit] then reports "
                      "the supply pressure that flow needs: set the flow with a valve")
-    ev = Evaluator(design)
+    ev = Evaluators(design, Evaluator(design))  # one per header variant the search lists (sizing.headers)
     outcome = run_search(spec, design, ev, progress=progress)
     refinement = None
     interrupted = outcome.interrupted

@@ -19,6 +19,7 @@ import numpy as np
 from hydraulics.validity import slack
 
 from coldplate.sizing.evaluate import Evaluator
+from coldplate.sizing.headers import Evaluators
 from coldplate.sizing.run import Candidate, SearchOutcome, candidate_from
 
 #: Rounding after refinement: lengths to 0.01 mm, flow up to the next 0.01 L/min.
@@ -72,6 +73,8 @@ def _evaluate(evaluator, kind, values: dict):
     """One candidate through the evaluator.  SLSQP's trial steps may leave the plate (a wall of negative
     width): numpy's warnings there would be stray lines on stderr, and the non-finite numbers they flag are
     already read as unmet limits by :func:`margins`."""
+    if isinstance(evaluator, Evaluators):  # header variants: the evaluator of the candidate's own headers
+        evaluator = evaluator.for_values(values)
     with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
         if kind == "channels":
             return evaluator.channels([values["count"]], [values["width"]], [values["depth"]], [values["base"]],

@@ -19,6 +19,7 @@ from hydraulics.validity import at_least, at_most
 
 from coldplate.design.reader import Design
 from coldplate.sizing.evaluate import Evaluation, Evaluator
+from coldplate.sizing.headers import Evaluators, variants, with_header
 from coldplate.sizing.pareto import pareto_mask
 from coldplate.sizing.search import SearchSpec
 
@@ -93,15 +94,52 @@ class _Geometries:
         self.dropped = int(ok.size - self.size)
 
 
-def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = None, progress=None,
+def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | Evaluators | None = None, progress=None,
                chunk: int | None = None) -> SearchOutcome:
     """Evaluate every candidate of ``spec`` and keep the feasible Pareto set.
 
     ``progress(done, total)`` is called after each chunk.  Ctrl-C (KeyboardInterrupt) between or within a
     chunk stops the search; the outcome then holds what the finished chunks found (``interrupted`` True).
+    Where ``[search]`` lists header variables (plenum depth, port positions: :mod:`coldplate.sizing.headers`),
+    each variant is searched with its own evaluator (``evaluator`` may be an :class:`Evaluators` that holds
+    them) and the fronts are merged into one.
     """
     t0 = time.perf_counter()
-    ev = evaluator or Evaluator(design)
+    evs = evaluator if isinstance(evaluator, Evaluators) else Evaluators(design, evaluator)
+    todo = variants(spec)
+    if todo == [{}]:
+        return _run_one(spec, design, evs.for_values({}), progress, chunk, {}, t0)
+    per = _Geometries(spec, design).size * spec.axes["base"].size * spec.axes["flow"].size
+    outcomes = []
+    for i, v in enumerate(todo):
+        step = None if progress is None else (lambda done, total, i=i: progress(i * per + done, len(todo) * per))
+        outcomes.append(_run_one(spec, with_header(design, v), evs.for_values(v), step, chunk, v, t0))
+        if outcomes[-1].interrupted:
+            break
+    return _merged(spec, outcomes, len(todo) * per, t0)
+
+
+def _merged(spec: SearchSpec, outcomes, total: int, t0: float) -> SearchOutcome:
+    """One outcome from the header variants' outcomes: counts added, one front over all of them."""
+    every = [c for o in outcomes for c in o.pareto]
+    keep = pareto_mask(np.array([[c.R_th, c.dp, c.flow] for c in every]).reshape(-1, 3)) if every else []
+    pareto = tuple(sorted((c for c, k in zip(every, keep) if k), key=lambda c: (c.flow, c.R_th, c.dp)))
+    senses = {name: sense for name, _, sense in _limit_list(spec.limits)}
+    limits = []
+    for parts in zip(*(o.limits for o in outcomes)):
+        near = [p.nearest for p in parts if p.nearest is not None]
+        pick = min if senses[parts[0].name] == "max" else max
+        limits.append(LimitCount(parts[0].name, parts[0].limit, sum(p.failed for p in parts),
+                                 sum(p.only for p in parts), pick(near) if near else None))
+    return SearchOutcome(spec=spec, candidates=total, unbuildable=sum(o.unbuildable for o in outcomes),
+                         evaluated=sum(o.evaluated for o in outcomes), feasible=sum(o.feasible for o in outcomes),
+                         pareto=pareto, best=pareto[0] if pareto else None, limits=tuple(limits),
+                         interrupted=any(o.interrupted for o in outcomes), seconds=time.perf_counter() - t0)
+
+
+def _run_one(spec: SearchSpec, design: Design, ev: Evaluator, progress, chunk, fixed: dict,
+             t0: float) -> SearchOutcome:
+    """The search of one header variant (``fixed``: its header values, put into every candidate's values)."""
     geo = _Geometries(spec, design)
     base, flow = spec.axes["base"], spec.axes["flow"]
     per_geometry = base.size * flow.size
@@ -150,7 +188,7 @@ def run_search(spec: SearchSpec, design: Design, evaluator: Evaluator | None = N
                 progress(done, total)
     except KeyboardInterrupt:
         interrupted = True
-    pareto = _materialise(front_F, front_idx, front_x, spec, geo, base, flow)
+    pareto = _materialise(front_F, front_idx, front_x, spec, geo, base, flow, fixed)
     pareto = tuple(sorted(pareto, key=lambda c: (c.flow, c.R_th, c.dp)))
     limits = tuple(LimitCount(name, limit, failed[name], only[name], nearest[name]) for name, limit, _ in checks)
     return SearchOutcome(spec=spec, candidates=total, unbuildable=geo.dropped * per_geometry, evaluated=done,
@@ -232,11 +270,11 @@ def _reduced_points(e: Evaluation, feasible, g0, q0):
     return F, np.column_stack([gi + g0, b, qi + q0]).astype(np.int64), extra
 
 
-def _materialise(F, idx, extra, spec, geo, base, flow) -> list[Candidate]:
+def _materialise(F, idx, extra, spec, geo, base, flow, fixed) -> list[Candidate]:
     out = []
     for (R, dp, fl), (g, b, q), (T_face, T_out, V, Re) in zip(F, idx, extra):
         values = {name: float(c[g]) for name, c in zip(geo.names, geo.cols)}
-        values.update(base=float(base[b]), flow=float(flow[q]))
+        values.update(base=float(base[b]), flow=float(flow[q]), **fixed)
         out.append(Candidate(tuple((k, values[k]) for k in spec.axes), float(R), float(dp), float(fl),
                              float(T_face), float(T_out), float(V), float(Re)))
     return out

@@ -44,6 +44,12 @@ VARIABLES = {
         "flow": ("flow", False, *_plausible("[coolant] flow")),
     },
 }
+#: Header variables of a channel search (coldplate.sizing.headers): name -> the [passage] key's plausible range.
+#: Searched as discrete variants, each value given; in the axes only when the table lists them (the others keep
+#: the design's value: a plenum as deep as the channels unless [passage] says otherwise, its ports).
+HEADER_VARIABLES = {name: _plausible(f"[passage] {name}") for name in ("plenum_depth", "inlet_port", "outlet_port")}
+#: Most header variants one search may hold (each is a whole search of the channel grid).
+MAX_VARIANTS = 27
 #: Limits: name -> unit kind.
 LIMITS = {
     "face_limit": "temperature",
@@ -110,7 +116,8 @@ def read_search(data: dict, design: Design) -> SearchSpec:
                                             "\"pressure\", then check the pump on the result with coldplate check")
     if design.flow is None and not (isinstance(data["search"], dict) and "flow" in data["search"]):
         raise DesignError("[search] flow", "is needed: the supply sets this design's flow, so give the flows to search")
-    t = Table(data["search"], "search", (*VARIABLES[kind], *LIMITS))
+    headers = HEADER_VARIABLES if kind == "channels" else {}
+    t = Table(data["search"], "search", (*VARIABLES[kind], *headers, *LIMITS))
     own = design_values(design)
     axes, given = {}, []
     for name, (unit, whole, low, high) in VARIABLES[kind].items():
@@ -119,6 +126,14 @@ def read_search(data: dict, design: Design) -> SearchSpec:
             axes[name] = _axis(t, name, unit, whole, low, high)
         else:
             axes[name] = np.array([own[name]], dtype=int if whole else float)
+    for name in headers:
+        if t.has(name):
+            given.append(name)
+            axes[name] = _header_axis(t, name, design)
+    n_variants = int(np.prod([axes[k].size for k in headers if k in axes]))
+    if n_variants > MAX_VARIANTS:
+        raise DesignError("[search]", f"{n_variants} combinations of plenum_depth, inlet_port and outlet_port is more "
+                                      f"than the {MAX_VARIANTS} one search may hold (each is a search of its own)")
     limits = _limits(t, design)
     t.finish()
     if not given:
@@ -165,6 +180,25 @@ def _limits(t: Table, design: Design) -> Limits:
     # sizing.py runs the search again with the limit lowered until it does)
     return Limits(face, dp, source, discharge, min_width, min_wall, max_thickness, max_water,
                   t.value("face_limit_confidence", "fraction", required=False))
+
+
+def _header_axis(t: Table, name: str, design: Design) -> np.ndarray:
+    """A header variable's values: one value or a list (discrete variants, not a range), each a value the
+    design file's ``[passage]`` would accept there."""
+    field = t.field(name)
+    if design.passage.plenum_length <= 0:
+        raise DesignError(field, "needs a plenum: give [passage] plenum_length above zero")
+    if isinstance(t.raw(name), dict):
+        raise DesignError(field, "takes one value or a list of values (each variant is a search of its own), "
+                                 "not a range")
+    low, high = HEADER_VARIABLES[name]
+    if name != "plenum_depth":  # the whole port on the plate, as [passage] inlet_port / outlet_port
+        half = 0.5 * design.plate.width - 0.5 * (design.passage.port_diameter or 0.0)
+        low, high = max(low, -half), min(high, half)
+    values = _axis(t, name, "length", False, low, high)
+    if name == "plenum_depth" and np.any(values <= 0):
+        raise DesignError(field, "must be above zero")
+    return values
 
 
 def _axis(t: Table, name: str, unit: str, whole: bool, low: float, high: float) -> np.ndarray:

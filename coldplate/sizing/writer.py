@@ -20,6 +20,9 @@ PLACES = {
     "inner_diameter": ("passage", "inner_diameter", 1e3, "mm"),
     "base": ("plate", "base", 1e3, "mm"),
     "flow": ("coolant", "flow", 6e4, "L/min"),
+    "plenum_depth": ("passage", "plenum_depth", 1e3, "mm"),
+    "inlet_port": ("passage", "inlet_port", 1e3, "mm"),
+    "outlet_port": ("passage", "outlet_port", 1e3, "mm"),
 }
 
 
