@@ -305,11 +305,13 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
     def channels(x):
         return np.concatenate((_drops(manifold.channels, x[:n] * q_mean) / p_scale, [0.0]))
 
-    def residual(x):
-        return headers(x) - channels(x)
+    def parts(x):
+        """The header and the channel parts at ``x``: their difference is the residual; the Jacobian reuses them."""
+        return headers(x), channels(x)
 
     x = np.concatenate((np.ones(n), [1.0]))
-    r = residual(x)
+    base_h, base_c = parts(x)
+    r = base_h - base_c
     iterations = 0
     while np.max(np.abs(r)) > TOLERANCE:
         if iterations >= MAX_ITERATIONS:
@@ -318,7 +320,6 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         # finite differences: the headers couple every flow (the N + 1 columns in one array evaluation); a
         # channel's drop depends on its own flow only, so its part of the Jacobian is diagonal (one call per channel)
         step_sizes = 1e-7 * np.maximum(1.0, np.abs(x))
-        base_h, base_c = headers(x), channels(x)
         J = (headers(x[:, None] + np.diag(step_sizes)) - base_h[:, None]) / step_sizes[None, :]
         J[np.arange(n), np.arange(n)] -= (channels(x + step_sizes * (np.arange(n + 1) < n))[:n]
                                           - base_c[:n]) / step_sizes[:n]
@@ -330,9 +331,10 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         while t >= 1e-10:
             trial = x + t * step
             if np.all(trial[:n] > 0):
-                r_trial = residual(trial)
+                h_trial, c_trial = parts(trial)
+                r_trial = h_trial - c_trial
                 if np.all(np.isfinite(r_trial)) and np.linalg.norm(r_trial) < norm * (1 - 1e-4 * t):
-                    accepted = trial, r_trial
+                    accepted = trial, h_trial, c_trial, r_trial
                     break
             t /= 2.0
         if accepted is None:
@@ -340,7 +342,7 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
                 break
             raise ManifoldError("the flow split found no step that lowers the loop residual "
                                 "(a channel may need reverse flow)")
-        x, r = accepted
+        x, base_h, base_c, r = accepted
         iterations += 1
 
     Q = x[:n] * q_mean
