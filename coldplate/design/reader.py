@@ -275,7 +275,7 @@ def design_from_dict(data: dict) -> Design:
     if "source" in data and "heat" in data:
         raise DesignError("[[source]]", "give the heat either as [heat] (one centred source) or as [[source]] "
                                         "tables, not both")
-    placed = isinstance(data.get("module"), dict) and "positions" in data["module"]
+    placed = isinstance(data.get("module"), dict) and bool({"positions", "size"} & set(data["module"]))
     if placed and ("heat" in data or "source" in data):
         which = "[heat]" if "heat" in data else "[[source]]"
         raise DesignError("[module] positions", f"placed modules are the plate's heat sources: remove {which} "

@@ -43,9 +43,9 @@ ASSUMPTIONS = (
 )
 
 #: The network cannot resolve where each placed module sits (coldplate.modules.placed solves them on the field).
-PLACED_ON_NETWORK = ("placed modules on the resistance network: solved as one lumped array on the modules' "
-                     "bounding footprint (their positions are not resolved; --model field gives each module its "
-                     "own hot face)")
+PLACED_ON_NETWORK = ("placed modules on the resistance network: solved as one lumped array, the heat shared "
+                     "equally, at the network's cautious hottest face of the several sources (their positions "
+                     "are not resolved one by one; --model field gives each module its own hot face)")
 
 
 class _Runaway(Exception):
