@@ -92,7 +92,8 @@ def module_solver(plate=solve_plate):
     several plate solves).  Any other plate function (the field) is not called once per step of the module solve:
     the module solve runs on the network scaled by the field's resistance over the network's, and the field is
     solved only at the modules' heat until the two agree (solve_with_module_field: two field solves, one more on
-    a later call, which starts from the scale the last call ended with).
+    a later call, which starts from the scale the last call ended with).  Modules placed one by one ([module] positions)
+    then get each its own hot face from the field (coldplate.modules.placed.solve_placed_field).
     """
     from coldplate.modules.placed import solve_placed_field
     from coldplate.modules.solve import solve_with_module, solve_with_module_field

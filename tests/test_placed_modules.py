@@ -141,3 +141,20 @@ def test_json_lists_each_module(tmp_path, capsys, example):
         assert row["module_voltage_V"] == pytest.approx(p.voltage, rel=1e-9)
         assert set(row) >= {"heat_pumped_W", "electrical_power_W", "runaway_slope", "hot_side_limit_margin_K"}
     assert out["hot_face_temperature_C"] == pytest.approx(max(r["hot_face_temperature_C"] for r in rows))
+
+
+def test_runaway_is_refused_naming_the_worst_module():
+    # closed form (computed): the eigenvalues of the symmetric 2x2 c1 C are c1 (a + c ± sqrt((a - c)^2 + 4 b^2)) / 2
+    import math
+
+    import numpy as np
+
+    from coldplate.design.errors import SolveError
+    from coldplate.modules.placed import _runaway
+
+    a, b, c = 0.5, 0.3, 0.6
+    top = (a + c + math.sqrt((a - c) ** 2 + 4 * b * b)) / 2  # 0.8562 K/W
+    C = np.array([[a, b], [b, c]])
+    _runaway(["module 1", "module 2"], 0.99 / top, C, 3.0)  # radius 0.99: a steady state
+    with pytest.raises(SolveError, match=r"spectral radius of 1\.01.*module 2 is the worst"):
+        _runaway(["module 1", "module 2"], 1.01 / top, C, 3.0)
