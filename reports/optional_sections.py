@@ -68,13 +68,12 @@ def module_section(m, u: DisplayUnits, figures) -> Section:
         for p in m.placed:
             rows.append(Row(f"{p.name}: hot / cold face",
                             f"{u.fmt('temperature', p.T_hot)} / {u.fmt('temperature', p.T_cold)}",
-                            u.label("temperature"), "module.modules.hot_face_temperature_C"))
+                            u.label("temperature")))
             rows.append(Row(f"{p.name}: heat into the plate / electrical power",
-                            f"{u.fmt('power', p.Q_hot)} / {u.fmt('power', p.power)}", u.label("power"),
-                            "module.modules.heat_into_plate_W"))
+                            f"{u.fmt('power', p.Q_hot)} / {u.fmt('power', p.power)}", u.label("power")))
             rows.append(Row(f"{p.name}: voltage / margin to the hot-face limit",
                             f"{format_number(p.voltage)} V / {u.fmt('temperature_difference', p.limit_margin)}",
-                            u.label("temperature_difference"), "module.modules.hot_side_limit_margin_K"))
+                            u.label("temperature_difference")))
     return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
 
 

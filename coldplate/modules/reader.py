@@ -12,7 +12,8 @@ from dataclasses import dataclass
 
 from coldplate.modules import model as te
 from coldplate.design.errors import DesignError
-from coldplate.design.fields import Table
+from coldplate.design.fields import Table, check_range
+from coldplate.design.ranges import RANGES
 from coldplate.design.units import quoted
 
 WIRINGS = ("series", "parallel", "series-parallel")
@@ -134,7 +135,9 @@ def _placement(t: Table, count: int, which: str):
         return None, ()
     from coldplate.plate.sources import read_pair
 
-    a, b, _ = read_pair(t.raw("size"), t.field("size"))
+    a, b, size_raw = read_pair(t.raw("size"), t.field("size"))
+    for v, what, r in ((a, "along the flow", size_raw[0]), (b, "across", size_raw[1])):  # as a source's size
+        check_range(t.field("size") + f" ({what})", r, v, "length", RANGES["[heat] footprint"])
     if a <= 0 or b <= 0:
         raise DesignError(t.field("size"), "both lengths must be above zero")
     raw = t.raw("positions")
