@@ -92,8 +92,10 @@ def module_solver(plate=solve_plate):
     several plate solves).  Any other plate function (the field) is not called once per step of the module solve:
     the module solve runs on the network scaled by the field's resistance over the network's, and the field is
     solved only at the modules' heat until the two agree (solve_with_module_field: two field solves, one more on
-    a later call, which starts from the scale the last call ended with).
+    a later call, which starts from the scale the last call ended with).  Modules placed one by one ([module] positions)
+    then get each its own hot face from the field (coldplate.modules.placed.solve_placed_field).
     """
+    from coldplate.modules.placed import solve_placed_field
     from coldplate.modules.solve import solve_with_module, solve_with_module_field
 
     if plate is solve_plate:
@@ -101,8 +103,8 @@ def module_solver(plate=solve_plate):
     scale = [1.0]
 
     def on_field(design, flow):
-        result = solve_with_module_field(design, partial(plate, flow=flow), partial(solve_plate, flow=flow),
-                                         scale=scale[0])
+        solver = solve_placed_field if design.module.placed else solve_with_module_field
+        result = solver(design, partial(plate, flow=flow), partial(solve_plate, flow=flow), scale=scale[0])
         scale[0] = result.module.field_scale
         return result
 

@@ -40,12 +40,36 @@ def module_to_dict(m) -> dict:
             "plate_resistance_K_per_W": m.R_plate, "runaway_slope": m.runaway_slope,
             "seebeck_V_per_K": m.parameters[0], "resistance_ohm": m.parameters[1],
             "conductance_W_per_K": m.parameters[2], "max_heat_model_W": m.max_heat_model,
+            "modules": [placed_to_dict(p) for p in m.placed],
             "sweep": {"current_A": list(s.current), "cold_face_temperature_C": [_c(t) for t in s.T_cold],
                       "hot_face_temperature_C": [_c(t) for t in s.T_hot], "cop": [_num(x) for x in s.cop],
                       "electrical_power_W": list(s.power), "heat_into_plate_W": list(s.Q_hot),
                       "stopped": s.stopped or None},
         },
     }
+
+
+def placed_to_dict(p) -> dict:
+    """One placed module's JSON object."""
+    return {"name": p.name, "at_m": list(p.at), "hot_face_temperature_C": _c(p.T_hot),
+            "cold_face_temperature_C": _c(p.T_cold), "heat_into_plate_W": p.Q_hot, "heat_pumped_W": p.Q_cold,
+            "module_voltage_V": p.voltage, "electrical_power_W": p.power, "runaway_slope": p.runaway_slope,
+            "hot_side_limit_margin_K": p.limit_margin}
+
+
+def placed_text(m, _t, _w, _d, deg: str, heat: str, diff: str) -> list[str]:
+    """The text rows of each placed module (empty when the modules are not placed)."""
+    if not m.placed:
+        return []
+    out = ["", "  each placed module (the figures above are the worst module's: hottest hot face)",
+           f"  {'module':<10}  {'at mm':>13}  {'hot ' + deg:>8}  {'cold ' + deg:>9}  {'to plate ' + heat:>12}  "
+           f"{'pumped ' + heat:>10}  {'V':>6}  {'power ' + heat:>9}  {'slope':>6}  {'margin ' + diff:>11}"]
+    for p in m.placed:
+        at = f"{p.at[0] * 1e3:.0f}, {p.at[1] * 1e3:+.0f}"
+        out.append(f"  {p.name:<10}  {at:>13}  {_t(p.T_hot):8.2f}  {_t(p.T_cold):9.2f}  {_w(p.Q_hot):12.2f}  "
+                   f"{_w(p.Q_cold):10.2f}  {p.voltage:6.3f}  {_w(p.power):9.2f}  {p.runaway_slope:6.3f}  "
+                   f"{_d(p.limit_margin):+11.1f}")
+    return out
 
 
 #: Rows of the text sweep table (of the sweep's points, evenly spaced).
@@ -102,6 +126,7 @@ def module_text(m, units: str = "si") -> list[str]:
     wv = max(len(v) for _, v, _ in rows)
     out = ["Thermoelectric modules", "----------------------"]
     out += [f"  {q:<{wq}}  {v:>{wv}}  {u}" for q, v, u in rows]
+    out += placed_text(m, _t, _w, _d, deg, heat, diff)
     s = m.sweep
     n = len(s.current)
     idx = sorted({round(i * (n - 1) / (TEXT_ROWS - 1)) for i in range(TEXT_ROWS)}) if n > 1 else [0]

@@ -62,6 +62,18 @@ def module_section(m, u: DisplayUnits, figures) -> Section:
     for note in (m.shortfall, m.sweep.stopped):
         if note:
             paras.append(annotate(note[0].upper() + note[1:], u))
+    if m.placed:
+        paras.append("Each module is placed on the plate and has its own hot face from the field; the figures "
+                     "above are the worst module's (hottest hot face), the heat and power the whole array's.")
+        for p in m.placed:
+            rows.append(Row(f"{p.name}: hot / cold face",
+                            f"{u.fmt('temperature', p.T_hot)} / {u.fmt('temperature', p.T_cold)}",
+                            u.label("temperature")))
+            rows.append(Row(f"{p.name}: heat into the plate / electrical power",
+                            f"{u.fmt('power', p.Q_hot)} / {u.fmt('power', p.power)}", u.label("power")))
+            rows.append(Row(f"{p.name}: voltage / margin to the hot-face limit",
+                            f"{format_number(p.voltage)} V / {u.fmt('temperature_difference', p.limit_margin)}",
+                            u.label("temperature_difference")))
     return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
 
 
@@ -163,12 +175,14 @@ def source_rows(r, u: DisplayUnits) -> list[Row]:
     for s in r.design.sources:
         where = (f"{u.fmt('length', s.size[0])} × {u.fmt('length', s.size[1])} {u.label('length')} at x = "
                  f"{u.fmt('length', s.at[0])}, y = {u.fmt('length', s.at[1])} {u.label('length')}")
-        if math.isnan(s.load):  # a module array: the modules' hot-side heat is the plate's load
+        o = by_name.get(s.name)
+        if math.isnan(s.load) and o is not None and math.isfinite(o.load):  # a placed module: its own heat
+            load, unit = u.fmt("power", o.load), f"{u.label('power')} (this module's hot-side heat); {where}"
+        elif math.isnan(s.load):  # a module array: the modules' hot-side heat is the plate's load
             load, unit = u.fmt("power", r.load), f"{u.label('power')} (the modules' hot-side heat); {where}"
         else:
             load, unit = u.fmt("power", s.load), f"{u.label('power')}; {where}"
         rows.append(Row(f"{s.name}: load, size and place", load, unit))
-        o = by_name.get(s.name)
         if o is not None:
             limit = ("no limit given" if o.margin is None else
                      f"margin {u.fmt('temperature_difference', o.margin)} {dK} to {u.fmt('temperature', o.limit)} {deg}")

@@ -32,6 +32,7 @@ OTHER_KINDS = {
     "boolean": "true or false",
     "lengths": "an array of two lengths: along the flow, across",
     "offsets": "an array of two lengths: from the inlet edge, across from the centre line",
+    "placements": "an array of centres, each [from the inlet edge, across from the centre line]",
     "hours": "hours a day: a number, or a time such as '90 min'",
     "days": "days a year: a number",
     "flows": "an array of flows",
@@ -160,6 +161,9 @@ FIELDS: dict[str, Field] = {
     "[module] cold_face_temperature": _F("temperature", "cold-face temperature to reach (or current)"),
     "[module] cold_side_resistance": _F("thermal_resistance", "cold faces to the load, the whole stage"),
     "[module] hot_side_limit": _F("temperature", "hottest hot face the modules allow"),
+    "[module] size": _F("lengths", "one module's footprint, along the flow and across (with positions)"),
+    "[module] positions": _F("placements", "each module's centre, as a source's at (one per module; "
+                                           "instead of [heat])"),
     # [circuit]
     "[circuit] part": _F("parts", "the parts around the plate in flow order, one [[circuit.part]] each"),
     "[circuit] back_pressure": _F("pressure", "gauge pressure held at the outlet"),

@@ -25,7 +25,7 @@ from coldplate.design.fields import Table, check_range, nearest
 from coldplate.design.ranges import INTERFACE_RESISTANCE, RANGES
 from coldplate.modules.reader import Module, read_module
 from coldplate.air.reader import Air, read_air
-from coldplate.plate.sources import Source, centred_source, read_sources
+from coldplate.plate.sources import Source, centred_source, place_modules, read_sources
 from coldplate.design.units import parse_value, quoted
 
 # ---------------------------------------------------------------- dataclasses
@@ -275,8 +275,13 @@ def design_from_dict(data: dict) -> Design:
     if "source" in data and "heat" in data:
         raise DesignError("[[source]]", "give the heat either as [heat] (one centred source) or as [[source]] "
                                         "tables, not both")
+    placed = isinstance(data.get("module"), dict) and bool({"positions", "size"} & set(data["module"]))
+    if placed and ("heat" in data or "source" in data):
+        which = "[heat]" if "heat" in data else "[[source]]"
+        raise DesignError("[module] positions", f"placed modules are the plate's heat sources: remove {which} "
+                                                "(or remove size and positions and give [heat] footprint)")
     for name in _TOP[1:-1]:
-        if name not in data and not (name == "heat" and "source" in data):
+        if name not in data and not (name == "heat" and ("source" in data or placed)):
             raise DesignError(f"[{name}]", "table is missing" + (" (or give [[source]] tables)" if name == "heat" else ""))
 
     plate = _plate(Table(data["plate"], "plate", KEYS["plate"]))
@@ -288,6 +293,10 @@ def design_from_dict(data: dict) -> Design:
                                             "footprint as [heat] footprint")
         sources = read_sources(data["source"], plate.length, plate.width, interface.resistance_area,
                                interface.described_as)
+        heat = _sources_stand_in(sources)
+    elif module is not None and module.placed:
+        sources = place_modules(module.size, module.positions, plate.length, plate.width,
+                                interface.resistance_area, interface.described_as)
         heat = _sources_stand_in(sources)
     else:
         heat = _heat(Table(data["heat"], "heat", KEYS["heat"]), plate, module is not None)

@@ -115,6 +115,9 @@ def value_schema(name: str, f: Field) -> dict:
         s = {"type": "boolean"}
     elif kind in ("lengths", "offsets"):
         s = {"type": "array", "items": _unit_string("length"), "minItems": 2, "maxItems": 2}
+    elif kind == "placements":
+        pair = {"type": "array", "items": _unit_string("length"), "minItems": 2, "maxItems": 2}
+        s = {"type": "array", "items": pair, "minItems": 1}
     elif kind == "hours":
         s = {"anyOf": [{"type": "number", "exclusiveMinimum": 0}, _unit_string("time")]}
     elif kind == "days":
@@ -176,11 +179,12 @@ def design_schema() -> dict:
                         "description": "heat sources on the mounting face, one [[source]] table each "
                                        "(instead of [heat])"} if table == "source" else t
     # the reader's own list: every table of _TOP but the title and [correlations] is required ([heat] or
-    # [[source]]: the anyOf below)
+    # [[source]], or [module] with positions: the anyOf below)
     required = ["title"] + [t for t in reader._TOP[1:-1] if t != "heat"]
     return {"$schema": DRAFT, "title": "coldplate design file", "type": "object", "properties": props,
             "required": required, "additionalProperties": False,
-            "anyOf": [{"required": ["heat"]}, {"required": ["source"]}],
+            "anyOf": [{"required": ["heat"]}, {"required": ["source"]},
+                      {"required": ["module"], "properties": {"module": {"required": ["positions"]}}}],
             "not": {"required": ["heat", "source"]}}
 
 

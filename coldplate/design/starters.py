@@ -82,6 +82,22 @@ SCENARIOS: dict[str, tuple[str, list]] = {
         ("supply", [("source", "potable"), ("hours_per_day", 10), ("static_pressure", "3.5 bar")]),
         ("room", [("temperature", "23 degC"), ("relative_humidity", "45 %")]), _MODEL,
     ]),
+    "placed-modules": ("Two thermoelectric modules, each placed where its cold stage sits, pump 15 W into a copper "
+                       "channel plate on tap water; each gets its own hot face from the plate's field (an invented "
+                       "module, no product's datasheet: change every value to your own).", [
+        ("title", "Two placed thermoelectric modules on a channel plate"),
+        ("module", [("max_current", "6 A"), ("max_voltage", "15 V"), ("max_temperature_difference", "68 K"),
+                    ("rated_hot_side", "27 degC"), ("count", 2), ("wiring", "series"), ("cold_load", "15 W"),
+                    ("current", "3 A"), ("cold_side_resistance", "0.1 K/W"), ("hot_side_limit", "80 degC"),
+                    ("size", ["40 mm", "40 mm"]), ("positions", [["25 mm", "20 mm"], ["75 mm", "-20 mm"]])]),
+        ("interface", [("conductivity", "5 W/(m*K)"), ("thickness", "0.05 mm")]),
+        ("plate", [("material", "copper"), ("length", "100 mm"), ("width", "90 mm"), ("base", "4 mm")]),
+        ("passage", [("kind", "channels"), ("count", 14), ("width", "2.5 mm"), ("depth", "5 mm"),
+                     ("plenum_length", "6 mm"), ("port_diameter", "8 mm")]),
+        ("coolant", [("fluid", "water"), ("inlet_temperature", "16 degC"), ("flow", "1.2 L/min")]),
+        ("supply", [("source", "potable"), ("hours_per_day", 10), ("static_pressure", "3.5 bar")]),
+        ("room", [("temperature", "23 degC"), ("relative_humidity", "45 %")]), _MODEL,
+    ]),
     "circuit": ("A power stage rejects 100 W into a copper channel plate; the tap's pressure pushes the water "
                 "through a backflow preventer, a hose and a valve to a floor sink (an invented scenario: change "
                 "every value to your own).", [

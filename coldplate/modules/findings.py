@@ -66,10 +66,16 @@ def target_unreachable(r):
 def hot_face_limit(r):
     m = r.module
     if m is not None and m.T_hot > m.hot_side_limit:
+        over = [p for p in m.placed if p.limit_margin < 0]
+        if over:
+            names = ", ".join(f"{p.name} ({degc(p.T_hot)})" for p in over)
+            text = f"The hot face of {names} is above the modules' rated maximum of {degc(m.hot_side_limit)}"
+        else:
+            text = (f"The modules' hot face reaches {degc(m.T_hot)}, above their rated maximum of "
+                    f"{degc(m.hot_side_limit)}")
         yield Finding(
             "module-hot-face-above-rating", "warning",
-            f"The modules' hot face reaches {degc(m.T_hot)}, above their rated maximum of {degc(m.hot_side_limit)}: "
-            "solder joints and the thermoelectric material age fast or fail.",
+            f"{text}: solder joints and the thermoelectric material age fast or fail.",
             "Lower the current, raise the flow or use colder water, or improve the plate and the interface "
             "under the modules.")
 

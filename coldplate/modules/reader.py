@@ -12,7 +12,8 @@ from dataclasses import dataclass
 
 from coldplate.modules import model as te
 from coldplate.design.errors import DesignError
-from coldplate.design.fields import Table
+from coldplate.design.fields import Table, check_range
+from coldplate.design.ranges import RANGES
 from coldplate.design.units import quoted
 
 WIRINGS = ("series", "parallel", "series-parallel")
@@ -32,7 +33,7 @@ _DATASHEET_KEYS = ("max_voltage", "max_temperature_difference", "rated_hot_side"
 _DIRECT_KEYS = ("seebeck", "resistance", "conductance")
 #: Every key [module] may hold (a misspelt key is named as unknown, with the nearest known one).
 _KEYS = ("max_current", *_DATASHEET_KEYS, *_DIRECT_KEYS, "count", "wiring", "strings", "cold_load", "current",
-         "cold_face_temperature", "cold_side_resistance", "hot_side_limit")
+         "cold_face_temperature", "cold_side_resistance", "hot_side_limit", "size", "positions")
 
 
 @dataclass(frozen=True)
@@ -55,6 +56,15 @@ class Module:
     max_temperature_difference: float | None = None  #: [K]
     rated_hot_side: float | None = None  #: [K]
     max_heat: float | None = None  #: datasheet Q_max at I_max and no temperature difference [W]
+    #: one module's footprint (along the flow, across) [m] when the modules are placed, else None
+    size: tuple[float, float] | None = None
+    #: each module's centre (from the inlet edge, across from the centre line) [m]; empty when not placed
+    positions: tuple[tuple[float, float], ...] = ()
+
+    @property
+    def placed(self) -> bool:
+        """Whether each module has its own position on the plate (``size`` and ``positions``)."""
+        return bool(self.positions)
 
     @property
     def described_as(self) -> str:
@@ -106,8 +116,42 @@ def read_module(data) -> Module:
         target = t.value("cold_face_temperature", "temperature")
     R_cold = t.value("cold_side_resistance", "thermal_resistance", required=False, default=0.0)
     limit = t.value("hot_side_limit", "temperature", required=False, default=DEFAULT_HOT_SIDE_LIMIT)
+    size, positions = _placement(t, count, which)
     t.finish()
-    return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra)
+    return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra,
+                  size=size, positions=positions)
+
+
+def _placement(t: Table, count: int, which: str):
+    """``size`` and ``positions`` (both or neither): one module's footprint and each module's centre [m].
+
+    Whether they fit the plate and keep apart is checked with the plate (coldplate.plate.sources.place_modules).
+    """
+    if t.has("size") != t.has("positions"):
+        missing = "positions" if t.has("size") else "size"
+        raise DesignError(t.field(missing), "is missing: placed modules need both size (one module's footprint) "
+                                            "and positions (each module's centre)")
+    if not t.has("size"):
+        return None, ()
+    from coldplate.plate.sources import read_pair
+
+    a, b, size_raw = read_pair(t.raw("size"), t.field("size"))
+    for v, what, r in ((a, "along the flow", size_raw[0]), (b, "across", size_raw[1])):  # as a source's size
+        check_range(t.field("size") + f" ({what})", r, v, "length", RANGES["[heat] footprint"])
+    if a <= 0 or b <= 0:
+        raise DesignError(t.field("size"), "both lengths must be above zero")
+    raw = t.raw("positions")
+    if not isinstance(raw, list) or not raw:
+        raise DesignError(t.field("positions"), "must be an array of module centres, each [along, across], "
+                                                "e.g. [[\"20 mm\", \"0 mm\"], [\"50 mm\", \"0 mm\"]]")
+    if len(raw) != count:
+        raise DesignError(t.field("positions"), f"gives {len(raw)} position(s) for count = {count} modules: give "
+                                                "one centre per module")
+    if which != "current":
+        raise DesignError(t.field("positions"), "placed modules are solved at a given drive current: give "
+                                                "[module] current instead of cold_face_temperature")
+    positions = tuple(read_pair(p, f"{t.field('positions')} (module {i})")[:2] for i, p in enumerate(raw, 1))
+    return (a, b), positions
 
 
 def _physical(t: Table, direct: bool, S: float, R: float, K: float, T_rated: float | None) -> None:

@@ -18,6 +18,22 @@ class ModuleSweep:
 
 
 @dataclass(frozen=True)
+class PlacedModule:
+    """One placed module's operating point (model "field"; coldplate.modules.placed)."""
+
+    name: str  #: "module 1", "module 2", ... in the order of [module] positions
+    at: tuple[float, float]  #: its centre (from the inlet edge, across from the centre line) [m]
+    T_hot: float  #: hot face: the field's hottest face under this module [K]
+    T_cold: float  #: cold face [K]
+    Q_hot: float  #: heat into the plate [W]
+    Q_cold: float  #: heat pumped from the cold stage (the array's cold load shared equally) [W]
+    voltage: float  #: [V]
+    power: float  #: electrical power [W]
+    runaway_slope: float  #: c1 times the row sum of the field's coupling: its face's rise per kelvin of all [-]
+    limit_margin: float  #: hot_side_limit - T_hot [K] (negative: over the rating)
+
+
+@dataclass(frozen=True)
 class ModuleResult:
     """The thermoelectric array solved together with the plate at its real hot-side heat."""
 
@@ -54,3 +70,7 @@ class ModuleResult:
     #: the field's resistance over the network's at the modules' heat, the scale the module solve ran the
     #: network with (model "field"; None on the network; coldplate.modules.solve.solve_with_module_field)
     field_scale: float | None = None
+    #: each placed module's operating point (empty unless the modules are placed and solved on the field); the
+    #: headline figures above are then the worst module's (hottest hot face, warmest cold face), the sums the
+    #: array's
+    placed: tuple[PlacedModule, ...] = ()

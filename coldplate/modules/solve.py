@@ -42,6 +42,11 @@ ASSUMPTIONS = (
     "all modules run at the same faces and current",
 )
 
+#: The network cannot resolve where each placed module sits (coldplate.modules.placed solves them on the field).
+PLACED_ON_NETWORK = ("placed modules on the resistance network: solved as one lumped array, the heat shared "
+                     "equally, at the network's cautious hottest face of the several sources (their positions "
+                     "are not resolved one by one; --model field gives each module its own hot face)")
+
 
 class _Runaway(Exception):
     def __init__(self, slope: float):
@@ -236,7 +241,8 @@ def _sweep(design, line: PlateLine):
 def solve_with_module(design, plate_solver):
     """The design with its ``[module]`` table: the plate result at the modules' heat, with ``.module`` set."""
     pr, mr, methods = module_operating_point(design, plate_solver)
-    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS, methods=pr.methods + methods)
+    placed = (PLACED_ON_NETWORK,) if design.module.placed else ()
+    return replace(pr, module=mr, assumptions=pr.assumptions + ASSUMPTIONS + placed, methods=pr.methods + methods)
 
 
 def first_load(design) -> float:

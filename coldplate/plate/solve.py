@@ -156,7 +156,7 @@ def network_sources(d: Design, op: OperatingPoint, Q: float, L_cool: float, h_ef
     whose own spreading the centred series understates (the field model places it; measured in
     tests/test_field_check.py on the three-source case).
     No mean face (NaN), no grid uncertainty.  Loads scale with ``Q`` when the solve's load differs from the
-    sources' total."""
+    sources' total; placed modules (no loads given) share ``Q`` by area."""
     sources = d.sources
     total = sum(s.load for s in sources)
     scale = Q / total if total > 0 and math.isfinite(total) else 1.0
@@ -164,7 +164,10 @@ def network_sources(d: Design, op: OperatingPoint, Q: float, L_cool: float, h_ef
         s = sources[0]
         return (SourceOutcome(s.name, Q, T_face_max, math.nan, s.limit, (x_hot, s.at[1]), math.nan),)
     mcp = op.m_dot * op.props.cp
-    loads = [s.load * scale for s in sources]
+    if math.isfinite(total):
+        loads = [s.load * scale for s in sources]
+    else:  # placed modules, whose heat the module solve sets: shared by area (equal for equal modules)
+        loads = [Q * s.area / sum(o.area for o in sources) for s in sources]
     rises = []  # each source's spreading rise at its own centroid [K]: the most it can put anywhere
     for s, q in zip(sources, loads):
         own = conduction.spreading_MCY(L_cool, d.plate.width, min(s.size[0], L_cool), s.size[1], d.plate.base,

@@ -72,14 +72,18 @@ def centred_source(load: float, footprint_length: float, footprint_width: float,
                   interface, described_as)
 
 
-def _pair(t: Table, key: str) -> tuple[float, float, list]:
-    raw = t.raw(key)
+def read_pair(raw, field: str) -> tuple[float, float, list]:
+    """Two lengths ``[along the flow, across]`` [m], ``field`` naming the key in a refusal."""
     if not isinstance(raw, list) or len(raw) != 2:
-        raise DesignError(t.field(key), "must be an array of two lengths, along the flow and across, "
-                                        "e.g. [\"10 mm\", \"5 mm\"]")
-    a = parse_value(raw[0], "length", t.field(key) + " (along the flow)")
-    b = parse_value(raw[1], "length", t.field(key) + " (across)")
+        raise DesignError(field, "must be an array of two lengths, along the flow and across, "
+                                 "e.g. [\"10 mm\", \"5 mm\"]")
+    a = parse_value(raw[0], "length", field + " (along the flow)")
+    b = parse_value(raw[1], "length", field + " (across)")
     return a, b, raw
+
+
+def _pair(t: Table, key: str) -> tuple[float, float, list]:
+    return read_pair(t.raw(key), t.field(key))
 
 
 def _interface(t: Table, plate_interface: float, plate_described: str) -> tuple[float, str]:
@@ -134,17 +138,35 @@ def read_sources(raw, plate_length: float, plate_width: float, plate_interface: 
         interface, described = _interface(t, plate_interface, plate_described)
         t.finish()
         s = Source(name, load, (a, b), (x, y), interface, described, limit)
-        x0, x1, y0, y1 = s.edges()
-        if not (at_most(0.0, x0) and at_most(x1, plate_length)):
-            raise DesignError(t.field("at"), f"the source runs from x = {x0 * 1e3:.4g} mm to {x1 * 1e3:.4g} mm, past "
-                                             f"the plate's length (0 to {plate_length * 1e3:.4g} mm from the inlet edge)")
-        if not (at_most(-plate_width / 2, y0) and at_most(y1, plate_width / 2)):
-            raise DesignError(t.field("at"), f"the source runs from y = {y0 * 1e3:.4g} mm to {y1 * 1e3:.4g} mm, past "
-                                             f"the plate's edges (±{plate_width / 2 * 1e3:.4g} mm from the centre line)")
-        for other in out:
-            if overlap(s, other):
-                raise DesignError(t.field("at"), f"source {name!r} overlaps source {other.name!r}; sources must not "
-                                                 "share mounting face (touching edges are fine)")
+        _fits(s, out, t.field("at"), "source", f"source {name!r}", plate_length, plate_width)
+        out.append(s)
+    return tuple(out)
+
+
+def _fits(s: Source, placed, field: str, kind: str, label: str, plate_length: float, plate_width: float) -> None:
+    """Refuse ``s`` (called ``label``, a ``kind``) when it leaves the plate or overlaps one already ``placed``."""
+    x0, x1, y0, y1 = s.edges()
+    if not (at_most(0.0, x0) and at_most(x1, plate_length)):
+        raise DesignError(field, f"the {kind} runs from x = {x0 * 1e3:.4g} mm to {x1 * 1e3:.4g} mm, past "
+                                 f"the plate's length (0 to {plate_length * 1e3:.4g} mm from the inlet edge)")
+    if not (at_most(-plate_width / 2, y0) and at_most(y1, plate_width / 2)):
+        raise DesignError(field, f"the {kind} runs from y = {y0 * 1e3:.4g} mm to {y1 * 1e3:.4g} mm, past "
+                                 f"the plate's edges (±{plate_width / 2 * 1e3:.4g} mm from the centre line)")
+    for other in placed:
+        if overlap(s, other):
+            other_label = other.name if kind == "module" else f"{kind} {other.name!r}"
+            raise DesignError(field, f"{label} overlaps {other_label}; {kind}s must not share mounting face "
+                                     "(touching edges are fine)")
+
+
+def place_modules(size: tuple[float, float], positions, plate_length: float, plate_width: float,
+                  interface: float, described_as: str) -> tuple[Source, ...]:
+    """Placed thermoelectric modules as sources named "module 1", "module 2", ... (load NaN: the module solve
+    sets each one's hot-side heat), refused like sources when one leaves the plate or two overlap."""
+    out: list[Source] = []
+    for i, at in enumerate(positions, 1):
+        s = Source(f"module {i}", float("nan"), tuple(size), tuple(at), interface, described_as)
+        _fits(s, out, f"[module] positions (module {i})", "module", s.name, plate_length, plate_width)
         out.append(s)
     return tuple(out)
 

@@ -1,0 +1,160 @@
+"""Thermoelectric modules placed one by one on the plate ([module] size and positions), on the field model.
+
+Sources of the expectations: the module and plate values are computed by our own solver (the lumped array solve
+of coldplate.modules.solve and fresh field solves of coldplate.plate.fieldcheck); the symmetry and the first law
+are laws the answer must keep whatever the numbers (symmetry of the plate about its centre line; energy balance
+of the standard module model, Q_h = Q_c + V I, Ioffe 1957); warmer water downstream is common practice.  Bad
+input follows the project's own input contract (one line naming the field, exit 2).
+"""
+from __future__ import annotations
+
+import json
+
+import pytest
+
+from coldplate.check import solve
+from coldplate.cli import main
+from coldplate.design.reader import design_from_dict
+from coldplate.modules.placed import with_loads
+from coldplate.plate.fieldcheck import solve_plate_field
+
+from .helpers import example_dict, modified, write
+
+PLACED = example_dict("sample-stage-placed-modules")
+LUMPED = example_dict("sample-stage-thermoelectric")
+
+
+def _solve(data):
+    return solve(design_from_dict(data), model="field")
+
+
+@pytest.fixture(scope="module")
+def example():
+    return _solve(PLACED)
+
+
+def test_one_placed_module_matches_the_lumped_field_solve():
+    # computed by our own solver: one module placed on the centred footprint is today's one-module field solve
+    one = modified(LUMPED, module__count=1, module__cold_load="9 W", heat__footprint=["40 mm", "40 mm"])
+    lumped = _solve(one)
+    placed = modified(one, heat=None, module__size=["40 mm", "40 mm"], module__positions=[["35 mm", "0 mm"]])
+    r = _solve(placed)
+    a, b = lumped.module, r.module
+    assert len(b.placed) == 1 and not a.placed
+    assert b.T_hot == pytest.approx(a.T_hot, abs=1e-3)
+    assert b.T_cold == pytest.approx(a.T_cold, abs=1e-3)
+    assert b.Q_hot == pytest.approx(a.Q_hot, abs=1e-4)  # dQ_h/dT_h about 0.04 W/K here (our own solver)
+
+
+def test_modules_placed_symmetrically_about_the_centre_line_have_equal_hot_faces():
+    # symmetry: centred ports, modules mirrored about the centre line
+    r = _solve(modified(PLACED, module__positions=[["50 mm", "22 mm"], ["50 mm", "-22 mm"]]))
+    one, two = r.module.placed
+    assert one.T_hot == pytest.approx(two.T_hot, rel=1e-6)
+    assert one.Q_hot == pytest.approx(two.Q_hot, rel=1e-6)
+
+
+def test_each_hot_face_is_a_fresh_field_solve_at_the_solved_loads(example):
+    # computed by our own solver: the field at the solved hot-side heats, solved again on its own
+    m = example.module
+    loads = [p.Q_hot for p in m.placed]
+    fresh = solve_plate_field(with_loads(example.design, loads), load=sum(loads))
+    assert [s.name for s in fresh.sources] == [p.name for p in m.placed]
+    for s, p in zip(fresh.sources, m.placed):
+        assert s.face_max == pytest.approx(p.T_hot, abs=1e-3), p.name
+    assert m.T_hot == max(p.T_hot for p in m.placed)  # the headline is the worst module
+
+
+def test_first_law_for_each_module_and_the_array(example):
+    # Ioffe 1957 (standard module model): the hot side rejects the heat pumped plus the electrical power
+    m = example.module
+    total_hot = sum(p.Q_hot for p in m.placed)
+    total_in = sum(p.Q_cold + p.voltage * m.current for p in m.placed)
+    assert total_hot == pytest.approx(total_in, rel=1e-9)
+    assert total_hot == pytest.approx(m.Q_hot, rel=1e-9)
+    assert sum(p.Q_cold for p in m.placed) == pytest.approx(m.Q_cold, rel=1e-12)
+    assert [s.load for s in example.sources] == pytest.approx([p.Q_hot for p in m.placed], rel=1e-12)
+
+
+def test_a_module_near_the_outlet_runs_hotter_than_one_near_the_inlet():
+    # common practice: the water warms along the flow (and the entry region cools best)
+    r = _solve(modified(PLACED, module__positions=[["25 mm", "0 mm"], ["75 mm", "0 mm"]]))
+    inlet, outlet = r.module.placed
+    assert outlet.T_hot > inlet.T_hot + 0.1
+    assert outlet.T_cold > inlet.T_cold
+
+
+def test_a_module_over_its_hot_side_limit_is_named(example):
+    # computed by our own solver: a limit between the two hot faces names only the hotter module
+    one, two = example.module.placed
+    limit = 0.5 * (one.T_hot + two.T_hot) - 273.15
+    r = _solve(modified(PLACED, module__hot_side_limit=f"{limit} degC"))
+    hot = max(r.module.placed, key=lambda p: p.T_hot)
+    cool = min(r.module.placed, key=lambda p: p.T_hot)
+    texts = [f.message for f in r.findings if f.id == "module-hot-face-above-rating"]
+    assert len(texts) == 1 and hot.name in texts[0] and cool.name not in texts[0]
+
+
+def test_the_network_solves_placed_modules_as_one_cautious_array():
+    # computed by our own solver: the network's cautious several-source face, stated in the assumptions
+    r = solve(design_from_dict(PLACED), model="network")
+    assert r.module.placed == ()
+    assert r.module.T_hot == pytest.approx(max(s.face_max for s in r.sources), abs=1e-6)
+    assert any("placed modules on the resistance network" in a for a in r.assumptions)
+
+
+BAD = [
+    ("overlap", {"module__positions": [["40 mm", "10 mm"], ["60 mm", "-10 mm"]]},
+     "[module] positions (module 2): module 2 overlaps module 1"),
+    ("leaves the plate", {"module__positions": [["28 mm", "30 mm"], ["72 mm", "-15 mm"]]},
+     "[module] positions (module 1): the module runs from y"),
+    ("count mismatch", {"module__count": 3}, "[module] positions: gives 2 position(s) for count = 3"),
+    ("positions with [heat]", {"heat": {"footprint": ["40 mm", "80 mm"]}}, "[module] positions: "),
+    ("size without positions", {"module__positions": None}, "[module] positions: is missing"),
+    ("a target instead of a current", {"module__current": None, "module__cold_face_temperature": "-5 degC"},
+     "[module] positions: placed modules are solved at a given drive current"),
+]
+
+
+@pytest.mark.parametrize("name, changes, needle", BAD, ids=[b[0] for b in BAD])
+def test_bad_placement_one_line_exit_2(tmp_path, capsys, name, changes, needle):
+    # the project's input contract: one line naming the field, exit 2, no traceback
+    path = write(tmp_path, modified(PLACED, **changes))
+    code = main(["check", str(path)])
+    captured = capsys.readouterr()
+    assert code == 2, captured.err
+    lines = captured.err.strip().splitlines()
+    assert len(lines) == 1 and needle in lines[0], captured.err
+    assert "Traceback" not in captured.err
+
+
+def test_json_lists_each_module(tmp_path, capsys, example):
+    # computed by our own solver: the JSON carries the result's per-module figures, SI-suffixed keys
+    assert main(["check", str(write(tmp_path, PLACED)), "--format", "json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    rows = out["module"]["modules"]
+    assert [r["name"] for r in rows] == ["module 1", "module 2"]
+    for row, p in zip(rows, example.module.placed):
+        assert row["hot_face_temperature_C"] == pytest.approx(p.T_hot - 273.15, abs=1e-6)
+        assert row["cold_face_temperature_C"] == pytest.approx(p.T_cold - 273.15, abs=1e-6)
+        assert row["heat_into_plate_W"] == pytest.approx(p.Q_hot, rel=1e-9)
+        assert row["module_voltage_V"] == pytest.approx(p.voltage, rel=1e-9)
+        assert set(row) >= {"heat_pumped_W", "electrical_power_W", "runaway_slope", "hot_side_limit_margin_K"}
+    assert out["hot_face_temperature_C"] == pytest.approx(max(r["hot_face_temperature_C"] for r in rows))
+
+
+def test_runaway_is_refused_naming_the_worst_module():
+    # closed form (computed): the eigenvalues of the symmetric 2x2 c1 C are c1 (a + c ± sqrt((a - c)^2 + 4 b^2)) / 2
+    import math
+
+    import numpy as np
+
+    from coldplate.design.errors import SolveError
+    from coldplate.modules.placed import _runaway
+
+    a, b, c = 0.5, 0.3, 0.6
+    top = (a + c + math.sqrt((a - c) ** 2 + 4 * b * b)) / 2  # 0.8562 K/W
+    C = np.array([[a, b], [b, c]])
+    _runaway(["module 1", "module 2"], 0.99 / top, C, 3.0)  # radius 0.99: a steady state
+    with pytest.raises(SolveError, match=r"spectral radius of 1\.01.*module 2 is the worst"):
+        _runaway(["module 1", "module 2"], 1.01 / top, C, 3.0)
