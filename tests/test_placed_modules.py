@@ -48,7 +48,8 @@ def test_one_placed_module_matches_the_lumped_field_solve():
 
 def test_modules_placed_symmetrically_about_the_centre_line_have_equal_hot_faces():
     # symmetry: centred ports, modules mirrored about the centre line
-    r = _solve(modified(PLACED, module__positions=[["50 mm", "22 mm"], ["50 mm", "-22 mm"]]))
+    # (the example's plate widened to 90 mm so that two 40 mm modules sit side by side)
+    r = _solve(modified(PLACED, plate__width="90 mm", module__positions=[["47 mm", "22 mm"], ["47 mm", "-22 mm"]]))
     one, two = r.module.placed
     assert one.T_hot == pytest.approx(two.T_hot, rel=1e-6)
     assert one.Q_hot == pytest.approx(two.Q_hot, rel=1e-6)
@@ -78,7 +79,7 @@ def test_first_law_for_each_module_and_the_array(example):
 
 def test_a_module_near_the_outlet_runs_hotter_than_one_near_the_inlet():
     # common practice: the water warms along the flow (and the entry region cools best)
-    r = _solve(modified(PLACED, module__positions=[["25 mm", "0 mm"], ["75 mm", "0 mm"]]))
+    r = _solve(modified(PLACED, module__positions=[["24 mm", "0 mm"], ["70 mm", "0 mm"]]))
     inlet, outlet = r.module.placed
     assert outlet.T_hot > inlet.T_hot + 0.1
     assert outlet.T_cold > inlet.T_cold
