@@ -12,6 +12,7 @@ Conventions used throughout :mod:`hydraulics` and :mod:`coldplate`:
 from __future__ import annotations
 
 import math
+from functools import lru_cache
 
 import numpy as np
 
@@ -115,8 +116,20 @@ def fRe_rectangular_Shah_London(alpha):
                                  * sum_{n odd} tanh(n pi / (2 alpha)) / n^5)]
 
     and Darcy f*Re = 4 * (f Re)_Fanning.  alpha = 0 (parallel plates) gives 96,
-    alpha = 1 (square) 56.91.  Accepts floats or arrays of alpha [-].
+    alpha = 1 (square) 56.91.  Accepts floats or arrays of alpha [-] (a float's value is kept: a plate's
+    channels and headers ask for the same few aspect ratios many times in a solve).
     """
+    if np.ndim(alpha) == 0:
+        return _fRe_rectangular_one(float(alpha))
+    return _fRe_rectangular(alpha)
+
+
+@lru_cache(maxsize=1024)
+def _fRe_rectangular_one(alpha: float) -> float:
+    return _fRe_rectangular(alpha)
+
+
+def _fRe_rectangular(alpha):
     alpha = np.asarray(alpha, dtype=float)
     if np.any(alpha < 0) or np.any(alpha > 1):
         raise ValueError("alpha must lie in [0, 1] (short side / long side)")

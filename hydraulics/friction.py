@@ -8,6 +8,7 @@ turbulent value AT 1e4, so the result is continuous in Re.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
@@ -194,3 +195,75 @@ def darcy_friction(Re, L, D_h, alpha, shape, rel_roughness=0.0) -> FrictionResul
     if np.any(Re > RE_LAMINAR_END):
         used.append(v_turb)
     return FrictionResult(f=_out(f), regime=_regime(Re), methods=tuple(used))
+
+
+class DuctFriction:
+    """:func:`darcy_friction` of one duct whose geometry stays fixed while its Reynolds number changes (a header
+    or a channel through the flow split's Newton steps): the same regimes, correlations and blend, with the
+    parts that depend on the geometry alone (the Shah & London f Re, the sqrt(A) scale of Muzychka & Yovanovich,
+    the transition blend's two ends) computed once, so a call costs a few array operations.
+
+    ``DuctFriction(L, D_h, alpha, shape, rel_roughness)(Re)`` equals
+    ``darcy_friction(Re, L, D_h, alpha, shape, rel_roughness).f`` to round-off (tests/test_friction_fixed.py);
+    build it through :func:`duct_friction`, which keeps one per geometry.  Positive Re only; no records: the
+    caller takes the Validity records from one :func:`darcy_friction` call at its answer.  Laminar rectangle,
+    with r = sqrt(A)/D_h and L+ = L / (D_h r^2 Re) as in :func:`f_apparent_Muzychka_Yovanovich`::
+
+        f = (4 / (r Re)) sqrt(3.44^2 D_h r^2 Re / L + (r fRe_fd / 4)^2)        [-]
+    """
+
+    def __init__(self, L, D_h, alpha, shape, rel_roughness=0.0):
+        if shape not in ("rectangle", "circle"):
+            raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
+        self.L, self.D_h, self.shape = float(L), float(D_h), shape
+        self.rel_roughness = float(rel_roughness)
+        if shape == "rectangle":
+            from hydraulics.ducts import fRe_rectangular_Shah_London, sqrtA_over_Dh
+
+            r = float(sqrtA_over_Dh(alpha))
+            self._c = 4.0 / r
+            self._a = 3.44**2 * self.D_h * r * r / self.L            # zero for a fully developed length (inf)
+            self._b = (r * float(fRe_rectangular_Shah_London(alpha)) / 4.0) ** 2
+        self._lam_end = float(self._laminar(np.asarray(RE_LAMINAR_END)))
+        self._turb_start = float(self._turbulent(np.asarray(RE_TURBULENT_START)))
+
+    def _laminar(self, Re):
+        if self.shape == "circle":
+            return f_apparent_Shah(Re, self.L, self.D_h)
+        return self._c * np.sqrt(self._a * Re + self._b) / Re
+
+    def _turbulent(self, Re):
+        if self.rel_roughness == 0.0:
+            return (0.790 * np.log(Re) - 1.64) ** -2                   # f_Petukhov
+        return f_Colebrook(Re, self.rel_roughness)
+
+    def methods(self, Re) -> tuple[Validity, ...]:
+        """The Validity records :func:`darcy_friction` reports at these Re [-] (laminar where any Re < 1e4,
+        turbulent where any Re > 2300)."""
+        Re = np.asarray(Re, dtype=float)
+        used = []
+        if Re.min() < RE_TURBULENT_START:
+            used.append((f_apparent_Shah if self.shape == "circle" else f_apparent_Muzychka_Yovanovich).validity)
+        if Re.max() > RE_LAMINAR_END:
+            used.append((f_Petukhov if self.rel_roughness == 0.0 else f_Colebrook).validity)
+        return tuple(used)
+
+    def __call__(self, Re):
+        """Darcy friction factor [-] at Re [-] (an array of any shape, every value positive)."""
+        Re = np.asarray(Re, dtype=float)
+        top = Re.max()
+        if top <= RE_LAMINAR_END:                                   # all laminar (the split's usual case)
+            return self._laminar(Re)
+        low = Re.min()
+        lam = self._laminar(np.minimum(Re, RE_LAMINAR_END)) if low <= RE_LAMINAR_END else 0.0
+        turb = self._turbulent(np.maximum(Re, RE_TURBULENT_START)) if top >= RE_TURBULENT_START else 0.0
+        w = np.clip((Re - RE_LAMINAR_END) / (RE_TURBULENT_START - RE_LAMINAR_END), 0.0, 1.0)
+        blend = (1.0 - w) * self._lam_end + w * self._turb_start
+        return np.where(Re <= RE_LAMINAR_END, lam, np.where(Re >= RE_TURBULENT_START, turb, blend))
+
+
+@lru_cache(maxsize=256)
+def duct_friction(L: float, D_h: float, alpha: float, shape: str, rel_roughness: float = 0.0) -> DuctFriction:
+    """The :class:`DuctFriction` of one geometry (kept: a plate's headers and channels keep their geometry from
+    one solve to the next)."""
+    return DuctFriction(L, D_h, alpha, shape, rel_roughness)

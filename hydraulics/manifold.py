@@ -42,12 +42,13 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Callable
 
 import numpy as np
 
 from hydraulics.ducts import aspect_ratio, fRe_rectangular_Shah_London, hydraulic_diameter_rectangle
-from hydraulics.friction import darcy_friction
+from hydraulics.friction import darcy_friction, duct_friction
 from hydraulics.validity import Validity
 
 #: Momentum coefficients k = 2 - theta of the dividing and combining header (momentum theory, theta = 1 and 0;
@@ -229,21 +230,17 @@ class ManifoldResult:
 
 
 class _HeaderLine:
-    """One header as nodes (the channel take-offs and the port) and segments between them, precomputed."""
+    """One header as nodes (the channel take-offs and the port) and segments between them, precomputed: the
+    geometry once per header and channel layout (:func:`_header_geometry`), the fluid's scales per solve."""
 
     def __init__(self, header: Header, y: np.ndarray, port: float, k: float, sign: float, rho, mu,
                  friction_length):
-        self.k, self.sign, self.rho, self.mu = k, sign, rho, mu
-        self.nodes = np.union1d(y, [port])
-        self.channel_node = np.searchsorted(self.nodes, y)        # node index of each channel
-        self.port_node = int(np.searchsorted(self.nodes, port))
-        left = self.nodes[:-1]
-        self.dx = np.diff(self.nodes)
-        self.upto = (y[None, :] <= left[:, None]).astype(float)   # channels at or left of each segment
-        self.port_left = (port <= left).astype(float)             # the port at or left of each segment
-        self.D_h, self.alpha, self.A = header.D_h, header.alpha, header.area
-        self.rel_rough = header.roughness / self.D_h
-        self.L = header.length if friction_length is None else friction_length
+        g = _header_geometry(header, tuple(map(float, y)), float(port), float(k), float(sign), friction_length)
+        self.__dict__.update(g)
+        self.rho, self.mu = rho, mu
+        self._M_momentum = g["_M_momentum_per_rho"] * rho
+        self._friction_scale = (self.dx / self.D_h * rho / 2.0)[:, None]
+        self._Re_scale = self.D_h * rho / mu
 
     def segment_flows(self, Q, total):
         """Flow through each segment toward +y [m^3/s]; ``sign`` +1 for the dividing header, -1 combining.
@@ -251,24 +248,60 @@ class _HeaderLine:
         port_left = self.port_left if np.ndim(Q) == 1 else self.port_left[:, None]
         return self.sign * (total * port_left - self.upto @ Q)
 
-    def pressures(self, Q, total):
-        """Header pressure each channel sees, relative to the port [Pa]; the friction records used; the
-        largest segment Reynolds number.  ``Q`` (N,) gives (N,) pressures; ``Q`` (N, M), M flow sets as columns
-        (the Newton step's finite-difference columns in one call), gives (N, M)."""
+    def pressures(self, Q, total, records=False):
+        """Header pressure each channel sees, relative to the port [Pa]; the friction records used (with
+        ``records``, else none); the largest segment Reynolds number.  ``Q`` (N,) gives (N,) pressures; ``Q``
+        (N, M), M flow sets as columns (the Newton step's finite-difference columns in one call), gives (N, M).
+        Friction factors from the header's :class:`~hydraulics.friction.DuctFriction` (``darcy_friction``
+        with the geometry held); the walk to each take-off by the two matrices of :func:`_walk`."""
         one = np.ndim(Q) == 1
         V = self.segment_flows(Q, total) / self.A
         V = V[:, None] if one else V
-        Re = np.maximum(np.abs(V) * self.D_h * self.rho / self.mu, 1e-9)
-        fr = darcy_friction(Re, self.L, self.D_h, self.alpha, "rectangle", self.rel_rough)
-        friction = (np.asarray(fr.f) * self.dx[:, None] / self.D_h * self.rho * V * np.abs(V) / 2.0)  # toward +y
-        edge = np.zeros((1, V.shape[1]))
-        V2 = np.concatenate((edge, V, edge)) ** 2       # [n] left of node n, [n + 1] right of it
-        P = self.port_node
-        # right of the port the far side of node n is its right segment; left of it, its left segment
-        right = np.cumsum(-friction[P:] - self.k * self.rho * (V2[P + 2:] - V2[P + 1:-1]) / 2.0, axis=0)
-        left = np.cumsum((friction[:P] - self.k * self.rho * (V2[:P] - V2[1:P + 1]) / 2.0)[::-1], axis=0)[::-1]
-        p_far = np.concatenate((left, edge, right))[self.channel_node]
-        return (p_far[:, 0] if one else p_far), fr.methods, float(np.max(Re))
+        Re = np.maximum(np.abs(V) * self._Re_scale, 1e-9)
+        friction = self.friction(Re) * self._friction_scale * V * np.abs(V)            # toward +y
+        p_far = self._M_friction @ friction + self._M_momentum @ (V * V)
+        methods = self.friction.methods(Re) if records else ()
+        return (p_far[:, 0] if one else p_far), methods, float(np.max(Re))
+
+
+@lru_cache(maxsize=64)
+def _header_geometry(header: Header, y: tuple, port: float, k: float, sign: float, friction_length) -> dict:
+    """A header's nodes, segments and walk matrices for channels at ``y`` and the port at ``port`` (kept: a
+    plate's headers keep their layout from one solve to the next; the arrays are read-only)."""
+    y = np.asarray(y)
+    nodes = np.union1d(y, [port])
+    left = nodes[:-1]
+    g = dict(k=k, sign=sign, nodes=nodes, channel_node=np.searchsorted(nodes, y),  # node index of each channel
+             port_node=int(np.searchsorted(nodes, port)), dx=np.diff(nodes),
+             upto=(y[None, :] <= left[:, None]).astype(float),    # channels at or left of each segment
+             port_left=(port <= left).astype(float),              # the port at or left of each segment
+             D_h=header.D_h, alpha=header.alpha, A=header.area, rel_rough=header.roughness / header.D_h,
+             L=header.length if friction_length is None else friction_length)
+    g["friction"] = duct_friction(float(g["L"]), float(g["D_h"]), float(g["alpha"]), "rectangle",
+                                  float(g["rel_rough"]))
+    # the walk from the port to each take-off is linear in the segments' friction terms and their squared
+    # velocities: two fixed matrices (channels x segments), built by walking unit inputs
+    S = g["dx"].size
+    walk = lambda friction, V2: _walk(g["port_node"], g["channel_node"], k, friction, V2)  # noqa: E731
+    g["_M_friction"] = walk(np.eye(S), np.zeros((S + 2, S)))
+    g["_M_momentum_per_rho"] = walk(np.zeros((S, S)), np.concatenate((np.zeros((1, S)), np.eye(S),
+                                                                      np.zeros((1, S)))))
+    for a in g.values():
+        if isinstance(a, np.ndarray):
+            a.flags.writeable = False
+    return g
+
+
+def _walk(P, channel_node, k_rho, friction, V2):
+    """Header pressure at each channel's take-off [Pa] from the segments' friction terms toward +y (S, M) [Pa]
+    and the squared velocities padded with the closed ends (S + 2, M) [m^2/s^2], the port at node ``P``, the
+    momentum coefficient times the density ``k_rho``: right of the port the far side of node n is its right
+    segment, left of it its left segment (Bajura & Jones's momentum term at each take-off,
+    k rho (V_far^2 - V_port^2) / 2)."""
+    edge = np.zeros((1, friction.shape[1]))
+    right = np.cumsum(-friction[P:] - k_rho * (V2[P + 2:] - V2[P + 1:-1]) / 2.0, axis=0)
+    left = np.cumsum((friction[:P] - k_rho * (V2[:P] - V2[1:P + 1]) / 2.0)[::-1], axis=0)[::-1]
+    return np.concatenate((left, edge, right))[channel_node]
 
 
 def _drops(channels, Q):
@@ -279,9 +312,15 @@ def _drops(channels, Q):
     return np.array([float(dp(q)) for dp, q in zip(channels, Q)])
 
 
-def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) -> ManifoldResult:
+def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float,
+                start: ManifoldResult | None = None) -> ManifoldResult:
     """Channel flows that balance the pressures around every loop, for ``total_flow`` [m^3/s] of a fluid of
-    density ``rho`` [kg/m^3] and viscosity ``mu`` [Pa s] (one property set: the split is hydraulic)."""
+    density ``rho`` [kg/m^3] and viscosity ``mu`` [Pa s] (one property set: the split is hydraulic).
+
+    Newton starts from the even split, or from ``start``'s flows (scaled to ``total_flow``) and port-to-port drop:
+    the solved split of a neighbouring problem (the same plate with the other header-friction form) saves a step
+    or two.  Give ``start`` only where the caller always solves the same sequence, so an answer never depends on
+    what was solved before it (both starts meet the same tolerance; the answers differ by round-off of it)."""
     for name, value in (("total flow", total_flow), ("density", rho), ("viscosity", mu)):
         if not (math.isfinite(value) and value > 0):
             raise ValueError(f"{name} must be positive and finite, not {value!r}")
@@ -309,7 +348,13 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
         """The header and the channel parts at ``x``: their difference is the residual; the Jacobian reuses them."""
         return headers(x), channels(x)
 
-    x = np.concatenate((np.ones(n), [1.0]))
+    if start is None:
+        x = np.concatenate((np.ones(n), [1.0]))
+    else:
+        q0 = np.asarray(start.channel_flows, dtype=float)
+        if q0.shape != (n,) or not np.all(q0 > 0):
+            raise ValueError("start must be a split of the same channels with every flow positive")
+        x = np.concatenate((q0 * (n / np.sum(q0)), [start.port_to_port * (total_flow / np.sum(q0)) / p_scale]))
     base_h, base_c = parts(x)
     r = base_h - base_c
     iterations = 0
@@ -348,8 +393,8 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float) ->
     Q = x[:n] * q_mean
     Q = Q * (total_flow / np.sum(Q))           # the mass balance to round-off
     dP = x[n] * p_scale
-    p_in, m_in, Re_in = inlet.pressures(Q, total_flow)
-    p_out_rel, m_out, Re_out = outlet.pressures(Q, total_flow)
+    p_in, m_in, Re_in = inlet.pressures(Q, total_flow, records=True)
+    p_out_rel, m_out, Re_out = outlet.pressures(Q, total_flow, records=True)
     p_out = p_out_rel - dP
     drops = _drops(manifold.channels, Q)
     methods = (HEADER_MODEL,) + tuple(dict.fromkeys(m_in + m_out))

@@ -22,8 +22,23 @@ def test_passage_names_agree_everywhere():
         d = design_from_dict(example_dict(examples[kind]))
         assert d.passage.kind == kind
         assert module.geometry(d.passage, d.plate).kind == kind
-        for name in ("geometry", "back_side", "minor_losses"):
+        for name in ("geometry", "back_side", "back_side_total", "minor_losses"):
             assert callable(getattr(module, name))
+
+
+def test_back_side_total_equals_the_back_side():
+    # Computed by our own functions: the array form the march uses equals back_side's total at each h, for
+    # every passage kind (one h at a time against all at once), to round-off.
+    import numpy as np
+
+    examples = {"channels": "reagent-block-channels", "tube": "laser-mount-tube", "cavity": "detector-cavity-glycol"}
+    h = np.array([150.0, 900.0, 4200.0, 21000.0])
+    for kind, module in PASSAGES.items():
+        d = design_from_dict(example_dict(examples[kind]))
+        g = module.geometry(d.passage, d.plate)
+        one_by_one = [module.back_side(d.passage, d.plate, g, float(x)).total for x in h]
+        assert np.asarray(module.back_side_total(d.passage, d.plate, g, h)) == pytest.approx(one_by_one, rel=1e-13)
+        assert float(module.back_side_total(d.passage, d.plate, g, 900.0)) == pytest.approx(one_by_one[1], rel=1e-13)
 
 
 def test_channel_geometry_by_hand():

@@ -25,6 +25,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import TYPE_CHECKING
 
 import numpy as np
@@ -57,7 +58,8 @@ TOLERANCE_K = 1e-5
 HEADER_PARTS = ("inlet header to the least-fed channel", "outlet header from the least-fed channel")
 
 
-def solve_plate(design: Design, flow: float | None = None, load: float | None = None) -> Result:
+def solve_plate(design: Design, flow: float | None = None, load: float | None = None,
+                split_start=None) -> Result:
     """The plate alone at a volumetric flow [m^3/s] and heat load [W] (the design's own when not given).
 
     Returns a :class:`Result` without findings.  Features that vary the operating point (a flow set by the
@@ -67,7 +69,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     d = design
     Q = d.heat.load if load is None else float(load)
     flow = d.flow if flow is None else float(flow)
-    op = operating_point(d, flow, Q)
+    op = operating_point(d, flow, Q, split_start)
     geom, module, T_in, T_out, pr, cv, h, back = op.geom, op.module, op.T_in, op.T_out, op.props, op.cv, op.h, op.back
     Re, mu_ratio = op.Re, op.mu_ratio
     A_fp = d.heat.footprint_length * d.heat.footprint_width
@@ -93,10 +95,7 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
                          laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated, mu_ratio=mu_ratio,
                          rel_roughness=geom.rel_roughness, mean=cv)
     h_x = np.asarray(cv_x.Nu) * pr.k / geom.D_h
-    h_at, where = np.unique(h_x, return_inverse=True)  # a serpentine has one local value
-    backs = [module.back_side(d.passage, d.plate, geom, float(hx)) for hx in h_at]
-    backs = [backs[i] for i in np.ravel(where)]
-    r_x = A_cool * np.array([bk.total for bk in backs])
+    r_x = A_cool * np.broadcast_to(module.back_side_total(d.passage, d.plate, geom, h_x), np.shape(xg))
     delta = conduction.base_axial_perturbation(xg[1] - xg[0], d.plate.conductivity * d.plate.base,
                                                spread.cooled_flux_centreline(xg), r_x, r_mean)
     frac = (np.asarray(spread.absorbed_fraction(xf)) if geom.single_pass else np.ones_like(xf))
@@ -242,7 +241,7 @@ class OperatingPoint:
         return out
 
 
-def operating_point(design: Design, flow: float, Q: float) -> OperatingPoint:
+def operating_point(design: Design, flow: float, Q: float, split_start=None) -> OperatingPoint:
     """The coolant's state, the passage's flow and heat transfer at its mean, and the pressure drop for a
     volumetric flow [m^3/s] and heat load [W] (see :class:`OperatingPoint`)."""
     d = design
@@ -290,7 +289,7 @@ def operating_point(design: Design, flow: float, Q: float) -> OperatingPoint:
     split = None
     rise_scale = 1.0
     if d.passage.kind == "channels":
-        split = solve_channel_split(d.passage, d.plate, geom, pr, d.model, m_dot / pr.rho)
+        split = solve_channel_split(d.passage, d.plate, geom, pr, d.model, m_dot / pr.rho, split_start)
     if split is not None:
         rise_scale = 1.0 / split.min_to_mean
         q_least = float(np.min(split.flows.channel_flows))
@@ -308,10 +307,16 @@ def operating_point(design: Design, flow: float, Q: float) -> OperatingPoint:
         dp_f, losses = _split_pressure_parts(d, geom, pr, split, module.minor_losses(d.passage, d.plate, geom,
                                                                                       V_mean, Re, float(fr.f)))
     dp = dp_f + total_pressure_drop(losses, pr.rho)
-    T_dew = psychro.condensation_point(d.room.temperature, d.room.relative_humidity)
+    T_dew = _condensation_point(d.room.temperature, d.room.relative_humidity)
     dew_kind = "dew point" if T_dew >= 273.15 else "frost point"
     return OperatingPoint(d, geom, module, flow, Q, T_in, T_out, T_boil, pr, m_dot, mu_ratio, V, Re, fr, cv, h,
                           back, iteration, dp, dp_f, losses, T_dew, dew_kind, split)
+
+
+@lru_cache(maxsize=64)
+def _condensation_point(T: float, RH: float) -> float:
+    """psychro.condensation_point, kept per room (every solve of a design asks for the same room)."""
+    return psychro.condensation_point(T, RH)
 
 
 def _split_pressure_parts(d, geom, pr, split, mean_losses):

@@ -6,8 +6,9 @@ flow) × the plenum depth (``plenum_depth``, the channel depth unless given), th
 sit at ``inlet_port`` / ``outlet_port`` across the plate (offsets from the centre line, positive on the left of
 the flow: the drawing in :mod:`coldplate.plate.sources`; the manifold's positive side is the side of the last
 channel, the same side).  Each channel's drop at its own flow is the check's own chain
-(:func:`coldplate.plate.flow.passage_friction`, the hydraulic half of ``passage_flow``: apparent friction, laminar developing to turbulent, Darcy-Weisbach
-through :func:`~coldplate.plate.flow.friction_pressure_drop`) plus its contraction from the inlet plenum and
+(the friction of :func:`coldplate.plate.flow.passage_friction`, the hydraulic half of ``passage_flow``: apparent
+friction, laminar developing to turbulent, evaluated by :func:`hydraulics.friction.duct_friction` with the
+channel's geometry held; Darcy-Weisbach through :func:`~coldplate.plate.flow.friction_pressure_drop`) plus its contraction from the inlet plenum and
 expansion into the outlet plenum (:func:`coldplate.plate.passages.channels.loss_coefficients`); the ports'
 own losses are added outside the network (port to plenum, at the port's velocity), so nothing is counted twice.
 
@@ -20,13 +21,15 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
+from hydraulics.friction import duct_friction
 from hydraulics.manifold import Header, Manifold, ManifoldError, ManifoldResult, solve_split
 
 from coldplate.design.errors import SolveError
-from coldplate.plate.flow import friction_pressure_drop, passage_friction
+from coldplate.plate.flow import friction_pressure_drop
 from coldplate.plate.passages import channels as channel_passage
 
 
@@ -42,11 +45,12 @@ class ChannelDrop:
     takes_arrays = True  #: q may be an array (hydraulics.manifold calls it once for all channels)
 
     def __call__(self, q):
-        g = self.geom
-        V, _, fr = passage_friction(self.pr.rho * np.asarray(q, dtype=float), self.pr, g.flow_area, g.D_h, g.alpha,
-                                    g.shape, g.path_length, g.rel_roughness)
-        return friction_pressure_drop(np.asarray(fr.f), g.path_length, g.D_h, self.pr.rho, V) + self.K_channel \
-            * 0.5 * self.pr.rho * V**2
+        # the check's friction (darcy_friction, through passage_friction) with the channel's geometry held:
+        # its DuctFriction, equal to round-off and a few array operations a call (the split calls this often)
+        g, pr = self.geom, self.pr
+        V = np.asarray(q, dtype=float) / g.flow_area
+        f = duct_friction(g.path_length, g.D_h, g.alpha, g.shape, g.rel_roughness)(pr.rho * V * g.D_h / pr.mu)
+        return friction_pressure_drop(f, g.path_length, g.D_h, pr.rho, V) + self.K_channel * 0.5 * pr.rho * V**2
 
 
 @dataclass(frozen=True)
@@ -57,6 +61,8 @@ class Split:
 
     flows: ManifoldResult
     drop: ManifoldResult
+    #: both solves: the header friction developing over the header's length, and fully developed
+    forms: tuple[ManifoldResult, ManifoldResult] = ()
 
     @property
     def min_to_mean(self) -> float:
@@ -96,27 +102,40 @@ def channel_loss_coefficient(passage, plate) -> float:
 
 def build_manifold(passage, plate, geom, pr, model, friction_length=None) -> Manifold:
     """The design's headers and channels as a :class:`hydraulics.manifold.Manifold`."""
-    header = Header(length=plate.width, depth=passage.header_depth, width=passage.plenum_length,
-                    roughness=passage.roughness)
-    drop = ChannelDrop(pr, geom, model, channel_loss_coefficient(passage, plate))
-    inlet_port, outlet_port = port_offsets(passage)
-    return Manifold(header, header, channel_positions(passage, plate), (drop,) * passage.count,
+    header, positions, K, (inlet_port, outlet_port) = _layout(passage, plate)
+    drop = ChannelDrop(pr, geom, model, K)
+    return Manifold(header, header, positions, (drop,) * passage.count,
                     inlet_port=inlet_port, outlet_port=outlet_port, friction_length=friction_length)
 
 
-def solve_channel_split(passage, plate, geom, pr, model, flow: float) -> Split | None:
+@lru_cache(maxsize=64)
+def _layout(passage, plate):
+    """The parts of the manifold that the plate's geometry alone fixes (kept: every solve of one design asks
+    again): the header, the channels' positions, their loss coefficient and the ports' offsets."""
+    header = Header(length=plate.width, depth=passage.header_depth, width=passage.plenum_length,
+                    roughness=passage.roughness)
+    return header, channel_positions(passage, plate), channel_loss_coefficient(passage, plate), port_offsets(passage)
+
+
+def solve_channel_split(passage, plate, geom, pr, model, flow: float, start: Split | None = None) -> Split | None:
     """The split at total ``flow`` [m^3/s] and properties ``pr``, or None where there is none to solve (one
-    channel, or no plenum: ``plenum_length`` zero leaves no header, and the flow is taken as even)."""
+    channel, or no plenum: ``plenum_length`` zero leaves no header, and the flow is taken as even).
+
+    ``start``: the split of the same plate at a neighbouring operating point, whose two forms start Newton for
+    this one's (:func:`hydraulics.manifold.solve_split`); without it the developing form starts even and the fully
+    developed one from the developing one's answer."""
     if passage.count < 2 or passage.plenum_length <= 0:
         return None
+    first, second = start.forms if start is not None and start.forms else (None, None)
     try:
-        both = [solve_split(build_manifold(passage, plate, geom, pr, model, fl), flow, pr.rho, pr.mu)
-                for fl in (None, math.inf)]
+        developing = solve_split(build_manifold(passage, plate, geom, pr, model), flow, pr.rho, pr.mu, start=first)
+        both = (developing, solve_split(build_manifold(passage, plate, geom, pr, model, math.inf), flow, pr.rho,
+                                        pr.mu, start=second or developing))
     except ManifoldError as exc:
         raise SolveError(f"the flow split across the channels could not be solved: {exc}") from None
     flows = min(both, key=lambda m: m.min_to_mean)
     drop = max(both, key=lambda m: m.port_to_port)
-    return Split(flows=flows, drop=drop)
+    return Split(flows=flows, drop=drop, forms=both)
 
 
 def least_fed_loop(m: ManifoldResult) -> tuple[int, float, float]:

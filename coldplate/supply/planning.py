@@ -86,10 +86,11 @@ def _root(m, lo, hi) -> float:
     return float(brentq(m, lo, hi, xtol=1e-14, rtol=RTOL))
 
 
-def plan(design, V_op: float, load: float | None = None) -> PlanningResult:
-    """Planning at the operating flow V_op [m^3/s], with the plate at ``load`` [W] (the design's own if None)."""
+def plan(design, V_op: float, load: float | None = None, plate: PlateAt | None = None) -> PlanningResult:
+    """Planning at the operating flow V_op [m^3/s], with the plate at ``load`` [W] (the design's own if None);
+    ``plate`` the plate's solves so far at that load (shared with the operating point), else a new one."""
     s = design.supply
-    plate = PlateAt(design, load)
+    plate = PlateAt(design, load) if plate is None else plate
     V_min = least_flow(plate, V_op)
     per_year = s.seconds_per_year
     m3 = V_op * per_year

@@ -30,15 +30,16 @@ def supply_stage(design, load: float | None = None):
 
     if design.circuit is None and not wants_planning(design):
         return None, lambda result: result
-    from coldplate.supply.operating import circuit_methods, operate
+    from coldplate.supply.operating import PlateAt, circuit_methods, operate
     from coldplate.supply.planning import plan
 
-    circuit = operate(design, load) if design.circuit is not None else None
+    plate = PlateAt(design, load)  # one set of plate solves for the operating point and planning
+    circuit = operate(design, load, plate) if design.circuit is not None else None
     flow = circuit.V_dot if circuit is not None else None
 
     def attach(result):
         methods = result.methods + (circuit_methods(design, circuit, result) if circuit is not None else ())
-        planning = plan(design, result.V_dot, load) if wants_planning(design) else None
+        planning = plan(design, result.V_dot, load, plate) if wants_planning(design) else None
         assumptions = result.assumptions + (CIRCUIT_ASSUMPTIONS if circuit is not None else ())
         if planning is not None and load is not None:
             assumptions += (MODULE_PLANNING_ASSUMPTION,)

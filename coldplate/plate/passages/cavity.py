@@ -10,6 +10,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 from hydraulics.losses import MinorLoss, K_sudden_contraction, K_sudden_expansion
 
@@ -35,6 +37,11 @@ def geometry(passage, plate) -> Geometry:
         description_template="open cavity {0} × {1} × {2}, ports {3}",
         description_lengths=(plate.length, w, hgt, passage.port_diameter),
     )
+
+
+def back_side_total(passage, plate, geom: Geometry, h):
+    """The back side's total resistance [K/W] (:func:`back_side`'s total) at ``h`` [W/(m² K)], float or array."""
+    return 1.0 / (np.asarray(h, dtype=float) * (plate.length * plate.width))
 
 
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:

@@ -80,6 +80,14 @@ def fin_areas(count, width, depth, length, wall, k, h):
     return wetted, effective, m, eta
 
 
+def back_side_total(passage, plate, geom: Geometry, h):
+    """The back side's total resistance [K/W] (:func:`back_side`'s total) at coefficients ``h`` [W/(m² K)], a
+    float or a numpy array (the march asks for every point's at once)."""
+    _, effective, _, _ = fin_areas(passage.count, passage.width, passage.depth, geom.path_length,
+                                   wall_thickness(passage, plate), plate.conductivity, h)
+    return 1.0 / (np.asarray(h, dtype=float) * effective)
+
+
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     t_w = wall_thickness(passage, plate)
     area, effective, m, eta = fin_areas(passage.count, passage.width, passage.depth, geom.path_length, t_w,

@@ -101,6 +101,13 @@ def convection(passage, geom: Geometry, h):
     return 1.0 / (h * wetted * (CONTACT_ARC + (1 - CONTACT_ARC) * eta_arc)), m, s, eta_arc
 
 
+def back_side_total(passage, plate, geom: Geometry, h):
+    """The back side's total resistance [K/W] (:func:`back_side`'s total) at ``h`` [W/(m² K)], float or array:
+    the coolant-independent parts once, the convection at every ``h``."""
+    fixed = sum(r for _, r in conduction_parts(passage, plate, geom))
+    return fixed + convection(passage, geom, np.asarray(h, dtype=float))[0]
+
+
 def back_side(passage, plate, geom: Geometry, h: float) -> BackSide:
     do, di = passage.outer_diameter, passage.inner_diameter
     k_tube = materials.material(passage.material).conductivity
