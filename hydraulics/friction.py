@@ -179,8 +179,11 @@ def darcy_friction(Re, L, D_h, alpha, shape, rel_roughness=0.0) -> FrictionResul
     Re = np.asarray(Re, dtype=float)
     if np.any(Re <= 0):
         raise ValueError("Re must be positive")
-    lam_here, v_lam = _laminar_f(np.minimum(Re, RE_LAMINAR_END), L, D_h, alpha, shape)
-    turb_here, v_turb = _turbulent_f(np.maximum(Re, RE_TURBULENT_START), rel_roughness)
+    # each regime's correlation is evaluated only where some Re needs it (the same values otherwise)
+    lam_here, v_lam = (_laminar_f(np.minimum(Re, RE_LAMINAR_END), L, D_h, alpha, shape)
+                       if np.any(Re < RE_TURBULENT_START) else (0.0, None))
+    turb_here, v_turb = (_turbulent_f(np.maximum(Re, RE_TURBULENT_START), rel_roughness)
+                         if np.any(Re > RE_LAMINAR_END) else (0.0, None))
     if np.any((Re > RE_LAMINAR_END) & (Re < RE_TURBULENT_START)):  # the blend's two ends, only where it is used
         w = np.asarray(transition_weight(Re), dtype=float)
         lam_end, _ = _laminar_f(RE_LAMINAR_END, L, D_h, alpha, shape)

@@ -526,13 +526,21 @@ def nusselt(Re, Pr, L, D_h, alpha, shape="rectangle", laminar="muzychka-yovanovi
         raise ValueError("Re must be positive")
     args = (Pr, L, D_h, alpha, shape, heated, mu_ratio, condition)
     w = np.asarray(transition_weight(Re), dtype=float)
-    lam_here, v_lam = _laminar(laminar, np.minimum(Re, RE_LAMINAR_END), *args)
-    lam_end, _ = _laminar(laminar, RE_LAMINAR_END, *args)
-    L_over_D = np.asarray(L, dtype=float) / np.asarray(D_h, dtype=float)
-    turb_here = _turbulent(turbulent, np.maximum(Re, RE_TURBULENT_START), Pr, L_over_D, rel_roughness)
-    turb_start = _turbulent(turbulent, RE_TURBULENT_START, Pr, L_over_D, rel_roughness)
-    blend = (1.0 - w) * np.asarray(lam_end) + w * np.asarray(turb_start)
-    Nu = np.where(Re <= RE_LAMINAR_END, lam_here, np.where(Re >= RE_TURBULENT_START, turb_here, blend))
+    # each regime's correlations are evaluated only where some Re needs them (the same values otherwise)
+    any_laminar, any_turbulent = bool(np.any(Re < RE_TURBULENT_START)), bool(np.any(Re > RE_LAMINAR_END))
+    lam_here, v_lam = _laminar(laminar, np.minimum(Re, RE_LAMINAR_END), *args) if any_laminar else (0.0, ())
+    if not any_turbulent:
+        Nu = np.where(Re <= RE_LAMINAR_END, lam_here, 0.0)         # every Re laminar: lam_here, broadcast
+    else:
+        L_over_D = np.asarray(L, dtype=float) / np.asarray(D_h, dtype=float)
+        turb_here = _turbulent(turbulent, np.maximum(Re, RE_TURBULENT_START), Pr, L_over_D, rel_roughness)
+        if any_laminar:
+            lam_end, _ = _laminar(laminar, RE_LAMINAR_END, *args)
+            turb_start = _turbulent(turbulent, RE_TURBULENT_START, Pr, L_over_D, rel_roughness)
+            blend = (1.0 - w) * np.asarray(lam_end) + w * np.asarray(turb_start)
+        else:
+            blend = 0.0
+        Nu = np.where(Re <= RE_LAMINAR_END, lam_here, np.where(Re >= RE_TURBULENT_START, turb_here, blend))
     regime = np.where(Re <= RE_LAMINAR_END, "laminar",
                       np.where(Re >= RE_TURBULENT_START, "turbulent", "transitional"))
     used = []
