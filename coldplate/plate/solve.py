@@ -66,10 +66,16 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     supply circuit, a load set by a thermoelectric module, curves against flow) call this, so every such
     number comes from the same chain as the design check.
     """
-    d = design
-    Q = d.heat.load if load is None else float(load)
-    flow = d.flow if flow is None else float(flow)
-    op = operating_point(d, flow, Q, split_start)
+    Q = design.heat.load if load is None else float(load)
+    flow = design.flow if flow is None else float(flow)
+    return plate_at(design, operating_point(design, flow, Q, split_start))
+
+
+def plate_at(design: Design, op: OperatingPoint) -> Result:
+    """The plate's solve (:func:`solve_plate`) at an operating point already solved (its flow and load): the
+    spreading and the march to the hottest face.  Callers that need only the coolant side (a circuit's pressure
+    at a trial flow) stop at :func:`operating_point`."""
+    d, Q = design, op.load
     geom, module, T_in, T_out, pr, cv, h, back = op.geom, op.module, op.T_in, op.T_out, op.props, op.cv, op.h, op.back
     Re, mu_ratio = op.Re, op.mu_ratio
     A_fp = d.heat.footprint_length * d.heat.footprint_width
@@ -259,22 +265,28 @@ def operating_point(design: Design, flow: float, Q: float, split_start=None) -> 
 
     T_out = T_in + Q / (m_dot * pr_in.cp)
     T_wall = T_out
+    # the wall's viscosity correction (Sieder-Tate) needs the coefficient inside the loop; otherwise only the
+    # properties iterate, and the passage is solved once at the settled ones (the same values)
+    wall = d.model.laminar == "sieder-tate"
+
+    def coolant_side(pr, mu_ratio):
+        V, Re, fr, cv, h = passage_flow(m_dot, pr, total_area, geom.D_h, geom.alpha, geom.shape, geom.path_length,
+                                        geom.heated_length, geom.heated, geom.rel_roughness, d.model, mu_ratio)
+        return V, Re, fr, cv, h, module.back_side(d.passage, d.plate, geom, h)
+
     for iteration in range(1, MAX_ITERATIONS + 1):
         _check_outlet(T_out, T_boil, coolant, p)
         T_mean = 0.5 * (T_in + T_out)
         pr = coolant.props(T_mean, p)
         mu_ratio = 1.0
-        if d.model.laminar == "sieder-tate":
+        if wall:
             mu_ratio = pr.mu / coolant.props(min(T_wall, coolant.upper_limit(p) - 0.5), p).mu
-        V, Re, fr, cv, h = passage_flow(m_dot, pr, total_area, geom.D_h, geom.alpha, geom.shape, geom.path_length,
-                                        geom.heated_length, geom.heated, geom.rel_roughness, d.model, mu_ratio)
-        back = module.back_side(d.passage, d.plate, geom, h)
-        conv = dict(back.parts)["convection"]
+            V, Re, fr, cv, h, back = coolant_side(pr, mu_ratio)
         # outlet from the enthalpy balance H(T_out) = H(T_in) + Q / m_dot (secant on the mean cp)
         H_target = H_in + Q / m_dot
         cp_bar = (enthalpy(coolant, T_out, p) - H_in) / (T_out - T_in) if T_out - T_in > 1e-9 else pr.cp
         T_out_new = T_in + (H_target - H_in) / cp_bar
-        T_wall_new = T_mean + Q * conv
+        T_wall_new = T_mean + Q * dict(back.parts)["convection"] if wall else T_wall
         change = max(abs(T_out_new - T_out), abs(T_wall_new - T_wall) if mu_ratio != 1.0 else 0.0)
         T_out, T_wall = T_out_new, T_wall_new
         if change < TOLERANCE_K:
@@ -283,6 +295,8 @@ def operating_point(design: Design, flow: float, Q: float, split_start=None) -> 
         raise SolveError(f"the outlet temperature did not settle in {MAX_ITERATIONS} iterations "
                          f"(last change {change:.3g} K)")
     _check_outlet(T_out, T_boil, coolant, p)
+    if not wall:
+        V, Re, fr, cv, h, back = coolant_side(pr, mu_ratio)
 
     # --- the flow split across a channel plate's channels: the least-fed channel sets the hot spot (its Re, h and
     # the local march, every channel taken as that one), and its coolant rises by the mean over its flow

@@ -3,9 +3,10 @@
 Three drives (``[supply] drive``): ``flow`` (given; the circuit says what supply pressure it needs),
 ``pressure`` (a static gauge pressure at the supply; the flow is where the circuit's need equals it) and
 ``pump`` (a table of flow and head; the flow is where the fitted pump curve meets the system curve).  The
-plate's pressure drop and outlet temperature at every trial flow come only from
-:func:`coldplate.solve.solve_plate`; the lines from :mod:`hydraulics.circuit`.  Roots are bracketed and found
-with Brent's method (scipy.optimize.brentq), so the answer is solved, not scanned.
+plate's pressure drop and outlet temperature at every trial flow come only from the check's own chain
+(:func:`coldplate.plate.solve.operating_point`, the first step of ``solve_plate``); the lines from
+:mod:`hydraulics.circuit`.  Roots are bracketed and found with Brent's method (scipy.optimize.brentq), so the
+answer is solved, not scanned.
 """
 from __future__ import annotations
 
@@ -21,7 +22,7 @@ from hydraulics.pump import PumpError, PumpTable, intersect, pump_curve
 from coldplate.plate import materials
 from coldplate.design.errors import DesignError
 from coldplate.plate.result import MethodUse
-from coldplate.plate.solve import solve_plate
+from coldplate.plate.solve import operating_point, plate_at
 from coldplate.supply.result import CircuitResult, PumpCurve, SystemCurve
 
 #: Largest flow searched [m^3/s] (the design reader's own limit for a given flow).
@@ -33,29 +34,42 @@ CURVE_POINTS = 13
 
 
 class PlateAt:
-    """solve_plate at trial flows, remembered, with the coolant on each side of the plate."""
+    """The plate at trial flows, remembered, with the coolant on each side of the plate: the coolant side alone
+    (:func:`~coldplate.plate.solve.operating_point`: outlet, mass flow, pressure drop) where that is all a caller
+    needs (the circuit's need at a trial flow, the system curve), the whole solve
+    (:func:`~coldplate.plate.solve.plate_at` on that point: the face) where the face is asked for.  Both are the
+    check's own chain: :func:`~coldplate.plate.solve.solve_plate` is these two steps."""
 
     def __init__(self, design, load: float | None = None):
-        self.design, self.load, self._solve, self._cache = design, load, solve_plate, {}
+        self.design, self.load, self._points, self._plates = design, load, {}, {}
+        self._Q = design.heat.load if load is None else float(load)
         d = design
         pr = d.coolant.props(d.inlet_temperature, d.supply.line_pressure)
         self.upstream = Fluid(pr.rho, pr.mu)
         self.rho_in = pr.rho
 
-    def __call__(self, V_dot: float):
-        """The plate's Result at V_dot, or None when the plate cannot run there (too little flow).
+    def point(self, V_dot: float):
+        """The plate's OperatingPoint at V_dot, or None when the plate cannot run there (too little flow).
 
         A channel plate's flow split starts from the split solved at the nearest flow so far (one to three Newton
         steps fewer): the trial flows of one check come in the same order every time, so its answers do too."""
         key = float(V_dot)
-        if key not in self._cache:
-            solved = [(abs(q - key), q) for q, r in self._cache.items() if r is not None and r.flow_split is not None]
-            start = self._cache[min(solved)[1]].flow_split if solved else None
+        if key not in self._points:
+            solved = [(abs(q - key), q) for q, p in self._points.items() if p is not None and p.split is not None]
+            start = self._points[min(solved)[1]].split if solved else None
             try:
-                self._cache[key] = self._solve(self.design, key, self.load, split_start=start)
+                self._points[key] = operating_point(self.design, key, self._Q, start)
             except DesignError:  # the outlet would boil (or leave the property data): the plate cannot run here
-                self._cache[key] = None
-        return self._cache[key]
+                self._points[key] = None
+        return self._points[key]
+
+    def __call__(self, V_dot: float):
+        """The plate's Result at V_dot (solve_plate's), or None when the plate cannot run there."""
+        key = float(V_dot)
+        if key not in self._plates:
+            p = self.point(key)
+            self._plates[key] = None if p is None else plate_at(self.design, p)
+        return self._plates[key]
 
     def downstream(self, r) -> Fluid:
         pr = self.design.coolant.props(r.T_out, self.design.supply.line_pressure)
@@ -64,7 +78,7 @@ class PlateAt:
     def need(self, V_dot: float) -> float:
         """Gauge pressure the supply must hold to pass V_dot [Pa]; below the plate's least flow, the static part."""
         circuit = self.design.circuit
-        r = self(V_dot) if V_dot > 0 else None
+        r = self.point(V_dot) if V_dot > 0 else None
         if r is None:
             return static_head(circuit, self.upstream, self.upstream)
         return required_pressure(circuit, r.m_dot, self.upstream, self.downstream(r), r.dp)
@@ -127,7 +141,7 @@ def operate(design, load: float | None = None, plate: PlateAt | None = None) -> 
         fit = pump_curve(table)
         qs = np.linspace(table.V_dot[0], table.V_dot[-1], CURVE_POINTS)
         pump = PumpCurve(tuple(map(float, qs)), tuple(fit(q) for q in qs))
-    r = plate(V)
+    r = plate.point(V)
     if r is None:
         field = "[coolant] flow" if d.supply.drive == "flow" else ("[supply] static_pressure" if d.supply.drive ==
                                                                     "pressure" else "[supply] pump_head")
@@ -162,7 +176,7 @@ def system_curve(plate: PlateAt, V_max: float, n: int = CURVE_POINTS) -> SystemC
     """The circuit's need and the plate's drop from zero flow to V_max (flows where the plate boils left out)."""
     rows = [(0.0, plate.need(0.0), 0.0)]
     for q in np.linspace(0.0, V_max, n)[1:]:
-        r = plate(float(q))
+        r = plate.point(float(q))
         if r is not None:
             rows.append((float(q), plate.need(float(q)), r.dp))
     V, need, dp = zip(*rows)
