@@ -8,7 +8,8 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
   evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``,
   ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``, the minor losses)
   with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean and
-  local) and the friction factor are multiplied by the row's correlation factors.  The evaluator agrees with
+  local) and the friction factor are multiplied by the row's correlation factors.  A channel plate's rows carry
+  the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.  The evaluator agrees with
   the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the check's value plus the
   row's change from the nominal row (temperatures) or times its ratio to it (pressure drop), so with every
   spread zero the band is the check itself.
@@ -38,6 +39,7 @@ from coldplate.plate import conduction
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
+from coldplate.plate.flow import passage_friction
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.sizing.evaluate import LOCAL_BLOCK, Evaluator
 from coldplate.sizing.proptable import PropertyState
@@ -141,28 +143,56 @@ def _interface_factor(keys, rows) -> np.ndarray:
 
 def evaluator_rows(design, result, keys, rows) -> dict:
     """Every row through the evaluator's stages, one candidate per row (channels, or the design's tube);
-    anchored to the check."""
+    anchored to the check (:func:`anchored`)."""
     d = design
-    defaults = {"heat.load": d.heat.load, "coolant.inlet_temperature": d.inlet_temperature, "coolant.flow": d.flow,
-                NU_FACTOR: 1.0, F_FACTOR: 1.0}
-    if d.passage.kind == "channels":
-        defaults.update({"passage.width": d.passage.width, "passage.depth": d.passage.depth})
-    c = _columns(keys, rows, defaults)
-    R_area = d.interface.resistance_area * _interface_factor(keys, rows)
-    ev = Evaluator(replace(d, inlet_temperature=float(np.min(c["coolant.inlet_temperature"]))))
-    common = (c["coolant.flow"], c["heat.load"], c["coolant.inlet_temperature"], R_area, c[NU_FACTOR], c[F_FACTOR])
-    if d.passage.kind == "channels":
-        got = evaluate_channel_rows(ev, c["passage.width"], c["passage.depth"], *common)
-    else:
-        got = evaluate_tube_rows(ev, *common)
-    # anchored: the check's value plus each row's change from the nominal row (times its ratio for the drop)
-    face = result.T_face_max + (got.T_face - got.T_face[0])
-    outlet = result.T_out + (got.T_out - got.T_out[0])
-    dp = result.dp * got.dp / got.dp[0]
-    water = result.water_use_L_per_day * c["coolant.flow"] / c["coolant.flow"][0]
+    plate = RowPlate(design, result, keys, rows)
+    c = plate.c
+    got = plate(c["coolant.flow"], c["heat.load"])
+    out = anchored(result, {"face": got.T_face, "outlet": got.T_out, "pressure_drop": got.dp,
+                            "water_use": c["coolant.flow"]})  # the water in proportion to the flow
     bad = ~got.ok
-    return {"face": np.where(bad, np.nan, face), "outlet": np.where(bad, np.nan, outlet),
-            "pressure_drop": np.where(bad, np.nan, dp), "water_use": water}
+    return {name: (v if name == "water_use" else np.where(bad, np.nan, v)) for name, v in out.items()}
+
+
+class RowPlate:
+    """The plate of every row through the evaluator's stages: ``plate(flow, load, idx)`` gives the hottest face,
+    the outlet, the plate's pressure drop and whether the row solves (SimpleNamespace of arrays) for the rows
+    ``idx`` (all when None) at those rows' flows [m³/s] and loads [W].  Every other input of a row (inlet,
+    interface, channel width and depth, the correlation factors) is the row's own, read once from ``rows``.
+
+    Channel plates carry the check's least-fed share of the flow split (``Result.flow_split_min_to_mean``) in
+    every row: the least-fed channel's Reynolds number and coefficient, the coolant's rise under the hot spot
+    over the share, as the check does; the split itself is not solved again per row (the batched header network
+    takes about 1.7 s for 4000 rows here), so a row whose flow or channels differ from the nominal keeps the
+    nominal share.  The pressure drop is the even split's (the rows are anchored to the check's drop by ratio).
+    """
+
+    def __init__(self, design, result, keys, rows):
+        d = self.design = design
+        load = d.module.cold_load if d.module is not None else d.heat.load
+        defaults = {"heat.load": load, "coolant.inlet_temperature": d.inlet_temperature,
+                    "coolant.flow": d.flow if d.flow is not None else result.V_dot, NU_FACTOR: 1.0, F_FACTOR: 1.0}
+        if d.passage.kind == "channels":
+            defaults.update({"passage.width": d.passage.width, "passage.depth": d.passage.depth})
+        self.c = _columns(keys, rows, defaults)
+        self.factor = _interface_factor(keys, rows)
+        self.R_area = d.interface.resistance_area * self.factor
+        self.ev = Evaluator(replace(d, inlet_temperature=float(np.min(self.c["coolant.inlet_temperature"]))))
+        share = getattr(result, "flow_split_min_to_mean", None)
+        self.share = float(share) if d.passage.kind == "channels" and share is not None else 1.0
+        self.evaluations = 0
+
+    def __call__(self, flow, load, idx=None):
+        c = self.c
+        pick = (lambda a: a) if idx is None else (lambda a: a[idx])  # noqa: E731
+        flow, load = np.asarray(flow, dtype=float), np.asarray(load, dtype=float)
+        common = (flow, load, pick(c["coolant.inlet_temperature"]), pick(self.R_area), pick(c[NU_FACTOR]),
+                  pick(c[F_FACTOR]))
+        self.evaluations += 1
+        if self.design.passage.kind == "channels":
+            return evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
+                                         share=self.share)
+        return evaluate_tube_rows(self.ev, *common)
 
 
 def _coolant(ev: Evaluator, flow, Q, T_in):
@@ -180,10 +210,14 @@ def _take(pr: PropertyState, rows) -> PropertyState:
     return PropertyState(pr.rho[rows], pr.mu[rows], pr.cp[rows], pr.k[rows])
 
 
-def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area, nu, ff):
+def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area, nu, ff, share=1.0):
     """Hottest face [K], outlet [K], plate pressure drop [Pa] of N channel-plate candidates, one per row (arrays
     of length N: channel width and depth [m], flow [m³/s], load [W], inlet [K], interface R'' [m² K/W], factors
     on the Nusselt number and the friction factor [-]).  The channel count, plate and base are the design's.
+    ``share``: the least-fed channel's flow over the mean (a number or one per row; 1 = the even split): that
+    channel's flow sets the heat transfer and the coolant's rise under the hot spot is the mean's over it, as in
+    the check; the pressure drop stays the even split's.  Also returned: the mean smeared coefficient ``h_eff``
+    [W/(m² K)] and the heat capacity rate ``mcp`` [W/K] of each row (the several-source faces use them).
 
     The steps of :meth:`coldplate.sizing.evaluate.Evaluator.channels` with every per-flow quantity per row
     (shape (N, 1, 1) throughout, so the evaluator's functions broadcast row by row)."""
@@ -191,6 +225,8 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     col = lambda a: np.asarray(a, dtype=float).reshape(-1, 1, 1)  # noqa: E731
     w, dep, flow, Q, T_in, nu, ff = (col(a) for a in (width, depth, flow, load, T_in, nu, ff))
     N = w.shape[0]
+    share = np.broadcast_to(col(share), w.shape)
+    even = bool(np.all(share == 1.0))
     n = np.full_like(w, float(d.passage.count))
     m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
     passage = SimpleNamespace(count=n, width=w, depth=dep, plenum_length=d.passage.plenum_length)
@@ -202,9 +238,13 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     heated = channel_passage.heated_walls(w, dep).ravel()
     for kind in np.unique(heated):
         r = heated == kind
-        V[r], Re[r], fr, _, h[r] = passage_flow(m_dot[r], _take(pr, r), (n * w * dep)[r], D_h[r], alpha[r],
-                                                "rectangle", L, L, str(kind), d.passage.roughness / D_h[r], d.model)
+        args = (_take(pr, r), (n * w * dep)[r], D_h[r], alpha[r], "rectangle", L, L, str(kind),
+                d.passage.roughness / D_h[r], d.model)
+        V[r], Re[r], fr, _, h[r] = passage_flow((m_dot * share)[r], *args)  # the least-fed channel: heat
         f[r] = fr.f
+        if not even:  # the pressure drop at the mean channel flow (the even split's)
+            V[r], _, fr = passage_friction(m_dot[r], *args[:5], L, args[8])
+            f[r] = fr.f
     h = h * nu
     f = f * ff
     _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
@@ -223,16 +263,18 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
             h_x = np.asarray(cv_x.Nu) * e(pr.k) / e(D_h) * e(nu)
             _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), L, e(wall), d.plate.conductivity, h_x)
             r_x[rows] = (ev.A_cool / (h_x * eff_x))[:, 0]
-    R_plate = ev.plate.rises(np.array([d.plate.base]), h_eff[:, 0, :], s[:, 0, :], r_x)[:, 0, 0]
+    R_plate = ev.plate.rises(np.array([d.plate.base]), h_eff[:, 0, :], (s / share)[:, 0, :], r_x)[:, 0, 0]
     dp = friction_pressure_drop(f, L, D_h, pr.rho, V)
     dyn = 0.5 * pr.rho * V**2
-    for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter):
+    for _, K, ratio in channel_passage.loss_coefficients(n, w, dep, d.plate.width, d.passage.port_diameter,
+                                                         d.passage.plenum_depth):
         dp = dp + K * ratio**2 * dyn
     A_fp = d.heat.footprint_length * d.heat.footprint_width
     R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float), A_fp)
     ok = ok.ravel() & np.isfinite(R_th)
     flat = lambda a: np.asarray(a, dtype=float).ravel()  # noqa: E731
-    return SimpleNamespace(T_face=flat(T_in) + flat(Q) * R_th, T_out=flat(T_out), dp=flat(dp), ok=ok)
+    return SimpleNamespace(T_face=flat(T_in) + flat(Q) * R_th, T_out=flat(T_out), dp=flat(dp), ok=ok,
+                           h_eff=flat(h_eff), mcp=flat(m_dot * pr.cp))
 
 
 def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
@@ -261,7 +303,8 @@ def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
     R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float),
                                             d.heat.footprint_length * d.heat.footprint_width)
     ok = ok & np.isfinite(R_th)
-    return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok)
+    return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok,
+                           h_eff=1.0 / (ev.A_cool * (fixed + r_conv)), mcp=m_dot * pr.cp)
 
 
 def _design_for(design, values: dict):
@@ -301,17 +344,18 @@ def _solve_row(d):
     return solve_plate(d, flow)
 
 
-def anchored(result, out: dict) -> dict:
-    """Rows of the network model moved onto the check's own values (which the field model may have given): the
-    check's value plus each row's change from the nominal row 0 (times its ratio for the pressure drop and the
-    water), as the evaluator's rows are."""
-    face, outlet, dp, water = (out[k] for k in ("face", "outlet", "pressure_drop", "water_use"))
+def anchored(result, out: dict, ratio_keys=("pressure_drop", "water_use")) -> dict:
+    """Rows of the network model (or the evaluator) moved onto the check's own values (which the field model
+    may have given): the check's value plus each row's change from the nominal row 0, times its ratio for the
+    outputs in ``ratio_keys`` (the pressure drop and the water)."""
+    nominal = {"face": result.T_face_max, "outlet": result.T_out, "pressure_drop": result.dp,
+               "water_use": result.water_use_L_per_day}
 
     def times_ratio(value, rows):  # a zero nominal (no water used: a loop) stays the rows' own values
         return value * rows / rows[0] if rows[0] != 0 else rows
 
-    return {"face": result.T_face_max + (face - face[0]), "outlet": result.T_out + (outlet - outlet[0]),
-            "pressure_drop": times_ratio(result.dp, dp), "water_use": times_ratio(result.water_use_L_per_day, water)}
+    return {name: times_ratio(nominal[name], rows) if name in ratio_keys else nominal[name] + (rows - rows[0])
+            for name, rows in out.items()}
 
 
 def check_rows(design, keys, rows) -> dict:
