@@ -40,3 +40,150 @@ def test_rows_carry_the_checks_least_fed_share(name):
     for i, (Q, T, V) in enumerate(rows):
         ri = solve_plate(replace(d, inlet_temperature=T, heat=replace(d.heat, load=Q)), V, Q)
         assert (got.T_face[i] - T) / Q == pytest.approx(ri.R_th, rel=1e-5 if i == 0 else 1e-2)
+
+
+# --------------------------------------------------------------------------- thermoelectric modules
+
+def _module_data(mode="current"):
+    data = example_dict("sample-stage-thermoelectric")
+    if mode == "target":
+        del data["module"]["current"]
+        data["module"]["cold_face_temperature"] = "-5 degC"
+    return data
+
+
+def _module_rows(d):
+    q, T, V = d.module.cold_load, d.inlet_temperature, d.flow
+    return np.array([[q, T, V], [1.1 * q, T + 3, V], [0.9 * q, T - 3, 0.8 * V], [q, T, 1.25 * V], [1.3 * q, T + 6, V]])
+
+
+@pytest.mark.parametrize("mode", ["current", "target"])
+def test_module_rows_equal_repeated_network_checks(mode):
+    # Source: computed by our own solver: each row's design through the network check with its module solve
+    # (solve(..., model="network"), the repeated-check path's own row), against the vectorised coupling.  Without
+    # the flow split (no plenums) the two use the same physics: within the module solve's tolerance and the
+    # evaluator's table interpolation (measured 1e-6 K on the face).
+    from coldplate.uncertainty.propagate import check_rows, module_rows
+
+    d = design_from_dict(_module_data(mode))
+    d = replace(d, passage=replace(d.passage, plenum_length=0.0))
+    rows = _module_rows(d)
+    r = solve_network(d)
+    plate = RowPlate(d, r, KEYS, rows)
+    got = module_rows(d.module, plate, rows[:, 2], rows[:, 0], rows[:, 1])
+    ref = check_rows(d, KEYS, rows)
+    assert got.ok.all()
+    assert got.T_face == pytest.approx(ref["face"], abs=1e-5)
+    assert got.T_out == pytest.approx(ref["outlet"], abs=1e-5)
+    assert got.dp == pytest.approx(ref["pressure_drop"], rel=1e-5)
+    assert plate.evaluations <= 8  # the plate's resistance barely moves with its load: a few steps settle it
+
+
+def solve_network(d):
+    from coldplate.check import solve
+
+    return solve(d, model="network")
+
+
+@pytest.mark.parametrize("mode", ["current", "target"])
+def test_module_band_rows_agree_with_the_repeated_check_on_the_example(mode):
+    # Source: computed by our own solver: the example as it is (a split plate, least-fed share 0.67), both paths
+    # anchored to the same network check.  The rows hold the nominal share, the network check re-solves the split
+    # per row: measured 0.075 K at most on the face (current), 0.03 K (target); dp ratios within 0.15 %.
+    from coldplate.uncertainty.propagate import anchored, check_rows, evaluator_rows
+
+    d = design_from_dict(_module_data(mode))
+    rows = _module_rows(d)
+    r = solve_network(d)
+    a, b = evaluator_rows(d, r, KEYS, rows), anchored(r, check_rows(d, KEYS, rows))
+    assert a["face"][0] == b["face"][0] == r.T_face_max
+    assert a["face"] == pytest.approx(b["face"], abs=0.1)
+    assert a["pressure_drop"] == pytest.approx(b["pressure_drop"], rel=3e-3)
+    assert a["water_use"] == pytest.approx(b["water_use"], rel=1e-12)
+
+
+class _FixedPlate:
+    """A plate of constant resistance R [K/W] above each row's inlet: the coupling's closed form is exact."""
+
+    def __init__(self, R, T_in):
+        self.R, self.T_in, self.evaluations = R, np.asarray(T_in, dtype=float), 0
+
+    def __call__(self, flow, load, idx=None):
+        from types import SimpleNamespace
+
+        self.evaluations += 1
+        T_in = self.T_in if idx is None else self.T_in[idx]
+        Q = np.asarray(load, dtype=float)
+        n = Q.size
+        return SimpleNamespace(T_face=T_in + self.R * Q, T_out=T_in + 0.0 * Q, dp=np.ones(n), ok=np.ones(n, bool),
+                               h_eff=np.ones(n), mcp=np.ones(n))
+
+
+@pytest.mark.parametrize("mode", ["current", "target", "unreachable"])
+def test_module_rows_on_a_plate_of_fixed_resistance(mode):
+    # Source (computed, analytic): on a plate of fixed resistance R the hot face is T_h = (T_in + N R c0) /
+    # (1 − N R c1) (Ioffe's standard model with the hot-side line of coldplate/modules/model.py), the target cold
+    # face is met exactly, and an unreachable target runs at the current of the coldest face, found here by brute
+    # force over 20,001 currents; N R c1 ≥ 1 at the given current is refused (runaway).
+    from coldplate.modules import model as te
+    from coldplate.uncertainty.propagate import module_rows
+
+    data = _module_data("target" if mode != "current" else "current")
+    if mode == "unreachable":
+        data["module"]["cold_face_temperature"] = "-40 degC"
+    m = design_from_dict(data).module
+    T_in = np.array([289.15, 295.0, 280.0, 289.15])
+    q = np.array([18.0, 12.0, 22.0, 18.0])
+    R = np.array([0.05, 0.1, 0.02, 25.0])  # the last row runs away at the example's 3.5 A (N R c1 = 2.2)
+    out = []
+    for i in range(4):
+        plate = _FixedPlate(R[i], T_in[i:i + 1])
+        out.append(module_rows(m, plate, np.ones(1), q[i:i + 1], T_in[i:i + 1]))
+    N = m.count
+    for i, o in enumerate(out[:3]):
+        assert o.ok[0]
+        I = o.current[0]
+        c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I, q[i] / N)
+        T_h = (T_in[i] + N * R[i] * c0) / (1 - N * R[i] * c1)
+        assert o.T_face[0] == pytest.approx(T_h, abs=1e-6)
+        T_c = te.cold_face_temperature(m.S, m.R, m.K, I, q[i] / N, T_h)
+        if mode == "current":
+            assert I == m.current
+        elif mode == "target":
+            assert T_c == pytest.approx(m.cold_face_target, abs=1e-6)
+        else:
+            Is = np.linspace(0.0, m.max_current, 20001)
+            c0s, c1s = te.hot_side_heat_line(m.S, m.R, m.K, Is, q[i] / N)
+            s = N * R[i] * c1s
+            T_hs = (T_in[i] + N * R[i] * c0s) / (1 - s)
+            T_cs = np.where(s < 1, te.cold_face_temperature(m.S, m.R, m.K, Is, q[i] / N, T_hs), np.inf)
+            assert I == pytest.approx(Is[np.argmin(T_cs)], abs=2 * m.max_current / 20000)
+            assert T_c == pytest.approx(T_cs.min(), abs=1e-6)
+    if mode == "current":
+        assert not out[3].ok[0]  # runaway: no steady state
+
+
+def test_module_band_nominal_and_seeded_repeat():
+    # Source: computed by our own solver (internal consistency, determinism): with every spread zero the module
+    # example's band, through the evaluator, is the check's own numbers; a seeded band repeats bit for bit.
+    import copy
+
+    from coldplate.check import solve
+    from coldplate.uncertainty.propagate import propagate
+    from coldplate.uncertainty.reader import UncertaintySpec, Written, read_uncertainty
+
+    data = _module_data()
+    d = design_from_dict(data)
+    r = solve(d)
+    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 300, 1,
+                           0.90)
+    band = propagate(d, r, spec, data)
+    assert band.method == "vectorised evaluator"
+    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
+        for v in (b.low, b.median, b.high):
+            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+    data["uncertainty"] = {"heat.load": "±10 %", "coolant.inlet_temperature": "±3 K", "coolant.flow": "±10 %"}
+    spec = read_uncertainty(data, d)
+    a, b = propagate(d, r, spec, copy.deepcopy(data)), propagate(d, r, spec, copy.deepcopy(data))
+    assert a == b and a.samples == 4000 and a.unsolved == 0
+    assert not any("left out" in n for n in a.notes) and {c[0] for c in a.correlations} == {"Nu", "f"}

@@ -4,17 +4,18 @@ Rows: the nominal (every input at its design value), then each input at its low 
 others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
 
 * **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow, one
-  heat source, no modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows through the sizing
-  evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``,
-  ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``, the minor losses)
-  with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean and
-  local) and the friction factor are multiplied by the row's correlation factors.  A channel plate's rows carry
-  the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.  The evaluator agrees with
-  the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the check's value plus the
-  row's change from the nominal row (temperatures) or times its ratio to it (pressure drop), so with every
-  spread zero the band is the check itself.
-* **repeated check** (cavities, a tube whose size varies, modules, a supply that sets the flow): :func:`check_rows` solves each
-  row's design as the check does (the supply's operating point, the plate, the modules; not the water
+  heat source, with or without thermoelectric modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows
+  through the sizing evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``,
+  ``nusselt_local``, ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``,
+  the minor losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt
+  number (mean and local) and the friction factor are multiplied by the row's correlation factors.  A channel
+  plate's rows carry the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.
+  With modules, :func:`module_rows` couples them to every row's plate in closed form (a few plate evaluations
+  of all rows at once).  The evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
+  each row is reported as the check's value plus the row's change from the nominal row (temperatures) or times
+  its ratio to it (pressure drop), so with every spread zero the band is the check itself.
+* **repeated check** (cavities, a tube whose size varies, a supply that sets the flow): :func:`check_rows`
+  solves each row's design as the check does (the supply's operating point, the plate, the modules; not the water
   planning or the findings, which are not banded) but on the resistance network (the field model would cost
   seconds a row), and :func:`anchored` moves the rows onto the check's own values as the evaluator's rows are,
   at a smaller sample count (200 by default, 64 where each
@@ -35,6 +36,8 @@ import numpy as np
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
 
 from coldplate.design.errors import ColdplateError
+from coldplate.modules import model as te
+from coldplate.modules import solve as module_solve
 from coldplate.plate import conduction
 from coldplate.plate.convection import nusselt_local
 from coldplate.plate.passages import channels as channel_passage
@@ -56,7 +59,7 @@ NU_FACTOR, F_FACTOR = "correlations.Nu", "correlations.f"
 def covered(design, result, keys=()) -> bool:
     """Whether the vectorised evaluator covers this design (else: repeated checks)."""
     d = design
-    return (d.passage.kind in ("channels", "tube") and d.module is None and d.flow is not None
+    return (d.passage.kind in ("channels", "tube") and d.flow is not None
             and d.supply.drive == "flow" and d.model.laminar != "sieder-tate" and len(d.sources) <= 1
             and not (keys and "passage.inner_diameter" in keys))
 
@@ -84,7 +87,7 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
         notes.insert(0, f"{n} samples through the sizing search's vectorised evaluator, anchored to the check")
     else:
         notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
-                        "of fixed size at a given flow, with one heat source and no modules)")
+                        "of fixed size at a given flow, with one heat source, modules or none)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -147,7 +150,10 @@ def evaluator_rows(design, result, keys, rows) -> dict:
     d = design
     plate = RowPlate(design, result, keys, rows)
     c = plate.c
-    got = plate(c["coolant.flow"], c["heat.load"])
+    if d.module is None:
+        got = plate(c["coolant.flow"], c["heat.load"])
+    else:
+        got = module_rows(d.module, plate, c["coolant.flow"], c["heat.load"], c["coolant.inlet_temperature"])
     out = anchored(result, {"face": got.T_face, "outlet": got.T_out, "pressure_drop": got.dp,
                             "water_use": c["coolant.flow"]})  # the water in proportion to the flow
     bad = ~got.ok
@@ -193,6 +199,117 @@ class RowPlate:
             return evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
                                          share=self.share)
         return evaluate_tube_rows(self.ev, *common)
+
+
+#: The rows' hot faces agree with the plate's hottest face at the modules' heat within this [K] (the module
+#: solve's own tolerance, coldplate.modules.solve.TOLERANCE_K).
+MODULE_TOLERANCE_K = module_solve.TOLERANCE_K
+#: Plate evaluations of the rows' module coupling before a row counts as unsolved (three to five settle them on
+#: the examples: the plate's resistance barely moves with its load).
+MODULE_ITERATIONS = 40
+#: Golden-section and bisection steps over the current for a target cold face (closed forms, all rows at once):
+#: 0.618^90 and 0.5^60 of I_max, below any tolerance that matters.
+GOLDEN_STEPS, BISECTION_STEPS = 90, 60
+
+
+def module_rows(m, plate, flow, cold_load, T_in, idx=None):
+    """Thermoelectric modules on every row's plate (``plate``: a :class:`RowPlate`; ``idx`` its rows, all when
+    None; ``flow``, ``cold_load`` (the whole array's) and ``T_in`` of those rows): the plate's figures at the
+    modules' hot-side heat, ``ok`` False where a row has no steady state, boils or does not settle.
+
+    Per row, with the cold-side load q of one module and the current I fixed, the hot-side heat is linear in the
+    hot face, Q_h = c0 + c1 T_h (:func:`coldplate.modules.model.hot_side_heat_line`), so with the plate's
+    resistance R = (T_face − T_in) / Q at the last load the coupled hot face is the closed form
+    T_h = (T_in + N R c0) / (1 − N R c1) of :func:`coldplate.modules.solve.faces_at_resistance`, for every row at
+    once; the plate is evaluated again at the new load N (c0 + c1 T_h) until its hottest face is T_h within
+    :data:`MODULE_TOLERANCE_K` (``couple``'s own test).  N R c1 ≥ 1: the hot side runs away (unsolved, as the
+    check refuses it).  With a target cold face instead of a current, each step first finds the row's current at
+    that R: the coldest current by golden section over [0, I_max], and the current that reaches the target by
+    bisection on [0, coldest] (the check's ``_bisect``); a target below the coldest cold face runs at the coldest
+    current (the check's shortfall), one above the cold face with no current is unsolved (the check refuses it).
+    The check's coldest current is taken on its plate line (R moving with the load along the sweep); here R is
+    the row's at the operating point, a difference of the plate's slight change of R with its load."""
+    n = flow.size
+    N = m.count
+    q = cold_load / N
+    base = np.arange(n) if idx is None else np.asarray(idx)  # the plate's rows
+    flow, q, T_in = (np.asarray(a, dtype=float) for a in (flow, q, T_in))
+    target = m.current is None
+    I = np.full(n, 0.0 if target else float(m.current))
+    # a first load no hotter than the answer: the modules' heat with the hot face at the inlet water
+    c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I, q)
+    Q = N * (q if target else c0 + c1 * T_in)
+    out = SimpleNamespace(T_face=np.full(n, np.nan), T_out=np.full(n, np.nan), dp=np.full(n, np.nan),
+                          ok=np.zeros(n, dtype=bool), h_eff=np.full(n, np.nan), mcp=np.full(n, np.nan),
+                          current=np.full(n, np.nan), Q=np.full(n, np.nan))
+    p = plate(flow, Q, base)
+    live = np.flatnonzero(p.ok & (Q > 0))
+    R_p = np.where(p.ok, (p.T_face - T_in) / np.where(Q > 0, Q, 1.0), np.nan)
+    for _ in range(MODULE_ITERATIONS):
+        if not live.size:
+            break
+        Rl, ql, Tl = R_p[live], q[live], T_in[live]
+        if target:
+            I[live], good = _target_current(m, ql, Tl, Rl)
+        else:
+            good = np.ones(live.size, dtype=bool)
+        c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I[live], ql)
+        slope = N * Rl * c1
+        good &= slope < 1.0  # else the hot side runs away
+        live, Rl, Tl, c0, c1, slope = (a[good] for a in (live, Rl, Tl, c0, c1, slope))
+        T_h = (Tl + N * Rl * c0) / (1.0 - slope)
+        Ql = N * (c0 + c1 * T_h)
+        pl = plate(flow[live], Ql, base[live])
+        done = pl.ok & (np.abs(pl.T_face - T_h) < MODULE_TOLERANCE_K)
+        hit = live[done]
+        for name in ("T_face", "T_out", "dp", "h_eff", "mcp"):
+            getattr(out, name)[hit] = getattr(pl, name)[done]
+        out.ok[hit], out.current[hit], out.Q[hit] = True, I[hit], Ql[done]
+        keep = pl.ok & ~done
+        R_p[live[keep]] = (pl.T_face[keep] - Tl[keep]) / Ql[keep]
+        live = live[keep]
+    return out
+
+
+def _cold_faces(m, I, q, T_in, R_p):
+    """Cold face [K] of one module at currents ``I`` with the hot face coupled to a plate of resistance ``R_p``
+    (arrays of rows); +inf where the hot side runs away."""
+    c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I, q)
+    slope = m.count * R_p * c1
+    with np.errstate(divide="ignore", invalid="ignore"):
+        T_h = (T_in + m.count * R_p * c0) / (1.0 - slope)
+        T_c = te.cold_face_temperature(m.S, m.R, m.K, I, q, T_h)
+    return np.where(slope < 1.0, T_c, np.inf)
+
+
+def _target_current(m, q, T_in, R_p):
+    """Each row's current for the target cold face at plate resistance ``R_p`` (see :func:`module_rows`) and
+    whether the row is solvable."""
+    target = m.cold_face_target
+    cold = lambda I: _cold_faces(m, I, q, T_in, R_p)  # noqa: E731
+    g = (math.sqrt(5.0) - 1.0) / 2.0
+    a, b = np.zeros(q.size), np.full(q.size, m.max_current)
+    c, e = b - g * (b - a), a + g * (b - a)
+    fc, fe = cold(c), cold(e)
+    for _ in range(GOLDEN_STEPS):  # the minimum in [a, e] where f(c) <= f(e), else in [c, b]
+        left = fc <= fe
+        b = np.where(left, e, b)
+        a = np.where(left, a, c)
+        c_new = np.where(left, b - g * (b - a), e)
+        e_new = np.where(left, c, a + g * (b - a))
+        f_new = cold(np.where(left, c_new, e_new))  # the one new point of each row
+        fc, fe = np.where(left, f_new, fe), np.where(left, fc, f_new)
+        c, e = c_new, e_new
+    I_cold = 0.5 * (a + b)
+    T_cold = cold(I_cold)
+    T_none = cold(np.zeros(q.size))
+    lo, hi = np.zeros(q.size), I_cold.copy()
+    for _ in range(BISECTION_STEPS):
+        mid = 0.5 * (lo + hi)
+        above = cold(mid) > target
+        lo, hi = np.where(above, mid, lo), np.where(above, hi, mid)
+    I = np.where(target < T_cold - 1e-6, I_cold, 0.5 * (lo + hi))
+    return I, np.isfinite(T_cold) & (target <= T_none)
 
 
 def _coolant(ev: Evaluator, flow, Q, T_in):
