@@ -187,3 +187,98 @@ def test_module_band_nominal_and_seeded_repeat():
     a, b = propagate(d, r, spec, copy.deepcopy(data)), propagate(d, r, spec, copy.deepcopy(data))
     assert a == b and a.samples == 4000 and a.unsolved == 0
     assert not any("left out" in n for n in a.notes) and {c[0] for c in a.correlations} == {"Nu", "f"}
+
+
+# --------------------------------------------------------------------------- several sources
+
+def _source_rows(d, load, thickness):
+    T, V = d.inlet_temperature, d.flow
+    return np.array([[load, T, V, thickness], [1.1 * load, T + 3, V, thickness], [0.9 * load, T - 3, 0.8 * V, 1.2 * thickness],
+                     [load, T, 1.25 * V, 0.8 * thickness], [0.3 * load, T, 1.25 * V, thickness]])
+
+
+SOURCE_KEYS = KEYS + ["interface.thickness"]
+
+
+def test_several_source_rows_equal_the_network_row_by_row():
+    # Source: computed by our own solver: solve_plate's several-source faces (network_sources: each source's own
+    # spreading at its centroid, every other source's there, its interface, the coolant upstream) row by row,
+    # against the rows' vectorised formula (load, inlet, flow and the interface's thickness moved), without
+    # plenums so both carry the same flow (measured 3e-5 K).
+    from coldplate.uncertainty.propagate import check_rows
+
+    d = design_from_dict(example_dict("three-sources-channels"))
+    d = replace(d, passage=replace(d.passage, plenum_length=0.0))
+    rows = _source_rows(d, d.heat.load, 1e-4)
+    r = solve_plate(d)
+    assert r.T_face_max > max(s.face_max for s in r.sources) - 1e-9 > r.T_plate_max  # the sources set the face
+    plate = RowPlate(d, r, SOURCE_KEYS, rows)
+    got = plate(rows[:, 2], rows[:, 0])
+    ref = check_rows(d, SOURCE_KEYS, rows)
+    assert got.T_face == pytest.approx(ref["face"], abs=2e-4)
+
+
+def test_source_centroid_table_against_the_series():
+    # Source: computed (the Muzychka-Culham-Yovanovich series, coldplate.plate.conduction.spreading_MCY, at
+    # each h): the tabulated centroid rise between nodes, within 1e-6 relative.
+    from coldplate.plate.conduction import spreading_MCY
+    from coldplate.uncertainty.propagate import SourceRows
+
+    d = design_from_dict(example_dict("three-sources-channels"))
+    L = RowPlate(d, solve_plate(d), [], np.empty((1, 0))).ev.plate.a
+    table = SourceRows(d, L)
+    h = np.geomspace(800.0, 40000.0, 23)
+    for i, s in enumerate(d.sources):
+        exact = [spreading_MCY(L, d.plate.width, min(s.size[0], L), s.size[1], d.plate.base, d.plate.conductivity,
+                               float(x)).R_centroid for x in h]
+        assert table._centroid(i, h) == pytest.approx(exact, rel=1e-6)
+
+
+@pytest.mark.parametrize("name", ["three-sources-channels", "sample-stage-placed-modules"])
+def test_several_source_band_rows_agree_with_the_repeated_check(name):
+    # Source: computed by our own solver: the examples as they are (split plates), both paths anchored to the
+    # same network check (the repeated check re-solves the split per row; the rows hold the nominal share):
+    # measured 0.05 K at most on the face, 1.1 % on the drop.  Placed modules: the module coupling on the
+    # several-source face (the network's lumped array, PLACED_ON_NETWORK).
+    from coldplate.uncertainty.propagate import anchored, check_rows, evaluator_rows
+
+    d = design_from_dict(example_dict(name))
+    load = d.module.cold_load if d.module is not None else d.heat.load
+    rows = _source_rows(d, load, 1e-4 if d.module is None else 5e-5)
+    r = solve_network(d)
+    a, b = evaluator_rows(d, r, SOURCE_KEYS, rows), anchored(r, check_rows(d, SOURCE_KEYS, rows))
+    assert a["face"] == pytest.approx(b["face"], abs=0.1)
+    assert a["pressure_drop"] == pytest.approx(b["pressure_drop"], rel=0.02)
+
+
+def test_placed_module_rows_equal_the_network_without_plenums():
+    # Source: computed by our own solver (the network check's module solve on the several-source face, row by
+    # row; no plenums so both carry the same flow): measured 3e-5 K.
+    from coldplate.uncertainty.propagate import check_rows, module_rows
+
+    d = design_from_dict(example_dict("sample-stage-placed-modules"))
+    d = replace(d, passage=replace(d.passage, plenum_length=0.0))
+    rows = _source_rows(d, d.module.cold_load, 5e-5)
+    plate = RowPlate(d, solve_network(d), SOURCE_KEYS, rows)
+    got = module_rows(d.module, plate, rows[:, 2], rows[:, 0], rows[:, 1])
+    ref = check_rows(d, SOURCE_KEYS, rows)
+    assert got.ok.all() and got.T_face == pytest.approx(ref["face"], abs=2e-4)
+
+
+@pytest.mark.parametrize("name", ["three-sources-channels", "sample-stage-placed-modules"])
+def test_several_source_band_is_the_check_with_zero_spread(name):
+    # Source: computed by our own solver (internal consistency): zero spread, the band is the check (field model).
+    from coldplate.check import solve
+    from coldplate.uncertainty.propagate import propagate
+    from coldplate.uncertainty.reader import UncertaintySpec, Written
+
+    data = example_dict(name)
+    d = design_from_dict(data)
+    r = solve(d)
+    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 200, 1,
+                           0.90)
+    band = propagate(d, r, spec, data)
+    assert band.method == "vectorised evaluator"
+    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
+        for v in (b.low, b.median, b.high):
+            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)

@@ -4,14 +4,15 @@ Rows: the nominal (every input at its design value), then each input at its low 
 others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
 
 * **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow, one
-  heat source, with or without thermoelectric modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows
+  heat source or several, with or without thermoelectric modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows
   through the sizing evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``,
   ``nusselt_local``, ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``,
   the minor losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt
   number (mean and local) and the friction factor are multiplied by the row's correlation factors.  A channel
   plate's rows carry the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.
   With modules, :func:`module_rows` couples them to every row's plate in closed form (a few plate evaluations
-  of all rows at once).  The evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
+  of all rows at once); with several sources, :class:`SourceRows` gives every row the network's cautious
+  several-source face (``network_sources``' formula over arrays).  The evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
   each row is reported as the check's value plus the row's change from the nominal row (temperatures) or times
   its ratio to it (pressure drop), so with every spread zero the band is the check itself.
 * **repeated check** (cavities, a tube whose size varies, a supply that sets the flow): :func:`check_rows`
@@ -60,7 +61,7 @@ def covered(design, result, keys=()) -> bool:
     """Whether the vectorised evaluator covers this design (else: repeated checks)."""
     d = design
     return (d.passage.kind in ("channels", "tube") and d.flow is not None
-            and d.supply.drive == "flow" and d.model.laminar != "sieder-tate" and len(d.sources) <= 1
+            and d.supply.drive == "flow" and d.model.laminar != "sieder-tate"
             and not (keys and "passage.inner_diameter" in keys))
 
 
@@ -85,9 +86,13 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
     n = spec.samples or (DEFAULT_SAMPLES if fast else SLOW_FALLBACK_SAMPLES if slow else FALLBACK_SAMPLES)
     if fast:
         notes.insert(0, f"{n} samples through the sizing search's vectorised evaluator, anchored to the check")
+        if len(design.sources) > 1:
+            notes.insert(1, f"{len(design.sources)} sources: each sample's hottest face is the resistance network's "
+                            "cautious several-source face, moved onto the check's own hottest face by its change "
+                            "from the nominal sample (the check places the sources on the field model)")
     else:
         notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
-                        "of fixed size at a given flow, with one heat source, modules or none)")
+                        "of fixed size at a given flow, with or without several sources and modules)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -187,6 +192,7 @@ class RowPlate:
         share = getattr(result, "flow_split_min_to_mean", None)
         self.share = float(share) if d.passage.kind == "channels" and share is not None else 1.0
         self.evaluations = 0
+        self.sources = SourceRows(d, self.ev.plate.a) if len(d.sources) > 1 else None
 
     def __call__(self, flow, load, idx=None):
         c = self.c
@@ -196,9 +202,83 @@ class RowPlate:
                   pick(c[F_FACTOR]))
         self.evaluations += 1
         if self.design.passage.kind == "channels":
-            return evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
-                                         share=self.share)
-        return evaluate_tube_rows(self.ev, *common)
+            got = evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
+                                        share=self.share)
+        else:
+            got = evaluate_tube_rows(self.ev, *common)
+        if self.sources is not None:  # several sources: the hottest of their cautious faces, as the network's
+            got.T_face = np.maximum(got.T_face, self.sources.hottest(load, common[2], pick(self.factor), got))
+        return got
+
+
+#: Nodes a decade of h_eff at which a source's centroid rise is tabulated (a cubic in log h through the four
+#: around each value; the series' 1-D part 1/(h a b) is added back exactly): within 1e-6 of the series on the
+#: three-source example.
+SOURCE_NODES_PER_DECADE = 32
+
+
+class SourceRows:
+    """The network's several-source faces (:func:`coldplate.plate.solve.network_sources`) for arrays of rows.
+
+    Per row and source: the inlet, plus the coolant's rise from all the load whose centre lies upstream of the
+    source's outlet-side edge (the source's own included) over the row's heat capacity rate, plus every source's
+    spreading rise at its own centroid (the series at the source's load and footprint, centred on the cooled
+    length, at the row's mean smeared coefficient h_eff), plus its own interface (times the row's interface
+    factor, as the repeated check scales every source's); the loads scale with the row's load (placed modules,
+    without loads of their own, share it by area).  The centroid rise of each source is tabulated in log h_eff
+    (:data:`SOURCE_NODES_PER_DECADE`), the nodes computed as the rows reach them."""
+
+    def __init__(self, design, cooled_length):
+        d = self.design = design
+        self.L = cooled_length
+        src = d.sources
+        total = sum(s.load for s in src)
+        areas = np.array([s.area for s in src])
+        # each source's share of the load, and the share upstream of its outlet-side edge
+        self.part = (np.array([s.load for s in src]) / total if math.isfinite(total) and total > 0
+                     else areas / areas.sum())
+        self.upstream = np.array([sum(p for o, p in zip(src, self.part) if o.at[0] <= s.edges()[1]) for s in src])
+        self.interface = np.array([s.interface / s.area for s in src])  # [K/W]
+        self._nodes: list[dict[int, float]] = [{} for _ in src]
+
+    def _centroid(self, i: int, h: np.ndarray) -> np.ndarray:
+        """Source i's centroid rise per watt [K/W] at coefficients ``h`` (1-D, finite, positive)."""
+        d, s = self.design, self.design.sources[i]
+        n = SOURCE_NODES_PER_DECADE
+        ab = self.L * d.plate.width
+        u = np.log10(h) * n  # node units
+        lo, hi = int(np.floor(u.min())) - 1, int(np.floor(u.max())) + 2
+        nodes = self._nodes[i]
+        for j in range(lo, hi + 1):
+            if j not in nodes:
+                hj = 10.0 ** (j / n)
+                sp = conduction.spreading_MCY(self.L, d.plate.width, min(s.size[0], self.L), s.size[1], d.plate.base,
+                                              d.plate.conductivity, hj)
+                nodes[j] = sp.R_centroid - 1.0 / (hj * ab)
+        # the cubic through the four nodes around each h (Lagrange)
+        left = np.floor(u).astype(int)
+        t = u - left
+        table = np.array([nodes[j] for j in range(lo, hi + 1)])
+        y = [table[left + o - lo] for o in (-1, 0, 1, 2)]
+        smooth = (-t * (t - 1) * (t - 2) / 6 * y[0] + (t + 1) * (t - 1) * (t - 2) / 2 * y[1]
+                  - (t + 1) * t * (t - 2) / 2 * y[2] + (t + 1) * t * (t - 1) / 6 * y[3])
+        return smooth + 1.0 / (h * ab)
+
+    def hottest(self, load, T_in, factor, got) -> np.ndarray:
+        """The hottest source face of each row [K] (NaN where the row's plate is not solved)."""
+        load = np.asarray(load, dtype=float)
+        h = np.asarray(got.h_eff, dtype=float)
+        good = np.isfinite(h) & (h > 0) & got.ok
+        out = np.full(load.size, np.nan)
+        if not good.any():
+            return out
+        hg, Qg = h[good], load[good]
+        spread = sum(p * self._centroid(i, hg) for i, p in enumerate(self.part)) * Qg
+        faces = (T_in[good][:, None] + Qg[:, None] * self.upstream[None, :] / got.mcp[good][:, None]
+                 + spread[:, None] + Qg[:, None] * self.part[None, :] * self.interface[None, :]
+                 * factor[good][:, None])
+        out[good] = faces.max(axis=1)
+        return out
 
 
 #: The rows' hot faces agree with the plate's hottest face at the modules' heat within this [K] (the module
