@@ -3,8 +3,9 @@
 Rows: the nominal (every input at its design value), then each input at its low and at its high end with the
 others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
 
-* **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow, one
-  heat source or several, with or without thermoelectric modules, not Sieder-Tate): :func:`evaluator_rows` runs the rows
+* **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow or at
+  the flow a supply circuit sets, one heat source or several, with or without thermoelectric modules, not
+  Sieder-Tate): :func:`evaluator_rows` runs the rows
   through the sizing evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``,
   ``nusselt_local``, ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``,
   the minor losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt
@@ -12,10 +13,12 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
   plate's rows carry the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.
   With modules, :func:`module_rows` couples them to every row's plate in closed form (a few plate evaluations
   of all rows at once); with several sources, :class:`SourceRows` gives every row the network's cautious
-  several-source face (``network_sources``' formula over arrays).  The evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
+  several-source face (``network_sources``' formula over arrays); where a static pressure or a pump sets the
+  flow, :class:`SupplyRows` finds every row's operating flow by a bracketed root over all rows at once.  The
+  evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
   each row is reported as the check's value plus the row's change from the nominal row (temperatures) or times
   its ratio to it (pressure drop), so with every spread zero the band is the check itself.
-* **repeated check** (cavities, a tube whose size varies, a supply that sets the flow): :func:`check_rows`
+* **repeated check** (cavities, a tube whose size varies, Sieder-Tate): :func:`check_rows`
   solves each row's design as the check does (the supply's operating point, the plate, the modules; not the water
   planning or the findings, which are not banded) but on the resistance network (the field model would cost
   seconds a row), and :func:`anchored` moves the rows onto the check's own values as the evaluator's rows are,
@@ -34,7 +37,9 @@ from types import SimpleNamespace
 
 import numpy as np
 
+from hydraulics.circuit import G, Fluid, required_pressure, static_head
 from hydraulics.ducts import aspect_ratio, hydraulic_diameter_rectangle
+from hydraulics.pump import PumpTable, pump_curve_many
 
 from coldplate.design.errors import ColdplateError
 from coldplate.modules import model as te
@@ -47,6 +52,7 @@ from coldplate.plate.flow import passage_friction
 from coldplate.plate.solve import friction_pressure_drop, passage_flow, path_position
 from coldplate.sizing.evaluate import LOCAL_BLOCK, Evaluator
 from coldplate.sizing.proptable import PropertyState
+from coldplate.supply.operating import FLOW_MAX
 from coldplate.uncertainty.reader import (DEFAULT_SAMPLES, FALLBACK_SAMPLES, SLOW_FALLBACK_SAMPLES, Spread,
                                          UncertaintySpec)
 from coldplate.uncertainty.result import OUTPUTS, Band, Sensitivity, Uncertainty
@@ -60,8 +66,9 @@ NU_FACTOR, F_FACTOR = "correlations.Nu", "correlations.f"
 def covered(design, result, keys=()) -> bool:
     """Whether the vectorised evaluator covers this design (else: repeated checks)."""
     d = design
-    return (d.passage.kind in ("channels", "tube") and d.flow is not None
-            and d.supply.drive == "flow" and d.model.laminar != "sieder-tate"
+    given = d.supply.drive == "flow" and d.flow is not None
+    supplied = d.supply.drive in ("pressure", "pump") and d.circuit is not None
+    return (d.passage.kind in ("channels", "tube") and (given or supplied) and d.model.laminar != "sieder-tate"
             and not (keys and "passage.inner_diameter" in keys))
 
 
@@ -92,7 +99,7 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
                             "from the nominal sample (the check places the sources on the field model)")
     else:
         notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
-                        "of fixed size at a given flow, with or without several sources and modules)")
+                        "of fixed size, not Sieder-Tate)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -155,14 +162,31 @@ def evaluator_rows(design, result, keys, rows) -> dict:
     d = design
     plate = RowPlate(design, result, keys, rows)
     c = plate.c
-    if d.module is None:
-        got = plate(c["coolant.flow"], c["heat.load"])
-    else:
-        got = module_rows(d.module, plate, c["coolant.flow"], c["heat.load"], c["coolant.inlet_temperature"])
+    T_in = c["coolant.inlet_temperature"]
+    if d.supply.drive == "flow":
+        flow = c["coolant.flow"]
+        if d.module is None:
+            got = plate(flow, c["heat.load"])
+        else:
+            got = module_rows(d.module, plate, flow, c["heat.load"], T_in)
+    else:  # the supply sets each row's flow (check._solve_with_modules' order with modules)
+        supply = SupplyRows(d, result, plate)
+        if d.module is None:
+            flow = supply.flows(c["heat.load"])
+            got = supply.at(flow, c["heat.load"])
+        else:
+            first = supply.flows(np.maximum(2.0 * c["heat.load"], 1.0))
+            first_rows = module_rows(d.module, plate, np.where(np.isfinite(first), first, result.V_dot),
+                                     c["heat.load"], T_in)
+            flow = np.where(first_rows.ok & np.isfinite(first), supply.flows(
+                np.where(first_rows.ok, first_rows.Q, result.load)), np.nan)
+            got = module_rows(d.module, plate, np.where(np.isfinite(flow), flow, result.V_dot), c["heat.load"], T_in)
+        got.ok = got.ok & np.isfinite(flow)
     out = anchored(result, {"face": got.T_face, "outlet": got.T_out, "pressure_drop": got.dp,
-                            "water_use": c["coolant.flow"]})  # the water in proportion to the flow
+                            "water_use": flow})  # the water in proportion to the flow
     bad = ~got.ok
-    return {name: (v if name == "water_use" else np.where(bad, np.nan, v)) for name, v in out.items()}
+    return {name: np.where(bad, np.nan, v) if name != "water_use" or d.supply.drive != "flow" else v
+            for name, v in out.items()}
 
 
 class RowPlate:
@@ -279,6 +303,138 @@ class SourceRows:
                  * factor[good][:, None])
         out[good] = faces.max(axis=1)
         return out
+
+
+#: Flow roots of a supply that sets the flow: the bracket grows (or shrinks) by this factor a step from the
+#: check's own operating flow, at most SUPPLY_BRACKET_STEPS steps; then at most SUPPLY_ROOT_STEPS safeguarded
+#: regula falsi steps (Illinois), each row stopping when its bracket is within SUPPLY_RTOL of its flow or its
+#: pressure balance within SUPPLY_PRESSURE_TOL [Pa].
+SUPPLY_BRACKET, SUPPLY_BRACKET_STEPS, SUPPLY_ROOT_STEPS = 1.25, 40, 60
+SUPPLY_RTOL, SUPPLY_PRESSURE_TOL = 1e-10, 1e-4
+
+
+class SupplyRows:
+    """A supply that sets the flow (``[supply] drive`` "pressure" or "pump" with a ``[circuit]``), for every
+    row at once: each row's flow is where the circuit's need equals what the supply gives
+    (:func:`coldplate.supply.operating.operate`), the need being the circuit's line losses, lifts and back
+    pressure (:func:`hydraulics.circuit.required_pressure`, over arrays of rows: the upstream water at the row's
+    inlet, the downstream at its outlet, from the evaluator's property table) plus the row's plate drop; below
+    the plate's least flow (it would boil) the static part alone, as ``PlateAt.need``.
+
+    The plate's drop in the need is the row's evaluator drop times the check's drop over the nominal row's at
+    the check's operating flow (the check's drop carries the flow split and its headers, which the rows hold at
+    the nominal): so the nominal row's root is the check's own flow, to the root's tolerance, and every row's
+    drop moves with its flow as the evaluator's does.  The roots: a bracket from the check's flow (growing by
+    :data:`SUPPLY_BRACKET` a step; a pump's table ends), then the Illinois variant of regula falsi, which keeps
+    the bracket and converges superlinearly; a fixed, deterministic sequence of all rows' evaluations.  A row
+    whose supply does not overcome the static part, whose pump does not cross its need inside the table, or
+    whose root is where its plate starts to boil (the check refuses each) is unsolved."""
+
+    def __init__(self, design, result, plate: "RowPlate"):
+        d = self.design = design
+        self.plate, self.circuit = plate, d.circuit
+        self.T_in = plate.c["coolant.inlet_temperature"]
+        pr = plate.ev.props.at(self.T_in)
+        self.rho, self.mu = pr.rho, pr.mu
+        self.V0 = float(result.V_dot)
+        nominal = plate(np.array([self.V0]), np.array([float(result.load)]), np.array([0]))
+        self.k = float(result.dp / nominal.dp[0]) if nominal.ok[0] else 1.0
+        s = d.supply
+        self.pump = None
+        if s.drive == "pump":
+            self.pump = pump_curve_many(PumpTable(s.pump_flow, s.pump_rise))
+            self.span = (float(s.pump_flow[0]), float(s.pump_flow[-1]))
+
+    def available(self, V, idx):
+        """What the supply gives at flows V [Pa]: the static pressure, or suction plus the pump's rise."""
+        s = self.design.supply
+        if self.pump is None:
+            return np.full(V.shape, float(s.static_pressure))
+        rise = np.asarray(self.pump(V), dtype=float)
+        if s.pump_rise_is_head:  # a head table: the rise in the row's own water at the inlet
+            rise = rise * self.rho[idx] * G
+        return (s.static_pressure or 0.0) + rise
+
+    def need(self, V, load, idx):
+        """The circuit's need at flows V [m³/s] with the rows' loads (rows ``idx``) [Pa], and the rows' plates."""
+        up = Fluid(self.rho[idx], self.mu[idx])
+        static = static_head(self.circuit, up, up)
+        p = self.plate(np.maximum(V, 1e-12), load, idx)
+        ok = p.ok & (V > 0)
+        down_pr = self.plate.ev.props.at(np.where(ok, p.T_out, self.T_in[idx]))
+        need = required_pressure(self.circuit, self.rho[idx] * V, up, Fluid(down_pr.rho, down_pr.mu),
+                                 np.where(ok, self.k * p.dp, 0.0))
+        return np.where(ok, need, static), p
+
+    def excess(self, V, load, idx):
+        need, p = self.need(V, load, idx)
+        return self.available(V, idx) - need, p
+
+    def flows(self, load):
+        """Each row's operating flow [m³/s] at its load [W] (one per row of the plate; NaN where it has none)."""
+        n = load.size
+        idx = np.arange(n)
+        V = np.full(n, np.nan)
+        if self.pump is None:
+            up = Fluid(self.rho, self.mu)
+            alive = float(self.design.supply.static_pressure) > static_head(self.circuit, up, up)
+            lo, hi = np.full(n, self.V0), np.full(n, self.V0)
+            g_lo, _ = self.excess(lo, load, idx)
+            g_hi = g_lo.copy()
+            for _ in range(SUPPLY_BRACKET_STEPS):  # grow the bracket until the excess changes sign
+                up_, down_ = alive & (g_hi > 0), alive & (g_lo <= 0)
+                if not (up_.any() or down_.any()):
+                    break
+                r = np.flatnonzero(up_)
+                if r.size:
+                    lo[r], g_lo[r] = hi[r], g_hi[r]
+                    hi[r] = np.minimum(hi[r] * SUPPLY_BRACKET, FLOW_MAX)
+                    g_hi[r] = self.excess(hi[r], load[r], r)[0]
+                    alive[r[(hi[r] >= FLOW_MAX) & (g_hi[r] > 0)]] = False  # drives more than the largest flow
+                r = np.flatnonzero(down_)
+                if r.size:
+                    hi[r], g_hi[r] = lo[r], g_lo[r]
+                    lo[r] = lo[r] / SUPPLY_BRACKET
+                    g_lo[r] = self.excess(lo[r], load[r], r)[0]
+            alive &= (g_lo > 0) & (g_hi <= 0)
+        else:
+            lo, hi = np.full(n, self.span[0]), np.full(n, self.span[1])
+            g_lo, _ = self.excess(lo, load, idx)
+            g_hi, _ = self.excess(hi, load, idx)
+            alive = (g_lo >= 0) & (g_hi <= 0)  # the pump crosses the need inside its table
+            V[alive & (g_lo == 0)] = lo[alive & (g_lo == 0)]
+            alive &= g_lo > 0
+        V[alive & (g_hi == 0)] = hi[alive & (g_hi == 0)]
+        live = np.flatnonzero(alive & (g_hi < 0))
+        side = np.zeros(n, dtype=int)  # which end the last step moved (Illinois: halve the other end's excess)
+        for _ in range(SUPPLY_ROOT_STEPS):
+            if not live.size:
+                break
+            a, b, ga, gb = lo[live], hi[live], g_lo[live], g_hi[live]
+            x = (a * gb - b * ga) / (gb - ga)
+            x = np.where(np.isfinite(x) & (x > a) & (x < b), x, 0.5 * (a + b))  # safeguard: bisect
+            gx, _ = self.excess(x, load[live], live)
+            right = gx > 0  # the root lies above x
+            lo[live] = np.where(right, x, a)
+            g_lo[live] = np.where(right, gx, np.where(side[live] == -1, 0.5 * ga, ga))
+            hi[live] = np.where(right, b, x)
+            g_hi[live] = np.where(right, np.where(side[live] == 1, 0.5 * gb, gb), gx)
+            side[live] = np.where(right, 1, -1)
+            done = (np.abs(gx) <= SUPPLY_PRESSURE_TOL) | (hi[live] - lo[live] <= SUPPLY_RTOL * hi[live])
+            V[live[done]] = x[done]
+            live = live[~done]
+        return V
+
+    def at(self, flow, load):
+        """The rows' plates at their operating flows; unsolved where the flow is NaN or the balance fails (the
+        root sits where the plate starts to boil: the check refuses it, ``operate``)."""
+        n = flow.size
+        idx = np.arange(n)
+        V = np.where(np.isfinite(flow), flow, self.V0)
+        g, p = self.excess(V, load, idx)
+        avail = self.available(V, idx)
+        p.ok = p.ok & np.isfinite(flow) & (np.abs(g) <= np.maximum(1.0, 1e-6 * np.abs(avail)))
+        return p
 
 
 #: The rows' hot faces agree with the plate's hottest face at the modules' heat within this [K] (the module
