@@ -97,14 +97,16 @@ class Evaluator:
     """Everything fixed during a search (plate outline, footprint, load, coolant, inlet), built once.
 
     ``design`` is the design file's design; the candidates replace its passage sizes, base and flow.
+    ``passages``: the passage kinds accepted (the search sizes channels and tubes; the uncertainty band's rows
+    also take a cavity, through their own stages on the shared tables).
     """
 
-    def __init__(self, design: Design):
+    def __init__(self, design: Design, passages: tuple[str, ...] = ("channels", "tube")):
         d = self.design = design
         if d.model.laminar == "sieder-tate":
             raise DesignError("[correlations] laminar", "sieder-tate needs each candidate's wall temperature; "
                                                         "size with another laminar model")
-        if d.passage.kind not in ("channels", "tube"):
+        if d.passage.kind not in passages:
             raise DesignError("[passage] kind", f"sizing covers channels and tube passages, not {d.passage.kind}")
         self.Q = d.heat.load
         self.T_in = d.inlet_temperature

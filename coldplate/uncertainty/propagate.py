@@ -3,22 +3,22 @@
 Rows: the nominal (every input at its design value), then each input at its low and at its high end with the
 others nominal (the one-at-a-time sensitivities), then the Latin hypercube samples.  Two paths:
 
-* **vectorised evaluator** (channel plates, or a tube plate whose tube size is not varied, at a given flow or at
-  the flow a supply circuit sets, one heat source or several, with or without thermoelectric modules, not
-  Sieder-Tate): :func:`evaluator_rows` runs the rows
-  through the sizing evaluator's stages (``coldplate/sizing/evaluate.py``: the same ``passage_flow``,
-  ``nusselt_local``, ``fin_areas`` or the tube's ``convection`` and ``conduction_parts``, ``PlateTable.rises``,
-  the minor losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt
-  number (mean and local) and the friction factor are multiplied by the row's correlation factors.  A channel
-  plate's rows carry the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.
-  With modules, :func:`module_rows` couples them to every row's plate in closed form (a few plate evaluations
-  of all rows at once); with several sources, :class:`SourceRows` gives every row the network's cautious
+* **vectorised evaluator** (channel plates, a tube plate whose tube size is not varied, or an open cavity; at a
+  given flow or at the flow a supply circuit sets; one heat source or several; with or without thermoelectric
+  modules; not Sieder-Tate): :func:`evaluator_rows` runs the rows through the sizing evaluator's stages
+  (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``, ``fin_areas`` or the tube's
+  ``convection`` and ``conduction_parts`` or the cavity's ``back_side``, ``PlateTable.rises``, the minor
+  losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean
+  and local) and the friction factor are multiplied by the row's correlation factors.  A channel plate's rows
+  carry the check's least-fed share of the flow split (:class:`RowPlate`), not re-solved per row.  With
+  modules, :func:`module_rows` couples them to every row's plate in closed form (a few plate evaluations of all
+  rows at once); with several sources, :class:`SourceRows` gives every row the network's cautious
   several-source face (``network_sources``' formula over arrays); where a static pressure or a pump sets the
   flow, :class:`SupplyRows` finds every row's operating flow by a bracketed root over all rows at once.  The
-  evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py);
-  each row is reported as the check's value plus the row's change from the nominal row (temperatures) or times
-  its ratio to it (pressure drop), so with every spread zero the band is the check itself.
-* **repeated check** (cavities, a tube whose size varies, Sieder-Tate): :func:`check_rows`
+  evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the
+  check's value plus the row's change from the nominal row (temperatures) or times its ratio to it (pressure
+  drop), so with every spread zero the band is the check itself.
+* **repeated check** (a tube whose size varies, Sieder-Tate): :func:`check_rows`
   solves each row's design as the check does (the supply's operating point, the plate, the modules; not the water
   planning or the findings, which are not banded) but on the resistance network (the field model would cost
   seconds a row), and :func:`anchored` moves the rows onto the check's own values as the evaluator's rows are,
@@ -46,6 +46,7 @@ from coldplate.modules import model as te
 from coldplate.modules import solve as module_solve
 from coldplate.plate import conduction
 from coldplate.plate.convection import nusselt_local
+from coldplate.plate.passages import cavity as cavity_passage
 from coldplate.plate.passages import channels as channel_passage
 from coldplate.plate.passages import tube as tube_passage
 from coldplate.plate.flow import passage_friction
@@ -59,6 +60,8 @@ from coldplate.uncertainty.result import OUTPUTS, Band, Sensitivity, Uncertainty
 from coldplate.uncertainty.sampling import ends, latin_hypercube, percentile, to_values
 from coldplate.uncertainty.scatter import band_of
 
+#: Passage kinds the vectorised rows cover.
+ROW_PASSAGES = ("channels", "tube", "cavity")
 #: Keys of the correlation factors among the inputs.
 NU_FACTOR, F_FACTOR = "correlations.Nu", "correlations.f"
 
@@ -68,7 +71,7 @@ def covered(design, result, keys=()) -> bool:
     d = design
     given = d.supply.drive == "flow" and d.flow is not None
     supplied = d.supply.drive in ("pressure", "pump") and d.circuit is not None
-    return (d.passage.kind in ("channels", "tube") and (given or supplied) and d.model.laminar != "sieder-tate"
+    return (d.passage.kind in ROW_PASSAGES and (given or supplied) and d.model.laminar != "sieder-tate"
             and not (keys and "passage.inner_diameter" in keys))
 
 
@@ -98,8 +101,8 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
                             "cautious several-source face, moved onto the check's own hottest face by its change "
                             "from the nominal sample (the check places the sources on the field model)")
     else:
-        notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates and tubes "
-                        "of fixed size, not Sieder-Tate)")
+        notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates, cavities "
+                        "and tubes of fixed size, not Sieder-Tate)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -209,10 +212,13 @@ class RowPlate:
                     "coolant.flow": d.flow if d.flow is not None else result.V_dot, NU_FACTOR: 1.0, F_FACTOR: 1.0}
         if d.passage.kind == "channels":
             defaults.update({"passage.width": d.passage.width, "passage.depth": d.passage.depth})
+        if d.passage.kind == "cavity":
+            defaults["passage.height"] = d.passage.height
         self.c = _columns(keys, rows, defaults)
         self.factor = _interface_factor(keys, rows)
         self.R_area = d.interface.resistance_area * self.factor
-        self.ev = Evaluator(replace(d, inlet_temperature=float(np.min(self.c["coolant.inlet_temperature"]))))
+        self.ev = Evaluator(replace(d, inlet_temperature=float(np.min(self.c["coolant.inlet_temperature"]))),
+                            passages=ROW_PASSAGES)
         share = getattr(result, "flow_split_min_to_mean", None)
         self.share = float(share) if d.passage.kind == "channels" and share is not None else 1.0
         self.evaluations = 0
@@ -225,9 +231,12 @@ class RowPlate:
         common = (flow, load, pick(c["coolant.inlet_temperature"]), pick(self.R_area), pick(c[NU_FACTOR]),
                   pick(c[F_FACTOR]))
         self.evaluations += 1
-        if self.design.passage.kind == "channels":
+        kind = self.design.passage.kind
+        if kind == "channels":
             got = evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
                                         share=self.share)
+        elif kind == "cavity":
+            got = evaluate_cavity_rows(self.ev, pick(c["passage.height"]), *common)
         else:
             got = evaluate_tube_rows(self.ev, *common)
         if self.sources is not None:  # several sources: the hottest of their cautious faces, as the network's
@@ -658,6 +667,40 @@ def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
     ok = ok & np.isfinite(R_th)
     return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok,
                            h_eff=1.0 / (ev.A_cool * (fixed + r_conv)), mcp=m_dot * pr.cp)
+
+
+def evaluate_cavity_rows(ev: Evaluator, height, flow, load, T_in, R_area, nu, ff):
+    """:func:`evaluate_channel_rows` for an open cavity, one row each (1-D arrays; ``height`` the cavity's [m]):
+    the one-design check's steps (``plate.solve.solve_plate`` with the cavity module) over the rows: the box's
+    duct (the plate's width by the row's height, the floor heated alone) through ``passage_flow``, the floor's
+    convection ``cavity.back_side`` at the mean and at the local coefficient of every march point
+    (``nusselt_local``), the plate table's spreading and march, the friction and the ports'
+    ``cavity.minor_losses``."""
+    d = ev.design
+    flow, Q, T_in, nu, ff, hgt = (np.asarray(a, dtype=float).ravel() for a in (flow, load, T_in, nu, ff, height))
+    m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
+    w, L = d.plate.width, d.plate.length
+    D_h, alpha = hydraulic_diameter_rectangle(w, hgt), aspect_ratio(w, hgt)
+    rough = d.passage.roughness / D_h
+    V, Re, fr, _, h = passage_flow(m_dot, pr, w * hgt, D_h, alpha, "rectangle", L, L, "1L", rough, d.model)
+    h = h * nu
+    f = np.asarray(fr.f) * ff
+    geom = SimpleNamespace(flow_area=w * hgt)  # what the ports' losses read of the geometry
+    dp = friction_pressure_drop(f, L, D_h, pr.rho, V) + sum(
+        loss.pressure_drop(pr.rho) for loss in cavity_passage.minor_losses(d.passage, d.plate, geom, V, Re, f))
+    r_mean = ev.A_cool * cavity_passage.back_side(d.passage, d.plate, geom, h).total
+    x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, SimpleNamespace(single_pass=True))
+    col = lambda a: np.asarray(a)[:, None]  # noqa: E731  rows, march points
+    cv_x = nusselt_local(col(Re), col(pr.Pr), x, L, col(D_h), col(alpha), shape="rectangle",
+                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated="1L", rel_roughness=col(rough))
+    h_x = np.asarray(cv_x.Nu) * col(pr.k) / col(D_h) * col(nu)
+    r_x = ev.A_cool * cavity_passage.back_side(d.passage, d.plate, geom, h_x).total
+    R_plate = ev.plate.rise(d.plate.base, 1.0 / r_mean, s, r_x, single_pass=True)
+    R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float),
+                                            d.heat.footprint_length * d.heat.footprint_width)
+    ok = ok & np.isfinite(R_th)
+    return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok,
+                           h_eff=1.0 / r_mean, mcp=m_dot * pr.cp)
 
 
 def _design_for(design, values: dict):
