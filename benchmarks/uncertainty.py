@@ -4,10 +4,10 @@ For each example: the plain check, then the band (``[uncertainty]`` as the file 
 the inlet ±3 K and the correlations' scatter), with the path it takes.  Figures are seconds of wall time on this
 machine and the band's ratio to one check; the issue's target is under 1 s a band (bar 2 s) with 4000 samples.
 Every example takes the vectorised evaluator (channels, tubes, cavities; several sources; modules; a supply that
-sets the flow); the repeated-check path (a varied tube size, Sieder-Tate) runs its default 200 samples (64 with
+sets the flow); the repeated-check path (a varied tube size) runs its default 200 samples (64 with
 a circuit or modules) and would be reported, not held to that target.  The last column counts the evaluations
-of all rows at once (``RowPlate.evaluations``: one for a plate at a given flow, a few for modules or a supply's
-root).
+of all rows at once (``evaluate_*_rows`` calls: one for a plate at a given flow, a few for modules, a supply's
+root or Sieder-Tate's wall iteration).
 """
 from __future__ import annotations
 
@@ -28,16 +28,18 @@ EVALUATIONS = [0]  #: plate evaluations of all rows in the last band
 
 
 def _count_evaluations() -> None:
-    """Count RowPlate's evaluations (each of all the rows it is handed) without changing what it computes."""
+    """Count the rows' plate evaluations (each of all the rows it is handed: ``evaluate_*_rows``) without
+    changing what they compute."""
     from coldplate.uncertainty import propagate
 
-    call = propagate.RowPlate.__call__
+    def counting(fn):
+        def counted(*args, **kwargs):
+            EVALUATIONS[0] += 1
+            return fn(*args, **kwargs)
+        return counted
 
-    def counted(self, *args, **kwargs):
-        EVALUATIONS[0] += 1
-        return call(self, *args, **kwargs)
-
-    propagate.RowPlate.__call__ = counted
+    for name in ("evaluate_channel_rows", "evaluate_tube_rows", "evaluate_cavity_rows"):
+        setattr(propagate, name, counting(getattr(propagate, name)))
 
 
 def main() -> None:

@@ -441,3 +441,48 @@ def test_cavity_band_through_the_evaluator_repeats_with_the_scatter():
     a, b = check_data(copy.deepcopy(data)).uncertainty, check_data(copy.deepcopy(data)).uncertainty
     assert a == b and a.method == "vectorised evaluator" and a.samples == 4000
     assert {c[0] for c in a.correlations} == {"Nu", "f"} and not any("left out" in n for n in a.notes)
+
+
+# --------------------------------------------------------------------------- Sieder-Tate
+
+@pytest.mark.parametrize("name", ["reagent-block-channels", "laser-mount-tube", "detector-cavity-glycol",
+                                  "three-sources-channels"])
+def test_sieder_tate_rows_equal_the_network_row_by_row(name):
+    # Source: computed by our own solver: solve_plate with Sieder-Tate's viscosity correction (its wall iterated
+    # with the outlet, operating_point) on each row's design, against the rows' own wall iteration; channel
+    # plates without plenums so both carry the same flow: measured 7e-6 K (laminar channels, cavity, three
+    # sources), 2e-4 K (the tube in transitional flow, the blend's weight moving with the wall viscosity).
+    from coldplate.uncertainty.propagate import check_rows, covered
+
+    data = example_dict(name)
+    data.setdefault("correlations", {})["laminar"] = "sieder-tate"
+    d = design_from_dict(data)
+    if d.passage.kind == "channels":
+        d = replace(d, passage=replace(d.passage, plenum_length=0.0))
+    r = solve_plate(d)
+    rows = _load_rows(d, d.flow, d.heat.load)
+    assert covered(d, r, KEYS)
+    got = RowPlate(d, r, KEYS, rows)(rows[:, 2], rows[:, 0])
+    ref = check_rows(d, KEYS, rows)
+    assert got.ok.all()
+    assert got.T_face == pytest.approx(ref["face"], abs=5e-4)
+    assert got.dp == pytest.approx(ref["pressure_drop"], rel=1e-5)
+
+
+def test_sieder_tate_band_is_the_check_with_zero_spread():
+    # Source: computed by our own solver (internal consistency): zero spread, the band is the (field) check.
+    from coldplate.check import solve
+    from coldplate.uncertainty.propagate import propagate
+    from coldplate.uncertainty.reader import UncertaintySpec, Written
+
+    data = example_dict("reagent-block-channels")
+    data.setdefault("correlations", {})["laminar"] = "sieder-tate"
+    d = design_from_dict(data)
+    r = solve(d)
+    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 200, 1,
+                           0.90)
+    band = propagate(d, r, spec, data)
+    assert band.method == "vectorised evaluator"
+    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
+        for v in (b.low, b.median, b.high):
+            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)

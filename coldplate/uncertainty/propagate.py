@@ -5,7 +5,8 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
 
 * **vectorised evaluator** (channel plates, a tube plate whose tube size is not varied, or an open cavity; at a
   given flow or at the flow a supply circuit sets; one heat source or several; with or without thermoelectric
-  modules; not Sieder-Tate): :func:`evaluator_rows` runs the rows through the sizing evaluator's stages
+  modules; any laminar model, Sieder-Tate's wall iterated per row): :func:`evaluator_rows` runs the rows
+  through the sizing evaluator's stages
   (``coldplate/sizing/evaluate.py``: the same ``passage_flow``, ``nusselt_local``, ``fin_areas`` or the tube's
   ``convection`` and ``conduction_parts`` or the cavity's ``back_side``, ``PlateTable.rises``, the minor
   losses) with one candidate per row, so flow, load, inlet and interface vary per row; the Nusselt number (mean
@@ -18,7 +19,7 @@ others nominal (the one-at-a-time sensitivities), then the Latin hypercube sampl
   evaluator agrees with the check within 0.1 % (tests/test_sizing_evaluate.py); each row is reported as the
   check's value plus the row's change from the nominal row (temperatures) or times its ratio to it (pressure
   drop), so with every spread zero the band is the check itself.
-* **repeated check** (a tube whose size varies, Sieder-Tate): :func:`check_rows`
+* **repeated check** (a tube whose size varies): :func:`check_rows`
   solves each row's design as the check does (the supply's operating point, the plate, the modules; not the water
   planning or the findings, which are not banded) but on the resistance network (the field model would cost
   seconds a row), and :func:`anchored` moves the rows onto the check's own values as the evaluator's rows are,
@@ -71,7 +72,7 @@ def covered(design, result, keys=()) -> bool:
     d = design
     given = d.supply.drive == "flow" and d.flow is not None
     supplied = d.supply.drive in ("pressure", "pump") and d.circuit is not None
-    return (d.passage.kind in ROW_PASSAGES and (given or supplied) and d.model.laminar != "sieder-tate"
+    return (d.passage.kind in ROW_PASSAGES and (given or supplied)
             and not (keys and "passage.inner_diameter" in keys))
 
 
@@ -102,7 +103,7 @@ def propagate(design, result, spec: UncertaintySpec, data: dict) -> Uncertainty:
                             "from the nominal sample (the check places the sources on the field model)")
     else:
         notes.insert(0, f"{n} samples, each a whole check (the vectorised evaluator covers channel plates, cavities "
-                        "and tubes of fixed size, not Sieder-Tate)")
+                        "and tubes of fixed size)")
     k = len(spreads)
     u = latin_hypercube(n, k, spec.seed)
     sampled = np.column_stack([to_values(u[:, i], s.low, s.high, s.distribution) for i, s in enumerate(spreads)]) \
@@ -218,7 +219,7 @@ class RowPlate:
         self.factor = _interface_factor(keys, rows)
         self.R_area = d.interface.resistance_area * self.factor
         self.ev = Evaluator(replace(d, inlet_temperature=float(np.min(self.c["coolant.inlet_temperature"]))),
-                            passages=ROW_PASSAGES)
+                            passages=ROW_PASSAGES, wall_viscosity=True)
         share = getattr(result, "flow_split_min_to_mean", None)
         self.share = float(share) if d.passage.kind == "channels" and share is not None else 1.0
         self.evaluations = 0
@@ -233,16 +234,43 @@ class RowPlate:
         self.evaluations += 1
         kind = self.design.passage.kind
         if kind == "channels":
-            got = evaluate_channel_rows(self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common,
-                                        share=self.share)
+            run = lambda mu_ratio: evaluate_channel_rows(  # noqa: E731
+                self.ev, pick(c["passage.width"]), pick(c["passage.depth"]), *common, share=self.share,
+                mu_ratio=mu_ratio)
         elif kind == "cavity":
-            got = evaluate_cavity_rows(self.ev, pick(c["passage.height"]), *common)
+            run = lambda mu_ratio: evaluate_cavity_rows(self.ev, pick(c["passage.height"]), *common,  # noqa: E731
+                                                        mu_ratio=mu_ratio)
         else:
-            got = evaluate_tube_rows(self.ev, *common)
+            run = lambda mu_ratio: evaluate_tube_rows(self.ev, *common, mu_ratio=mu_ratio)  # noqa: E731
+        got = run(1.0) if self.design.model.laminar != "sieder-tate" else self._wall_iteration(run, load)
         if self.sources is not None:  # several sources: the hottest of their cautious faces, as the network's
             got.T_face = np.maximum(got.T_face, self.sources.hottest(load, common[2], pick(self.factor), got))
         return got
 
+    def _wall_iteration(self, run, load):
+        """Sieder-Tate's viscosity correction, as ``plate.solve.operating_point`` iterates it: the wall at the
+        bulk mean plus the load times the back side's convection part, mu_bulk / mu_wall from the property
+        table (the wall held below the end of the data, as the check does), the rows evaluated again until no
+        row's wall moves by more than the check's 1e-5 K (``WALL_ITERATIONS`` at most; a row still moving is
+        unsolved)."""
+        props, top = self.ev.props, self.ev.T_top
+        mu_ratio = np.ones(np.size(load))
+        T_wall = None
+        for _ in range(WALL_ITERATIONS):
+            got = run(mu_ratio)
+            T_new = np.minimum(got.T_mean + load * got.conv, top)
+            settled = T_wall is not None and np.all(~got.ok | (np.abs(T_new - T_wall) < WALL_TOLERANCE_K))
+            if settled:
+                return got
+            T_wall = np.where(got.ok, T_new, got.T_mean)
+            mu_ratio = np.where(got.ok, got.mu / props.at(np.where(got.ok, T_wall, top)).mu, 1.0)
+        got.ok = got.ok & False
+        return got
+
+
+#: Sieder-Tate's wall iteration over the rows: the check's own tolerance and count (plate.solve.TOLERANCE_K,
+#: MAX_ITERATIONS).
+WALL_TOLERANCE_K, WALL_ITERATIONS = 1e-5, 60
 
 #: Nodes a decade of h_eff at which a source's centroid rise is tabulated (a cubic in log h through the four
 #: around each value; the series' 1-D part 1/(h a b) is added back exactly): within 1e-6 of the series on the
@@ -572,14 +600,17 @@ def _take(pr: PropertyState, rows) -> PropertyState:
     return PropertyState(pr.rho[rows], pr.mu[rows], pr.cp[rows], pr.k[rows])
 
 
-def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area, nu, ff, share=1.0):
+def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area, nu, ff, share=1.0, mu_ratio=1.0):
     """Hottest face [K], outlet [K], plate pressure drop [Pa] of N channel-plate candidates, one per row (arrays
     of length N: channel width and depth [m], flow [m³/s], load [W], inlet [K], interface R'' [m² K/W], factors
     on the Nusselt number and the friction factor [-]).  The channel count, plate and base are the design's.
     ``share``: the least-fed channel's flow over the mean (a number or one per row; 1 = the even split): that
     channel's flow sets the heat transfer and the coolant's rise under the hot spot is the mean's over it, as in
     the check; the pressure drop stays the even split's.  Also returned: the mean smeared coefficient ``h_eff``
-    [W/(m² K)] and the heat capacity rate ``mcp`` [W/K] of each row (the several-source faces use them).
+    [W/(m² K)] and the heat capacity rate ``mcp`` [W/K] of each row (the several-source faces use them), and for
+    the Sieder-Tate wall iteration (:meth:`RowPlate.__call__`; ``mu_ratio`` bulk over wall viscosity per row) the
+    bulk-mean temperature ``T_mean`` [K], viscosity ``mu`` [Pa s] and the convection part of the back side at
+    the even split's mean coefficient ``conv`` [K/W] (the check's ``operating_point`` takes the wall there).
 
     The steps of :meth:`coldplate.sizing.evaluate.Evaluator.channels` with every per-flow quantity per row
     (shape (N, 1, 1) throughout, so the evaluator's functions broadcast row by row)."""
@@ -588,6 +619,7 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     w, dep, flow, Q, T_in, nu, ff = (col(a) for a in (width, depth, flow, load, T_in, nu, ff))
     N = w.shape[0]
     share = np.broadcast_to(col(share), w.shape)
+    mu_ratio = np.broadcast_to(col(mu_ratio), w.shape)
     even = bool(np.all(share == 1.0))
     n = np.full_like(w, float(d.passage.count))
     m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
@@ -596,20 +628,21 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     L = channel_passage.channel_length(passage, d.plate)
     D_h = hydraulic_diameter_rectangle(w, dep)
     alpha = aspect_ratio(w, dep)
-    V, Re, f, h = (np.empty((N, 1, 1)) for _ in range(4))
+    V, Re, f, h, h_even = (np.empty((N, 1, 1)) for _ in range(5))
     heated = channel_passage.heated_walls(w, dep).ravel()
     for kind in np.unique(heated):
         r = heated == kind
         args = (_take(pr, r), (n * w * dep)[r], D_h[r], alpha[r], "rectangle", L, L, str(kind),
-                d.passage.roughness / D_h[r], d.model)
+                d.passage.roughness / D_h[r], d.model, mu_ratio[r])
         V[r], Re[r], fr, _, h[r] = passage_flow((m_dot * share)[r], *args)  # the least-fed channel: heat
-        f[r] = fr.f
-        if not even:  # the pressure drop at the mean channel flow (the even split's)
-            V[r], _, fr = passage_friction(m_dot[r], *args[:5], L, args[8])
+        f[r], h_even[r] = fr.f, h[r]
+        if not even:  # the pressure drop (and the wall's coefficient) at the mean channel flow: the even split's
+            V[r], _, fr, _, h_even[r] = passage_flow(m_dot[r], *args)
             f[r] = fr.f
     h = h * nu
     f = f * ff
     _, effective, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h)
+    _, effective_even, _, _ = channel_passage.fin_areas(n, w, dep, L, wall, d.plate.conductivity, h_even * nu)
     h_eff = effective * h / ev.A_cool
     P = ev.plate.xg.size
     x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, SimpleNamespace(single_pass=True))
@@ -620,7 +653,7 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
             rows = idx[a:a + max(1, LOCAL_BLOCK // P)]
             e = lambda v: v[rows][..., None]  # noqa: E731  (rows, 1, 1, 1): march points last
             cv_x = nusselt_local(e(Re), e(pr.Pr), x, L, e(D_h), e(alpha), laminar=d.model.laminar,
-                                 turbulent=d.model.turbulent, heated=str(kind),
+                                 turbulent=d.model.turbulent, heated=str(kind), mu_ratio=e(mu_ratio),
                                  rel_roughness=d.passage.roughness / e(D_h))
             h_x = np.asarray(cv_x.Nu) * e(pr.k) / e(D_h) * e(nu)
             _, eff_x, _, _ = channel_passage.fin_areas(e(n), e(w), e(dep), L, e(wall), d.plate.conductivity, h_x)
@@ -636,19 +669,22 @@ def evaluate_channel_rows(ev: Evaluator, width, depth, flow, load, T_in, R_area,
     ok = ok.ravel() & np.isfinite(R_th)
     flat = lambda a: np.asarray(a, dtype=float).ravel()  # noqa: E731
     return SimpleNamespace(T_face=flat(T_in) + flat(Q) * R_th, T_out=flat(T_out), dp=flat(dp), ok=ok,
-                           h_eff=flat(h_eff), mcp=flat(m_dot * pr.cp))
+                           h_eff=flat(h_eff), mcp=flat(m_dot * pr.cp), T_mean=flat(0.5 * (T_in + T_out)),
+                           mu=flat(pr.mu), conv=flat(1.0 / (h_even * nu * effective_even)))
 
 
-def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
+def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff, mu_ratio=1.0):
     """:func:`evaluate_channel_rows` for the design's serpentine tube (its geometry fixed, 1-D arrays of rows):
     the steps of :meth:`coldplate.sizing.evaluate.Evaluator.tubes` with the rows on the flow axis."""
     d = ev.design
     flow, Q, T_in, nu, ff = (np.asarray(a, dtype=float).ravel() for a in (flow, load, T_in, nu, ff))
+    mu_ratio = np.broadcast_to(np.asarray(mu_ratio, dtype=float), flow.shape)
     m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
     passage = d.passage
     geom = tube_passage.geometry(passage, d.plate)
     V, Re, fr, _, h = passage_flow(m_dot, pr, geom.n_parallel * geom.flow_area, geom.D_h, geom.alpha, geom.shape,
-                                   geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model)
+                                   geom.path_length, geom.heated_length, geom.heated, geom.rel_roughness, d.model,
+                                   mu_ratio)
     h = h * nu
     f = np.asarray(fr.f) * ff
     dp = (friction_pressure_drop(f, geom.path_length, geom.D_h, pr.rho, V)
@@ -657,7 +693,7 @@ def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
     x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, geom)
     cv_x = nusselt_local(np.asarray(Re)[:, None], pr.Pr[:, None], x, geom.heated_length, geom.D_h, geom.alpha,
                          shape=geom.shape, laminar=d.model.laminar, turbulent=d.model.turbulent, heated=geom.heated,
-                         rel_roughness=geom.rel_roughness)
+                         mu_ratio=mu_ratio[:, None], rel_roughness=geom.rel_roughness)
     r_conv_x = tube_passage.convection(passage, geom, np.asarray(cv_x.Nu) * pr.k[:, None] / geom.D_h * nu[:, None])[0]
     fixed = sum(r for _, r in tube_passage.conduction_parts(passage, d.plate, geom))
     R_plate = ev.plate.rise(d.plate.base, 1.0 / (ev.A_cool * (fixed + r_conv)), s, ev.A_cool * (fixed + r_conv_x),
@@ -666,10 +702,11 @@ def evaluate_tube_rows(ev: Evaluator, flow, load, T_in, R_area, nu, ff):
                                             d.heat.footprint_length * d.heat.footprint_width)
     ok = ok & np.isfinite(R_th)
     return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok,
-                           h_eff=1.0 / (ev.A_cool * (fixed + r_conv)), mcp=m_dot * pr.cp)
+                           h_eff=1.0 / (ev.A_cool * (fixed + r_conv)), mcp=m_dot * pr.cp, T_mean=0.5 * (T_in + T_out),
+                           mu=pr.mu, conv=np.asarray(r_conv, dtype=float))
 
 
-def evaluate_cavity_rows(ev: Evaluator, height, flow, load, T_in, R_area, nu, ff):
+def evaluate_cavity_rows(ev: Evaluator, height, flow, load, T_in, R_area, nu, ff, mu_ratio=1.0):
     """:func:`evaluate_channel_rows` for an open cavity, one row each (1-D arrays; ``height`` the cavity's [m]):
     the one-design check's steps (``plate.solve.solve_plate`` with the cavity module) over the rows: the box's
     duct (the plate's width by the row's height, the floor heated alone) through ``passage_flow``, the floor's
@@ -678,11 +715,13 @@ def evaluate_cavity_rows(ev: Evaluator, height, flow, load, T_in, R_area, nu, ff
     ``cavity.minor_losses``."""
     d = ev.design
     flow, Q, T_in, nu, ff, hgt = (np.asarray(a, dtype=float).ravel() for a in (flow, load, T_in, nu, ff, height))
+    mu_ratio = np.broadcast_to(np.asarray(mu_ratio, dtype=float), flow.shape)
     m_dot, T_out, ok, pr, s = _coolant(ev, flow, Q, T_in)
     w, L = d.plate.width, d.plate.length
     D_h, alpha = hydraulic_diameter_rectangle(w, hgt), aspect_ratio(w, hgt)
     rough = d.passage.roughness / D_h
-    V, Re, fr, _, h = passage_flow(m_dot, pr, w * hgt, D_h, alpha, "rectangle", L, L, "1L", rough, d.model)
+    V, Re, fr, _, h = passage_flow(m_dot, pr, w * hgt, D_h, alpha, "rectangle", L, L, "1L", rough, d.model,
+                                   mu_ratio)
     h = h * nu
     f = np.asarray(fr.f) * ff
     geom = SimpleNamespace(flow_area=w * hgt)  # what the ports' losses read of the geometry
@@ -692,15 +731,18 @@ def evaluate_cavity_rows(ev: Evaluator, height, flow, load, T_in, R_area, nu, ff
     x = path_position(ev.plate.xg, ev.plate.a, ev.plate.segments, SimpleNamespace(single_pass=True))
     col = lambda a: np.asarray(a)[:, None]  # noqa: E731  rows, march points
     cv_x = nusselt_local(col(Re), col(pr.Pr), x, L, col(D_h), col(alpha), shape="rectangle",
-                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated="1L", rel_roughness=col(rough))
+                         laminar=d.model.laminar, turbulent=d.model.turbulent, heated="1L", mu_ratio=col(mu_ratio),
+                         rel_roughness=col(rough))
     h_x = np.asarray(cv_x.Nu) * col(pr.k) / col(D_h) * col(nu)
     r_x = ev.A_cool * cavity_passage.back_side(d.passage, d.plate, geom, h_x).total
     R_plate = ev.plate.rise(d.plate.base, 1.0 / r_mean, s, r_x, single_pass=True)
     R_th = R_plate + conduction.R_interface(np.asarray(R_area, dtype=float),
                                             d.heat.footprint_length * d.heat.footprint_width)
     ok = ok & np.isfinite(R_th)
+    conv = cavity_passage.back_side(d.passage, d.plate, geom, h).total
     return SimpleNamespace(T_face=T_in + Q * R_th, T_out=T_out, dp=np.asarray(dp, dtype=float), ok=ok,
-                           h_eff=1.0 / r_mean, mcp=m_dot * pr.cp)
+                           h_eff=1.0 / r_mean, mcp=m_dot * pr.cp, T_mean=0.5 * (T_in + T_out), mu=pr.mu,
+                           conv=np.asarray(conv, dtype=float))
 
 
 def _design_for(design, values: dict):
