@@ -1,5 +1,5 @@
 """The band's vectorised rows against the check's own solve (coldplate/uncertainty/propagate.py): the flow split's
-share, thermoelectric modules, several sources, a supply that sets the flow.  Every reference here is computed by
+share, thermoelectric modules, several sources, a supply that sets the flow, cavities, Sieder-Tate.  Every reference here is computed by
 our own solver (``solve_plate`` or the network check, ``solve(..., model="network")``, row by row): internal
 consistency of two paths, not an outside source.  VALIDATION.md "Uncertainty bands" lists them."""
 from __future__ import annotations
