@@ -16,6 +16,9 @@ Methods:
   water flows (the spring-loaded checks hold ``dp_open`` even at small flow);
 * a lift: rho g dz; the outlet: a back pressure (zero for a free discharge) plus the exit loss (K = 1).
 
+Every loss takes floats or numpy arrays of rows (the flows, the fluids' values and the plate's drop per row:
+the uncertainty band's supply rows); a float in gives a float out.
+
 Velocity-head changes between lines of different size are not tracked separately: the pressures reported
 are static gauge pressures with the kinetic energy counted as lost only at the outlet (cautious for the flow).
 """
@@ -25,6 +28,7 @@ import math
 from dataclasses import dataclass
 from typing import Callable
 
+import numpy as np
 from fluids.fittings import (
     K_ball_valve_Crane,
     K_branch_diverging_Crane,
@@ -248,20 +252,25 @@ def dp_valve_Kv(V_dot: float, Kv: float, rho: float) -> float:
     return rho / 1000.0 * (3600.0 * V_dot / Kv) ** 2 * 1e5
 
 
+def _number(x):
+    """A float for a scalar, else the array (the circuit's functions take floats or arrays of flows)."""
+    return float(x) if np.ndim(x) == 0 else np.asarray(x, dtype=float)
+
+
 def dp_backflow(V_dot: float, part: Backflow) -> float:
-    """Loss of a backflow device [Pa] at V_dot [m^3/s]; 0 at no flow."""
-    if V_dot <= 0:
-        return 0.0
-    return part.dp_open + (part.dp_rated - part.dp_open) * (V_dot / part.flow_rated) ** 2
+    """Loss of a backflow device [Pa] at V_dot [m^3/s]; 0 at no flow (floats or arrays)."""
+    V = np.asarray(V_dot, dtype=float)
+    return _number(np.where(V > 0, part.dp_open + (part.dp_rated - part.dp_open) * (V / part.flow_rated) ** 2, 0.0))
 
 
 def dp_line(V_dot: float, part: Line, rho: float, mu: float):
-    """Darcy-Weisbach loss of a straight run [Pa] and the friction result (its methods for range checks)."""
+    """Darcy-Weisbach loss of a straight run [Pa] and the friction result (its methods for range checks), and
+    the Reynolds number; floats or arrays (the uncertainty band's rows)."""
     A = math.pi * part.diameter**2 / 4
     V = V_dot / A
-    Re = max(rho * V * part.diameter / mu, 1e-6)
+    Re = np.maximum(rho * V * part.diameter / mu, 1e-6)
     fr = darcy_friction(Re, part.length, part.diameter, 1.0, "circle", part.roughness / part.diameter)
-    return float(fr.f) * part.length / part.diameter * 0.5 * rho * V**2, fr, Re
+    return _number(np.asarray(fr.f) * part.length / part.diameter * 0.5 * rho * V**2), fr, _number(Re)
 
 
 # ---------------------------------------------------------------- the walk along the circuit
@@ -283,7 +292,8 @@ class PartLoss:
 
 
 def part_loss(part: Part, m_dot: float, fluid: Fluid, dp_plate: float) -> PartLoss:
-    """The pressure lost across one part at mass flow m_dot [kg/s]."""
+    """The pressure lost across one part at mass flow m_dot [kg/s] (floats, or arrays of rows with the fluid's
+    and the plate's values per row)."""
     V_dot = m_dot / fluid.rho
     if isinstance(part, PlateSlot):
         return PartLoss(part.name, dp_plate, None, ())

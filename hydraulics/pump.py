@@ -57,6 +57,11 @@ def _fit(table: PumpTable):
     return PchipInterpolator(np.asarray(table.V_dot), np.asarray(table.dp), extrapolate=False)
 
 
+def pump_curve_many(table: PumpTable) -> Callable[[np.ndarray], np.ndarray]:
+    """:func:`pump_curve` for arrays of flows: the same fit, NaN outside the tabulated flows."""
+    return _fit(table)
+
+
 def pump_curve(table: PumpTable) -> Callable[[float], float]:
     """The fitted rise dp(V_dot) [Pa], valid from the first to the last tabulated flow (PCHIP)."""
     fit = _fit(table)

@@ -97,14 +97,18 @@ class Evaluator:
     """Everything fixed during a search (plate outline, footprint, load, coolant, inlet), built once.
 
     ``design`` is the design file's design; the candidates replace its passage sizes, base and flow.
+    ``passages``: the passage kinds accepted (the search sizes channels and tubes; the uncertainty band's rows
+    also take a cavity, through their own stages on the shared tables); ``wall_viscosity``: the caller iterates
+    Sieder-Tate's wall viscosity itself (the band's rows do; the search's stages do not, so it refuses it).
     """
 
-    def __init__(self, design: Design):
+    def __init__(self, design: Design, passages: tuple[str, ...] = ("channels", "tube"),
+                 wall_viscosity: bool = False):
         d = self.design = design
-        if d.model.laminar == "sieder-tate":
+        if d.model.laminar == "sieder-tate" and not wall_viscosity:
             raise DesignError("[correlations] laminar", "sieder-tate needs each candidate's wall temperature; "
                                                         "size with another laminar model")
-        if d.passage.kind not in ("channels", "tube"):
+        if d.passage.kind not in passages:
             raise DesignError("[passage] kind", f"sizing covers channels and tube passages, not {d.passage.kind}")
         self.Q = d.heat.load
         self.T_in = d.inlet_temperature
