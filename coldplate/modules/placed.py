@@ -1,21 +1,32 @@
 """Thermoelectric modules placed one by one on the plate, each with its own hot face from the field.
 
 With ``[module] size`` and ``positions`` each module is a field source (``coldplate.plate.sources.place_modules``).
-Every module runs at the design's current per module ``I`` and pumps an equal share ``q = Q_c / N`` of the cold
-load, so each one's hot-side heat is linear in its own hot face with the same coefficients
-(thermoelectric.hot_side_heat_line):
+Every module pumps an equal share ``q = Q_c / N`` of the cold load at its own current ``I_i``, so its hot-side
+heat is linear in its own hot face (thermoelectric.hot_side_heat_line):
 
-    Q_h,i = c0 + c1 T_h,i
+    Q_h,i = c0(I_i) + c1(I_i) T_h,i
 
 The field is linear in the loads at fixed properties (superposition): its faces at loads ``Q`` are
-``F(Q) = F(Q_k) + C (Q - Q_k)`` near a solved ``Q_k``, ``C`` the coupling matrix.  With ``Q = c0 + c1 T_h``:
+``F(Q) = F(Q_k) + C (Q - Q_k)`` near a solved ``Q_k``, ``C`` the coupling matrix.  At fixed currents:
 
-    (I - c1 C) T_h = F(Q_k) - C Q_k + C c0
+    (I - C diag(c1)) T_h = F(Q_k) - C Q_k + C c0
 
-A fresh field solve at the new loads then corrects ``F`` (each source's hottest face, which ``C``'s mean faces
-only approximate, and the properties at the new heat) until every module's hot face agrees with its field within
-:data:`~coldplate.modules.solve.FIELD_TOLERANCE_K`.  No steady state: the spectral radius of ``c1 C`` at least
-one (each kelvin of the faces brings back a kelvin or more); each module's own share is ``c1`` times its row sum.
+The wiring sets the currents.  In series (one string) every module carries the design's current per module.
+Parallel strings (``[module] wiring = "parallel"``, or ``"series-parallel"`` with ``strings``; string ``s`` holds
+the modules ``s n + 1 .. (s + 1) n`` in the order of ``positions``, ``n = N / strings``) share one voltage ``U``,
+and the array is driven at the current the design asks, ``I_arr = I strings`` (the lumped array's
+``array_current``), so a hotter module, whose Seebeck voltage ``S (T_h - T_c)`` is higher, takes a different
+current:
+
+    sum over string s of V_i(I_s, T_h,i) = U,      sum over s of I_s = I_arr,      V_i = S (T_h,i - T_c,i) + I_s R
+
+solved with the hot faces above by Newton on ``(T_h, I_s, U)`` (analytic Jacobian, from the equal currents;
+:func:`operate`).  A fresh field solve at the new loads then corrects ``F`` (each source's hottest face, which
+``C``'s mean faces only approximate, and the properties at the new heat) until every module's hot face agrees with
+its field within :data:`~coldplate.modules.solve.FIELD_TOLERANCE_K`.  No steady state at fixed currents: the
+spectral radius of ``C diag(c1)`` at least one (each kelvin of the faces brings back a kelvin or more); each
+module's own share is its row sum.  Parallel strings only damp a difference between modules (the hotter takes
+less current), so the radius at the solved currents is the test.
 
 The operating current, the sweep and the coldest current come from the lumped array first solved on the field
 (:func:`coldplate.modules.solve.solve_with_module_field`, the modules' heat shared equally), whose field solve at
@@ -23,7 +34,7 @@ equal shares is also the first step here.
 """
 from __future__ import annotations
 
-from dataclasses import replace
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -31,17 +42,142 @@ from coldplate.design.errors import SolveError
 from coldplate.modules import model as te
 from coldplate.modules.result import PlacedModule
 from coldplate.modules.solve import ASSUMPTIONS, FIELD_TOLERANCE_K, MAX_FIELD_SOLVES, solve_with_module_field
+from coldplate.plate.result import MethodUse
+
+#: Newton steps of the strings' currents and voltage (parallel wiring) before a SolveError; three to five settle
+#: it on the examples (quadratic convergence from the equal currents).
+NEWTON_STEPS = 40
+#: Newton's last step, scaled (1 K, the mean string current, 1 V), below which it has converged [-].
+NEWTON_TOLERANCE = 1e-11
 
 PLACED_ASSUMPTIONS = (
     "placed thermoelectric modules: each module a source of its own footprint where [module] positions puts "
-    "it, its hot face the field's hottest face under it; every module at the design's current per module "
-    "(with parallel wiring the modules' different voltages would share the current unequally; not modelled) "
-    "and pumping an equal share of the cold load, each cold face following from its own hot face",
+    "it, its hot face the field's hottest face under it, pumping an equal share of the cold load, each cold face "
+    "following from its own hot face and current; in series every module carries the design's current per "
+    "module; parallel strings (filled in the order of [module] positions) share one voltage and the array's "
+    "current (the design's current per module times the strings), so a hotter module, its Seebeck voltage "
+    "higher, takes a different current",
     "placed modules: the current sweep and the coldest and best-COP currents are the lumped array's (all "
     "modules at one hot face, the heat shared equally on the field); the headline figures are the worst "
-    "module's (hottest hot face, warmest cold face), the dew margin the coldest cold face's, the supply "
-    "voltage from the modules' mean voltage",
+    "module's (hottest hot face, warmest cold face), the dew margin the coldest cold face's",
 )
+
+
+@dataclass(frozen=True)
+class Linear:
+    """The field about one solve: each source's hottest face ``F`` [K] at loads ``Q`` [W], the coupling ``C``
+    [K/W]; the faces at other loads ``Q'`` are ``F + C (Q' - Q)`` (superposition at fixed properties)."""
+
+    F: np.ndarray
+    C: np.ndarray
+    Q: np.ndarray
+
+    @classmethod
+    def of(cls, result) -> "Linear":
+        return cls(np.array([s.face_max for s in result.sources], float), np.array(result.coupling, float),
+                   np.array([s.load for s in result.sources], float))
+
+
+@dataclass(frozen=True)
+class Operation:
+    """The placed modules at one array current on a :class:`Linear` field (one entry per module, SI)."""
+
+    T_h: np.ndarray  #: hot faces [K]
+    T_c: np.ndarray  #: cold faces [K]
+    Q_h: np.ndarray  #: heat into the plate [W]
+    I: np.ndarray  #: each module's current [A] (its string's)
+    V: np.ndarray  #: each module's voltage [V]
+    c1: np.ndarray  #: dQ_h/dT_h of each module at its current [W/K]
+    U: float  #: the strings' common voltage (the array's) [V]
+
+
+def string_of(count: int, strings: int) -> np.ndarray:
+    """Each module's string (0, 1, ...): ``count // strings`` modules a string, in the order of the positions."""
+    return np.arange(count) // (count // strings)
+
+
+def _module(m, q: float, I, T_h):
+    """One module's faces and heat at currents ``I`` and hot faces ``T_h`` with their partial derivatives:
+    ``(T_c, Q_h, V, dQ_h/dI, dQ_h/dT_h, dV/dI, dV/dT_h)`` (the standard model, Ioffe 1957)."""
+    S, R, K = m.S, m.R, m.K
+    d = S * I + K
+    T_c = te.cold_face_temperature(S, R, K, I, q, T_h)
+    Q_h = te.hot_side_heat(S, R, K, I, T_c, T_h)
+    V = te.module_voltage(S, R, I, T_c, T_h)
+    dTc_dI, dTc_dTh = (I * R - S * T_c) / d, K / d
+    return (T_c, Q_h, V, S * T_h + I * R + K * dTc_dI, S * I - K + K * dTc_dTh, R - S * dTc_dI,
+            S * (1.0 - dTc_dTh))
+
+
+def _hot_faces(m, q: float, lin: Linear, I: np.ndarray) -> np.ndarray:
+    """The hot faces at fixed module currents ``I`` on the linear field: (I - C diag(c1)) T_h = F - C Q + C c0."""
+    c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I, q)
+    A = np.eye(len(I)) - lin.C * c1[None, :]
+    return np.linalg.solve(A, lin.F - lin.C @ lin.Q + lin.C @ c0)
+
+
+def operate(m, q: float, lin: Linear, string: np.ndarray, I_array: float, start: Operation | None = None):
+    """The placed modules on the linear field ``lin`` at the array current ``I_array`` [A] (an
+    :class:`Operation`): one string, every module at ``I_array``; parallel strings by Newton on the hot faces,
+    the strings' currents and their common voltage from ``start``'s currents (else equal ones).  Raises
+    :class:`SolveError` when Newton does not settle."""
+    N, n_str = len(string), int(string[-1]) + 1
+    if n_str == 1:
+        I = np.full(N, float(I_array))
+        T_h = _hot_faces(m, q, lin, I)
+        T_c, Q_h, V = _module(m, q, I, T_h)[:3]
+        return Operation(T_h, T_c, Q_h, I, V, te.hot_side_heat_line(m.S, m.R, m.K, I, q)[1], float(V.sum()))
+    M = np.zeros((N, n_str))
+    M[np.arange(N), string] = 1.0
+    first = np.searchsorted(string, np.arange(n_str))  # each string's first module
+    J = np.full(n_str, I_array / n_str)
+    if start is not None and len(start.I) == N:  # the last currents, shifted to the new array current
+        J = start.I[first] + (I_array - start.I[first].sum()) / n_str
+    T_h = _hot_faces(m, q, lin, J[string])
+    U = float((M.T @ _module(m, q, J[string], T_h)[2]).mean())
+    scale = np.concatenate([np.ones(N), np.full(n_str, max(abs(I_array) / n_str, 1e-3)), [1.0]])
+    weight = np.concatenate([np.ones(N + n_str), [1.0 / scale[N]]])  # residuals in K, V and A
+
+    def residual(T_h, J, U):
+        T_c, Q_h, V, *_ = _module(m, q, J[string], T_h)
+        return np.concatenate([T_h - lin.F - lin.C @ (Q_h - lin.Q), M.T @ V - U, [J.sum() - I_array]])
+
+    r, converged = residual(T_h, J, U), False
+    for _ in range(NEWTON_STEPS):
+        _, _, _, dQ_dI, dQ_dT, dV_dI, dV_dT = _module(m, q, J[string], T_h)
+        jac = np.zeros((N + n_str + 1, N + n_str + 1))
+        jac[:N, :N] = np.eye(N) - lin.C * dQ_dT[None, :]
+        jac[:N, N:-1] = -(lin.C * dQ_dI[None, :]) @ M
+        jac[N:-1, :N] = M.T * dV_dT[None, :]
+        jac[N:-1, N:-1] = np.diag(M.T @ dV_dI)
+        jac[N:-1, -1] = -1.0
+        jac[-1, N:-1] = 1.0
+        try:
+            step = np.linalg.solve(jac, -r)
+        except np.linalg.LinAlgError:
+            break
+        norm, t, accepted = float(np.linalg.norm(r * weight)), 1.0, False
+        while t > 1e-6 and not accepted:  # backtracking: S I + K above zero, the residual not growing
+            T_new, J_new, U_new = T_h + t * step[:N], J + t * step[N:-1], U + t * step[-1]
+            if np.all(m.S * J_new + m.K > 0):
+                r_new = residual(T_new, J_new, U_new)
+                accepted = bool(np.all(np.isfinite(r_new)) and np.linalg.norm(r_new * weight) <= max(norm, 1e-12))
+            if not accepted:
+                t *= 0.5
+        if not accepted:
+            break
+        T_h, J, U, r = T_new, J_new, U_new, r_new
+        if float(np.max(np.abs(t * step) / scale)) <= NEWTON_TOLERANCE:
+            converged = True
+            break
+    if not converged:
+        raise SolveError(f"the placed modules' parallel strings did not settle at {I_array:.3g} A into the array "
+                         f"(no currents sharing one voltage found in {NEWTON_STEPS} Newton steps); the network "
+                         "model (--model network) solves the modules as one array")
+    I = J[string]
+    T_h = _hot_faces(m, q, lin, I)  # the faces exactly at the final currents
+    T_c, Q_h, V = _module(m, q, I, T_h)[:3]
+    return Operation(T_h, T_c, Q_h, I, V, te.hot_side_heat_line(m.S, m.R, m.K, I, q)[1], U)
 
 
 def with_loads(design, loads):
@@ -50,13 +186,12 @@ def with_loads(design, loads):
     return replace(design, sources=sources, heat=replace(design.heat, load=float(sum(loads))))
 
 
-def _faces(result) -> np.ndarray:
-    return np.array([s.face_max for s in result.sources], float)
+def _runaway(names, c1, C: np.ndarray, I: float) -> None:
+    """Refuse a coupling with no steady state at fixed currents, naming the module that contributes most.
 
-
-def _runaway(names, c1: float, C: np.ndarray, I: float) -> None:
-    """Refuse a coupling with no steady state, naming the module that contributes most."""
-    G = c1 * C
+    ``c1`` is dQ_h/dT_h of every module (one number) or of each; the test is the spectral radius of
+    ``C diag(c1)``, each module's share the row sum (its face's rise per kelvin of all hot faces)."""
+    G = np.asarray(C, float) * np.broadcast_to(np.asarray(c1, float), (len(C),))[None, :]
     rho = float(max(abs(np.linalg.eigvals(G))))
     if rho >= 1.0:
         rows = G.sum(axis=1)
@@ -67,57 +202,80 @@ def _runaway(names, c1: float, C: np.ndarray, I: float) -> None:
                          "spread the modules or improve the plate")
 
 
+def _on_field(design, field, lin: Linear, op: Operation | None, solve_at, gaps: list):
+    """Correct the linear field by fresh field solves: ``solve_at(lin, start)`` gives the modules' Operation on
+    ``lin``; the field at its loads gives the next ``lin``, until every hot face agrees with its field within
+    FIELD_TOLERANCE_K.  Returns ``(field result, its Linear, the Operation, field solves)``."""
+    solves = 0
+    while True:
+        op = solve_at(lin, op)
+        fr = field(with_loads(design, op.Q_h), load=float(op.Q_h.sum()))
+        solves += 1
+        lin = Linear.of(fr)
+        gap = float(np.max(np.abs(lin.F - op.T_h)))
+        gaps.append(gap)
+        if gap <= FIELD_TOLERANCE_K:
+            return fr, lin, op, solves
+        if solves >= MAX_FIELD_SOLVES:
+            raise SolveError(f"the placed modules and the field did not agree in {MAX_FIELD_SOLVES} field solves "
+                             f"(largest hot-face gap: {', '.join(f'{g:.3g} K' for g in gaps)}); the network model "
+                             "(--model network) solves the modules as one array")
+
+
+def _methods(base, m, currents: np.ndarray) -> tuple:
+    """The lumped solve's module methods, the standard model's range taken at the largest module current."""
+    out = []
+    for u in base.methods:
+        if u.role != "thermoelectric module":
+            continue
+        if u.method == te.cold_side_heat.validity.method:
+            v = te.cold_side_heat.validity
+            values = {"I/I_max": float(np.max(np.abs(currents))) / m.max_current}
+            u = MethodUse(role=u.role, method=v.method, reference=v.reference, validity=v.describe(),
+                          values=tuple(values.items()), outside=v.violations(**values))
+        out.append(u)
+    return tuple(out)
+
+
 def solve_placed_field(design, field, network, scale: float = 1.0):
     """Placed modules on the field model: the field Result at each module's own hot-side heat, ``.module`` set
     with ``placed`` (one :class:`PlacedModule` each) and the worst module's headline figures.
 
     ``field``, ``network`` and ``scale`` as in :func:`coldplate.modules.solve.solve_with_module_field`, which
-    gives the operating current; then the coupled hot faces by the coupling matrix, corrected by fresh field
-    solves.  Raises :class:`SolveError` on a runaway or when the field solves do not agree.
+    gives the operating current; then the coupled hot faces (and, with parallel strings, each string's current)
+    by the coupling matrix (:func:`operate`), corrected by fresh field solves.  Raises :class:`SolveError` on a
+    runaway or when the field solves do not agree.
     """
     base = solve_with_module_field(design, field, network, scale)
     lumped = base.module
     m = design.module
     N, I, q = m.count, lumped.current, m.cold_load / m.count
     names = [s.name for s in design.sources]
-    c0, c1 = te.hot_side_heat_line(m.S, m.R, m.K, I, q)
-    fr, Q = base, np.array([s.load for s in base.sources], float)
-    F, C = _faces(base), np.array(base.coupling, float)
-    gaps, solves = [], 0
-    while True:
-        _runaway(names, c1, C, I)
-        T_h = np.linalg.solve(np.eye(N) - c1 * C, F - C @ Q + c0 * C.sum(axis=1))
-        Q = c0 + c1 * T_h
-        fr = field(with_loads(design, Q), load=float(Q.sum()))
-        solves += 1
-        F, C = _faces(fr), np.array(fr.coupling, float)
-        gap = float(np.max(np.abs(F - T_h)))
-        gaps.append(gap)
-        if gap <= FIELD_TOLERANCE_K:
-            break
-        if solves >= MAX_FIELD_SOLVES:
-            raise SolveError(f"the placed modules and the field did not agree in {MAX_FIELD_SOLVES} field solves "
-                             f"(largest hot-face gap: {', '.join(f'{g:.3g} K' for g in gaps)}); the network model "
-                             "(--model network) solves the modules as one array")
-    _runaway(names, c1, C, I)
-    T_c = te.cold_face_temperature(m.S, m.R, m.K, I, q, T_h)
-    V = te.module_voltage(m.S, m.R, I, T_c, T_h)
-    P = V * I
-    slopes = c1 * C.sum(axis=1)
+    string = string_of(N, m.strings)
+    I_arr = I * m.strings
+
+    def solve_at(lin, start):
+        c1 = start.c1 if start is not None else te.hot_side_heat_line(m.S, m.R, m.K, I, q)[1]
+        _runaway(names, c1, lin.C, I)
+        return operate(m, q, lin, string, I_arr, start)
+
+    fr, lin, op, solves = _on_field(design, field, Linear.of(base), None, solve_at, [])
+    _runaway(names, op.c1, lin.C, I)
+    P = op.V * op.I
+    slopes = lin.C @ op.c1
     placed = tuple(PlacedModule(n, s.at, float(th), float(tc), float(qh), q, float(v), float(p), float(k),
-                                m.hot_side_limit - float(th))
-                   for n, s, th, tc, qh, v, p, k in zip(names, design.sources, T_h, T_c, Q, V, P, slopes))
+                                m.hot_side_limit - float(th), float(i))
+                   for n, s, th, tc, qh, v, p, k, i in zip(names, design.sources, op.T_h, op.T_c, op.Q_h, op.V, P,
+                                                           slopes, op.I))
     worst = max(placed, key=lambda pm: pm.T_hot)
     power = float(P.sum())
-    I_arr, V_arr = te.array_supply(I, float(V.mean()), N, m.strings)
-    T_cold_min = float(T_c.min())
-    mr = replace(lumped, voltage=worst.voltage, array_current=I_arr, array_voltage=V_arr, T_cold=worst.T_cold,
-                 T_hot=worst.T_hot, Q_hot=float(Q.sum()), power=power,
+    T_cold = float(op.T_c.max())
+    mr = replace(lumped, voltage=worst.voltage, array_current=I_arr, array_voltage=op.U, T_cold=T_cold,
+                 T_hot=worst.T_hot, Q_hot=float(op.Q_h.sum()), power=power,
                  cop=float(te.coefficient_of_performance(m.cold_load, power)), T_dew=fr.T_dew,
-                 dew_margin=T_cold_min - fr.T_dew, T_load=worst.T_cold + m.cold_load * m.cold_side_resistance,
-                 R_plate=fr.R_th, runaway_slope=float(max(abs(np.linalg.eigvals(c1 * C)))),
+                 dew_margin=float(op.T_c.min()) - fr.T_dew, T_load=T_cold + m.cold_load * m.cold_side_resistance,
+                 R_plate=fr.R_th, runaway_slope=float(max(abs(np.linalg.eigvals(lin.C * op.c1[None, :])))),
                  field_solves=lumped.field_solves + solves, placed=placed)
-    module_methods = tuple(u for u in base.methods if u.role == "thermoelectric module")
     return replace(fr, design=design, module=mr,
                    assumptions=fr.assumptions + ASSUMPTIONS[:1] + PLACED_ASSUMPTIONS,
-                   methods=fr.methods + module_methods)
+                   methods=fr.methods + _methods(base, m, op.I))
