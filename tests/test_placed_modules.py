@@ -112,8 +112,10 @@ BAD = [
     ("count mismatch", {"module__count": 3}, "[module] positions: gives 2 position(s) for count = 3"),
     ("positions with [heat]", {"heat": {"footprint": ["40 mm", "80 mm"]}}, "[module] positions: "),
     ("size without positions", {"module__positions": None}, "[module] positions: is missing"),
-    ("a target instead of a current", {"module__current": None, "module__cold_face_temperature": "-5 degC"},
-     "[module] positions: placed modules are solved at a given drive current"),
+    ("a target no current reaches", {"module__current": None, "module__cold_face_temperature": "-40 degC"},
+     "[module] cold_face_temperature: -40.00 degC is out of reach of the placed modules"),
+    ("a target warmer than with no current", {"module__current": None, "module__cold_face_temperature": "60 degC"},
+     "[module] cold_face_temperature: 60.00 degC is warmer than"),
 ]
 
 
@@ -272,3 +274,26 @@ def test_parallel_newton_against_a_bisection_on_the_current_split():
     assert op.I.sum() == pytest.approx(total, rel=1e-14)
     assert op.V[0] == pytest.approx(op.V[1], rel=1e-12)
     assert op.T_h == pytest.approx(lin.F + lin.C @ (op.Q_h - lin.Q), abs=1e-9)
+
+
+# --- a target cold face: the current at which the warmest module meets it ----------------------------------------
+
+@pytest.mark.parametrize("wiring", ["series", "parallel"])
+def test_target_cold_face_met_by_the_warmest_module(wiring):
+    # computed by our own solver (brute force): the placed solve at the current found, given as a drive current,
+    # puts the warmest module's cold face on the target
+    target = -25.0
+    data = modified(PLACED, module__wiring=wiring, module__current=None,
+                    module__cold_face_temperature=f"{target} degC")
+    r = _solve(data)
+    m = r.module
+    assert m.mode == "target" and not m.shortfall
+    assert max(p.T_cold for p in m.placed) - 273.15 == pytest.approx(target, abs=1e-6)
+    assert m.T_cold - 273.15 == pytest.approx(target, abs=1e-6)
+    assert m.best_cop_current == m.current
+    assert m.field_solves <= 5  # the lumped array's two and two or three fresh ones
+    assert any("placed modules at a target cold face" in a and "fresh field solves" in a for a in r.assumptions)
+    again = _solve(modified(PLACED, module__wiring=wiring, module__current=f"{m.current!r} A")).module
+    assert max(p.T_cold for p in again.placed) - 273.15 == pytest.approx(target, abs=1e-3)
+    per_string = m.count // m.strings  # modules in series in each string, each at its string's current
+    assert sum(p.current for p in m.placed) / per_string == pytest.approx(m.array_current, rel=1e-12)

@@ -161,7 +161,8 @@ FIELDS: dict[str, Field] = {
     "[module] cold_load": _F("power", "heat the whole array pumps from the cold stage"),
     "[module] current": _F("current", "drive current per module: the array's over its strings (or "
                                       "cold_face_temperature)"),
-    "[module] cold_face_temperature": _F("temperature", "cold-face temperature to reach (or current)"),
+    "[module] cold_face_temperature": _F("temperature", "cold-face temperature to reach, by the warmest placed "
+                                                       "module (or current)"),
     "[module] cold_side_resistance": _F("thermal_resistance", "cold faces to the load, the whole stage"),
     "[module] hot_side_limit": _F("temperature", "hottest hot face the modules allow"),
     "[module] size": _F("lengths", "one module's footprint, along the flow and across (with positions)"),

@@ -28,20 +28,30 @@ spectral radius of ``C diag(c1)`` at least one (each kelvin of the faces brings 
 module's own share is its row sum.  Parallel strings only damp a difference between modules (the hotter takes
 less current), so the radius at the solved currents is the test.
 
-The operating current, the sweep and the coldest current come from the lumped array first solved on the field
+A target cold face (``[module] cold_face_temperature``) is met by the warmest module (every module at or below
+it): on each linear field the current per module whose warmest cold face is the target is bisected below the
+current where that cold face is coldest (found on the sweep's currents, refined by golden section), the field
+solved afresh at its loads, and so on until the faces agree; no current reaching the target (or the target
+warmer than with no current) is a :class:`DesignError` naming the key.  Root and coldest current cost no field
+solve: the linear field is exact at fixed properties but for the hottest face's shift against the mean, which the
+fresh solves correct.
+
+The sweep and the coldest current come from the lumped array first solved on the field
 (:func:`coldplate.modules.solve.solve_with_module_field`, the modules' heat shared equally), whose field solve at
-equal shares is also the first step here.
+equal shares (at its current, or at its own current for the target) is also the first step here.
 """
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, replace
 
 import numpy as np
 
-from coldplate.design.errors import SolveError
+from coldplate.design.errors import DesignError, SolveError
 from coldplate.modules import model as te
 from coldplate.modules.result import PlacedModule
-from coldplate.modules.solve import ASSUMPTIONS, FIELD_TOLERANCE_K, MAX_FIELD_SOLVES, solve_with_module_field
+from coldplate.modules.solve import (ASSUMPTIONS, FIELD_TOLERANCE_K, MAX_FIELD_SOLVES, SWEEP_POINTS, TargetTooWarm,
+                                     _bisect, _golden_min, solve_with_module_field)
 from coldplate.plate.result import MethodUse
 
 #: Newton steps of the strings' currents and voltage (parallel wiring) before a SolveError; three to five settle
@@ -49,6 +59,9 @@ from coldplate.plate.result import MethodUse
 NEWTON_STEPS = 40
 #: Newton's last step, scaled (1 K, the mean string current, 1 V), below which it has converged [-].
 NEWTON_TOLERANCE = 1e-11
+#: The target cold face's current per module is bisected to this width [A] on each linear field (the cold face
+#: moves a few kelvin per ampere: about 1e-8 K).
+TARGET_TOLERANCE_A = 1e-9
 
 PLACED_ASSUMPTIONS = (
     "placed thermoelectric modules: each module a source of its own footprint where [module] positions puts "
@@ -57,9 +70,9 @@ PLACED_ASSUMPTIONS = (
     "module; parallel strings (filled in the order of [module] positions) share one voltage and the array's "
     "current (the design's current per module times the strings), so a hotter module, its Seebeck voltage "
     "higher, takes a different current",
-    "placed modules: the current sweep and the coldest and best-COP currents are the lumped array's (all "
-    "modules at one hot face, the heat shared equally on the field); the headline figures are the worst "
-    "module's (hottest hot face, warmest cold face), the dew margin the coldest cold face's",
+    "placed modules: the current sweep and the coldest current (and at a given current the best-COP current) "
+    "are the lumped array's (all modules at one hot face, the heat shared equally on the field); the headline "
+    "figures are the worst module's (hottest hot face, warmest cold face), the dew margin the coldest cold face's",
 )
 
 
@@ -237,45 +250,132 @@ def _methods(base, m, currents: np.ndarray) -> tuple:
     return tuple(out)
 
 
+class _Array:
+    """The placed modules of a design on a linear field: each operation at a current per module, the worst
+    module's cold face, its coldest current (all without a field solve)."""
+
+    def __init__(self, design):
+        m = self.m = design.module
+        self.q = m.cold_load / m.count
+        self.string = string_of(m.count, m.strings)
+        self.names = [s.name for s in design.sources]
+
+    def at(self, lin: Linear, I: float, start: Operation | None = None) -> Operation:
+        """The modules at the design's current ``I`` per module (the array at ``I`` times the strings); a
+        runaway (at the equal currents, and at the solved ones) or unsettled strings raise SolveError."""
+        m = self.m
+        c1 = start.c1 if start is not None else te.hot_side_heat_line(m.S, m.R, m.K, I, self.q)[1]
+        _runaway(self.names, c1, lin.C, I)
+        op = operate(m, self.q, lin, self.string, I * m.strings, start)
+        _runaway(self.names, op.c1, lin.C, I)
+        return op
+
+    def warmest(self, lin: Linear, I: float) -> float:
+        """The warmest module's cold face at ``I`` per module [K]; infinity with no steady state."""
+        try:
+            return float(self.at(lin, I).T_c.max())
+        except SolveError:
+            return math.inf
+
+    def coldest(self, lin: Linear) -> tuple[float, float]:
+        """``(current per module, warmest cold face)`` where the warmest cold face is coldest, 0 to I_max: the
+        least of the sweep's currents, refined by golden section between its neighbours."""
+        currents = np.linspace(0.0, self.m.max_current, SWEEP_POINTS)
+        values = [self.warmest(lin, float(I)) for I in currents]
+        k = int(np.argmin(values))
+        I_c, T_c = _golden_min(lambda I: self.warmest(lin, I), float(currents[max(k - 1, 0)]),
+                               float(currents[min(k + 1, len(currents) - 1)]))
+        return (I_c, T_c) if T_c <= values[k] else (float(currents[k]), values[k])
+
+
+def _c(T: float) -> str:
+    return f"{T - 273.15:.2f} degC"
+
+
+def _target(arr: _Array, target: float, state: dict):
+    """``solve_at`` for a target cold face: on each linear field the current whose warmest module's cold face is
+    the target (bisection below the coldest current), or the coldest current when none reaches it (noted in
+    ``state``, refused once the field agrees); ``state["I"]`` the current per module."""
+    field = "[module] cold_face_temperature"
+
+    def solve_at(lin, start):
+        T_zero = arr.warmest(lin, 0.0)
+        if T_zero < target:
+            raise DesignError(field, f"{_c(target)} is warmer than the warmest placed module's cold face with no "
+                                     f"current ({_c(T_zero)}): the modules would have to heat; lower the target")
+        I_c, T_min = arr.coldest(lin)
+        state.pop("unreachable", None)
+        if T_min > target:
+            state["unreachable"] = (I_c, T_min)
+            I = I_c
+        else:
+            I = _bisect(lambda I: arr.warmest(lin, I) - target, 0.0, I_c, tol=TARGET_TOLERANCE_A)
+        state["I"] = I
+        return arr.at(lin, I)
+
+    return solve_at
+
+
 def solve_placed_field(design, field, network, scale: float = 1.0):
     """Placed modules on the field model: the field Result at each module's own hot-side heat, ``.module`` set
     with ``placed`` (one :class:`PlacedModule` each) and the worst module's headline figures.
 
     ``field``, ``network`` and ``scale`` as in :func:`coldplate.modules.solve.solve_with_module_field`, which
-    gives the operating current; then the coupled hot faces (and, with parallel strings, each string's current)
-    by the coupling matrix (:func:`operate`), corrected by fresh field solves.  Raises :class:`SolveError` on a
-    runaway or when the field solves do not agree.
+    gives the lumped array (its operating current, or its current for a target cold face: the start here); then
+    the coupled hot faces (and, with parallel strings, each string's current) by the coupling matrix
+    (:func:`operate`), at the design's current or, for a target cold face, at the current whose warmest module
+    meets it, corrected by fresh field solves.  Raises :class:`SolveError` on a runaway or when the field solves
+    do not agree, :class:`DesignError` naming ``[module] cold_face_temperature`` when no current reaches the
+    target.
     """
-    base = solve_with_module_field(design, field, network, scale)
-    lumped = base.module
     m = design.module
-    N, I, q = m.count, lumped.current, m.cold_load / m.count
-    names = [s.name for s in design.sources]
-    string = string_of(N, m.strings)
-    I_arr = I * m.strings
+    try:
+        base = solve_with_module_field(design, field, network, scale)
+    except TargetTooWarm as exc:
+        raise DesignError("[module] cold_face_temperature", f"{_c(m.cold_face_target)} is warmer than the modules' "
+                                                            f"cold face with no current ({_c(exc.T_zero)}): the "
+                                                            "modules would have to heat; lower the target") from None
+    lumped = base.module
+    arr, q, state = _Array(design), m.cold_load / m.count, {}
+    if m.current is not None:
+        I = m.current
 
-    def solve_at(lin, start):
-        c1 = start.c1 if start is not None else te.hot_side_heat_line(m.S, m.R, m.K, I, q)[1]
-        _runaway(names, c1, lin.C, I)
-        return operate(m, q, lin, string, I_arr, start)
+        def solve_at(lin, start):
+            return arr.at(lin, I, start)
+    else:
+        solve_at = _target(arr, m.cold_face_target, state)
 
     fr, lin, op, solves = _on_field(design, field, Linear.of(base), None, solve_at, [])
-    _runaway(names, op.c1, lin.C, I)
+    if "unreachable" in state:
+        I_c, T_min = state["unreachable"]
+        raise DesignError("[module] cold_face_temperature",
+                          f"{_c(m.cold_face_target)} is out of reach of the placed modules: the warmest module's "
+                          f"cold face is at its coldest {_c(T_min)}, at {I_c:.3g} A per module (I_max "
+                          f"{m.max_current:g} A); raise the target, or lower the plate's resistance (more flow, a "
+                          "better plate or interface), use colder water or more modules")
+    I = state.get("I", m.current)
+    _runaway(arr.names, op.c1, lin.C, I)
+    I_arr = I * m.strings
     P = op.V * op.I
     slopes = lin.C @ op.c1
     placed = tuple(PlacedModule(n, s.at, float(th), float(tc), float(qh), q, float(v), float(p), float(k),
                                 m.hot_side_limit - float(th), float(i))
-                   for n, s, th, tc, qh, v, p, k, i in zip(names, design.sources, op.T_h, op.T_c, op.Q_h, op.V, P,
-                                                           slopes, op.I))
+                   for n, s, th, tc, qh, v, p, k, i in zip(arr.names, design.sources, op.T_h, op.T_c, op.Q_h, op.V,
+                                                           P, slopes, op.I))
     worst = max(placed, key=lambda pm: pm.T_hot)
     power = float(P.sum())
     T_cold = float(op.T_c.max())
-    mr = replace(lumped, voltage=worst.voltage, array_current=I_arr, array_voltage=op.U, T_cold=T_cold,
+    target = {} if m.current is not None else dict(best_cop_current=I, shortfall="")
+    mr = replace(lumped, current=I, voltage=worst.voltage, array_current=I_arr, array_voltage=op.U, T_cold=T_cold,
                  T_hot=worst.T_hot, Q_hot=float(op.Q_h.sum()), power=power,
                  cop=float(te.coefficient_of_performance(m.cold_load, power)), T_dew=fr.T_dew,
                  dew_margin=float(op.T_c.min()) - fr.T_dew, T_load=T_cold + m.cold_load * m.cold_side_resistance,
                  R_plate=fr.R_th, runaway_slope=float(max(abs(np.linalg.eigvals(lin.C * op.c1[None, :])))),
-                 field_solves=lumped.field_solves + solves, placed=placed)
+                 field_solves=lumped.field_solves + solves, placed=placed, **target)
+    how = () if m.current is not None else (
+        f"placed modules at a target cold face: the current per module at which the warmest module's cold face "
+        f"meets the target (every module at or below it), found on the field's coupling matrix about its last "
+        f"solve and corrected by fresh field solves ({solves} after the lumped array's {lumped.field_solves})",)
     return replace(fr, design=design, module=mr,
-                   assumptions=fr.assumptions + ASSUMPTIONS[:1] + PLACED_ASSUMPTIONS,
+                   assumptions=fr.assumptions + ASSUMPTIONS[:1] + PLACED_ASSUMPTIONS + how,
                    methods=fr.methods + _methods(base, m, op.I))
