@@ -131,7 +131,8 @@ def module_text(m, units: str = "si") -> list[str]:
     s = m.sweep
     n = len(s.current)
     idx = sorted({round(i * (n - 1) / (TEXT_ROWS - 1)) for i in range(TEXT_ROWS)}) if n > 1 else [0]
-    out += ["", "  current sweep (per module; power and heat for the whole array)",
+    which = "; the warmest cold face, the hottest hot face" if m.placed else ""
+    out += ["", f"  current sweep (per module{which}; power and heat for the whole array)",
             f"  {'A':>6}  {'cold ' + deg:>9}  {'hot ' + deg:>8}  {'COP':>6}  {'power ' + heat:>8}  "
             f"{'to plate ' + heat:>10}"]
     for i in idx:

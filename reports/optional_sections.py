@@ -66,7 +66,8 @@ def module_section(m, u: DisplayUnits, figures) -> Section:
         paras.append("Each module is placed on the plate and has its own hot face from the field, and its own "
                      "current (parallel strings share one voltage); the figures above are the worst module's "
                      "(hottest hot face, warmest cold face), the current the design's per module, the heat and "
-                     "power the whole array's.")
+                     "power the whole array's; the current sweep (the warmest cold face, the hottest hot face) and "
+                     "the coldest and best-COP currents are the placed modules' own.")
         for p in m.placed:
             rows.append(Row(f"{p.name}: hot / cold face",
                             f"{u.fmt('temperature', p.T_hot)} / {u.fmt('temperature', p.T_cold)}",

@@ -212,11 +212,18 @@ def test_parallel_modules_mirrored_about_the_centre_line_take_equal_currents():
     assert one.current + two.current == pytest.approx(2 * 3.5, rel=1e-12)
 
 
-def test_in_parallel_the_hotter_module_near_the_outlet_takes_less_current():
+PARALLEL = modified(PLACED, module__wiring="parallel", module__positions=[["24 mm", "0 mm"], ["70 mm", "0 mm"]])
+
+
+@pytest.fixture(scope="module")
+def parallel():
+    return _solve(PARALLEL)
+
+
+def test_in_parallel_the_hotter_module_near_the_outlet_takes_less_current(parallel):
     # Kirchhoff: parallel modules share one voltage and the array's current (2 x 3.5 A); the hotter module's
     # larger Seebeck voltage leaves it less current; the first law and the standard model module by module
-    data = modified(PLACED, module__wiring="parallel", module__positions=[["24 mm", "0 mm"], ["70 mm", "0 mm"]])
-    r = _solve(data)
+    r = parallel
     m = r.module
     inlet, outlet = m.placed
     assert outlet.T_hot > inlet.T_hot + 0.1
@@ -297,3 +304,43 @@ def test_target_cold_face_met_by_the_warmest_module(wiring):
     assert max(p.T_cold for p in again.placed) - 273.15 == pytest.approx(target, abs=1e-3)
     per_string = m.count // m.strings  # modules in series in each string, each at its string's current
     assert sum(p.current for p in m.placed) / per_string == pytest.approx(m.array_current, rel=1e-12)
+
+
+# --- the placed modules' own current sweep ------------------------------------------------------------------------
+
+@pytest.mark.parametrize("which", ["series", "parallel"])
+def test_sweep_against_full_placed_solves(which, example, parallel):
+    # computed by our own solver (two paths): the sweep on the field's coupling matrix about the solved field
+    # against the full placed solve (lumped array, fresh field solves) at two of its currents; the errors are
+    # tabulated in VALIDATION.md
+    r, data = (example, PLACED) if which == "series" else (parallel, PARALLEL)
+    s = r.module.sweep
+    assert len(s.current) == 31 and not s.stopped
+    for k in (10, 28):  # 1.87 A and 5.23 A per module, about half and one and a half times the 3.5 A solved
+        full = _solve(modified(data, module__current=f"{s.current[k]!r} A")).module
+        assert s.T_cold[k] == pytest.approx(full.T_cold, abs=0.02)
+        assert s.T_hot[k] == pytest.approx(full.T_hot, abs=0.02)
+        assert s.power[k] == pytest.approx(full.power, rel=1e-4)
+        assert s.cop[k] == pytest.approx(full.cop, rel=1e-4)
+        assert s.Q_hot[k] == pytest.approx(full.Q_hot, rel=1e-4)
+
+
+def test_coldest_and_best_cop_currents_are_the_placed_modules_own(example):
+    # computed by our own solver: the coldest current is the least warmest cold face of the placed sweep; at the
+    # example's 3.5 A (below it) the best-COP current is the operating one; the assumption says where they come from
+    m = example.module
+    assert m.T_cold_coldest <= min(m.sweep.T_cold) + 1e-12
+    assert 0 < m.coldest_current <= m.max_current and m.best_cop_current == m.current
+    assert any("coupling matrix about the solved field" in a for a in example.assumptions)
+    assert not any("are the lumped array's" in a for a in example.assumptions)
+
+
+def test_past_the_coldest_current_the_best_cop_current_reaches_the_same_cold_face():
+    # computed by our own solver (two paths): at 5.5 A, past the coldest current, the best-COP current found on the
+    # placed sweep's field gives the same warmest cold face in a full placed solve; the finding says so
+    r = _solve(modified(PLACED, module__current="5.5 A"))
+    m = r.module
+    assert m.best_cop_current < m.coldest_current < m.current
+    assert any(f.id == "module-past-coldest-current" for f in r.findings)
+    full = _solve(modified(PLACED, module__current=f"{m.best_cop_current!r} A")).module
+    assert full.T_cold == pytest.approx(m.T_cold, abs=0.02)

@@ -9,8 +9,8 @@ class ModuleSweep:
     """The coupled module and plate from zero current to I_max, one entry per current."""
 
     current: tuple[float, ...]  #: per module [A]
-    T_cold: tuple[float, ...]  #: cold face [K]
-    T_hot: tuple[float, ...]  #: hot face (hottest mounting face of the plate) [K]
+    T_cold: tuple[float, ...]  #: cold face [K] (placed modules: the warmest module's)
+    T_hot: tuple[float, ...]  #: hot face (hottest mounting face of the plate; placed: the hottest module's) [K]
     cop: tuple[float, ...]  #: [-]; NaN where no power is drawn
     power: tuple[float, ...]  #: whole array [W]
     Q_hot: tuple[float, ...]  #: heat into the plate, whole array [W]
