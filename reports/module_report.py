@@ -53,22 +53,23 @@ def placed_to_dict(p) -> dict:
     """One placed module's JSON object."""
     return {"name": p.name, "at_m": list(p.at), "hot_face_temperature_C": _c(p.T_hot),
             "cold_face_temperature_C": _c(p.T_cold), "heat_into_plate_W": p.Q_hot, "heat_pumped_W": p.Q_cold,
-            "module_voltage_V": p.voltage, "electrical_power_W": p.power, "runaway_slope": p.runaway_slope,
-            "hot_side_limit_margin_K": p.limit_margin}
+            "module_current_A": p.current, "module_voltage_V": p.voltage, "electrical_power_W": p.power,
+            "runaway_slope": p.runaway_slope, "hot_side_limit_margin_K": p.limit_margin}
 
 
 def placed_text(m, _t, _w, _d, deg: str, heat: str, diff: str) -> list[str]:
     """The text rows of each placed module (empty when the modules are not placed)."""
     if not m.placed:
         return []
-    out = ["", "  each placed module (the figures above are the worst module's: hottest hot face)",
+    out = ["", "  each placed module (the figures above are the worst module's: hottest hot face, warmest cold face;",
+           "  the current above is the design's per module)",
            f"  {'module':<10}  {'at mm':>13}  {'hot ' + deg:>8}  {'cold ' + deg:>9}  {'to plate ' + heat:>12}  "
-           f"{'pumped ' + heat:>10}  {'V':>6}  {'power ' + heat:>9}  {'slope':>6}  {'margin ' + diff:>11}"]
+           f"{'pumped ' + heat:>10}  {'A':>6}  {'V':>6}  {'power ' + heat:>9}  {'slope':>6}  {'margin ' + diff:>11}"]
     for p in m.placed:
         at = f"{p.at[0] * 1e3:.0f}, {p.at[1] * 1e3:+.0f}"
         out.append(f"  {p.name:<10}  {at:>13}  {_t(p.T_hot):8.2f}  {_t(p.T_cold):9.2f}  {_w(p.Q_hot):12.2f}  "
-                   f"{_w(p.Q_cold):10.2f}  {p.voltage:6.3f}  {_w(p.power):9.2f}  {p.runaway_slope:6.3f}  "
-                   f"{_d(p.limit_margin):+11.1f}")
+                   f"{_w(p.Q_cold):10.2f}  {p.current:6.3f}  {p.voltage:6.3f}  {_w(p.power):9.2f}  "
+                   f"{p.runaway_slope:6.3f}  {_d(p.limit_margin):+11.1f}")
     return out
 
 
@@ -130,7 +131,8 @@ def module_text(m, units: str = "si") -> list[str]:
     s = m.sweep
     n = len(s.current)
     idx = sorted({round(i * (n - 1) / (TEXT_ROWS - 1)) for i in range(TEXT_ROWS)}) if n > 1 else [0]
-    out += ["", "  current sweep (per module; power and heat for the whole array)",
+    which = "; the warmest cold face, the hottest hot face" if m.placed else ""
+    out += ["", f"  current sweep (per module{which}; power and heat for the whole array)",
             f"  {'A':>6}  {'cold ' + deg:>9}  {'hot ' + deg:>8}  {'COP':>6}  {'power ' + heat:>8}  "
             f"{'to plate ' + heat:>10}"]
     for i in idx:

@@ -63,17 +63,21 @@ def module_section(m, u: DisplayUnits, figures) -> Section:
         if note:
             paras.append(annotate(note[0].upper() + note[1:], u))
     if m.placed:
-        paras.append("Each module is placed on the plate and has its own hot face from the field; the figures "
-                     "above are the worst module's (hottest hot face), the heat and power the whole array's.")
+        paras.append("Each module is placed on the plate and has its own hot face from the field, and its own "
+                     "current (parallel strings share one voltage); the figures above are the worst module's "
+                     "(hottest hot face, warmest cold face), the current the design's per module, the heat and "
+                     "power the whole array's; the current sweep (the warmest cold face, the hottest hot face) and "
+                     "the coldest and best-COP currents are the placed modules' own.")
         for p in m.placed:
             rows.append(Row(f"{p.name}: hot / cold face",
                             f"{u.fmt('temperature', p.T_hot)} / {u.fmt('temperature', p.T_cold)}",
                             u.label("temperature")))
             rows.append(Row(f"{p.name}: heat into the plate / electrical power",
                             f"{u.fmt('power', p.Q_hot)} / {u.fmt('power', p.power)}", u.label("power")))
-            rows.append(Row(f"{p.name}: voltage / margin to the hot-face limit",
-                            f"{format_number(p.voltage)} V / {u.fmt('temperature_difference', p.limit_margin)}",
-                            u.label("temperature_difference")))
+            rows.append(Row(f"{p.name}: current / voltage", f"{format_number(p.current)} / "
+                            f"{format_number(p.voltage)}", "A / V"))
+            rows.append(Row(f"{p.name}: margin to the hot-face limit",
+                            u.fmt('temperature_difference', p.limit_margin), u.label("temperature_difference")))
     return Section("module", "Thermoelectric module", tuple(paras), rows=tuple(rows), figures=figures)
 
 

@@ -154,11 +154,15 @@ FIELDS: dict[str, Field] = {
     "[module] resistance": _F("electrical_resistance", "one module's electrical resistance (with seebeck)"),
     "[module] conductance": _F("thermal_conductance", "one module's thermal conductance (with seebeck)"),
     "[module] count": _F("integer", "modules on the plate (default 1)"),
-    "[module] wiring": _F("choice", "how the modules are wired"),
-    "[module] strings": _F("integer", "parallel strings (series-parallel wiring)"),
+    "[module] wiring": _F("choice", "how the modules are wired (parallel strings share one voltage, each "
+                                    "its own current)"),
+    "[module] strings": _F("integer", "parallel strings (series-parallel; placed modules fill them in the order "
+                                      "of positions)"),
     "[module] cold_load": _F("power", "heat the whole array pumps from the cold stage"),
-    "[module] current": _F("current", "drive current per module (or cold_face_temperature)"),
-    "[module] cold_face_temperature": _F("temperature", "cold-face temperature to reach (or current)"),
+    "[module] current": _F("current", "drive current per module: the array's over its strings (or "
+                                      "cold_face_temperature)"),
+    "[module] cold_face_temperature": _F("temperature", "cold-face temperature to reach, by the warmest placed "
+                                                       "module (or current)"),
     "[module] cold_side_resistance": _F("thermal_resistance", "cold faces to the load, the whole stage"),
     "[module] hot_side_limit": _F("temperature", "hottest hot face the modules allow"),
     "[module] size": _F("lengths", "one module's footprint, along the flow and across (with positions)"),

@@ -116,13 +116,13 @@ def read_module(data) -> Module:
         target = t.value("cold_face_temperature", "temperature")
     R_cold = t.value("cold_side_resistance", "thermal_resistance", required=False, default=0.0)
     limit = t.value("hot_side_limit", "temperature", required=False, default=DEFAULT_HOT_SIDE_LIMIT)
-    size, positions = _placement(t, count, which)
+    size, positions = _placement(t, count)
     t.finish()
     return Module(S, R, K, I_max, count, wiring, strings, Q_c, current, target, R_cold, limit, **extra,
                   size=size, positions=positions)
 
 
-def _placement(t: Table, count: int, which: str):
+def _placement(t: Table, count: int):
     """``size`` and ``positions`` (both or neither): one module's footprint and each module's centre [m].
 
     Whether they fit the plate and keep apart is checked with the plate (coldplate.plate.sources.place_modules).
@@ -147,9 +147,6 @@ def _placement(t: Table, count: int, which: str):
     if len(raw) != count:
         raise DesignError(t.field("positions"), f"gives {len(raw)} position(s) for count = {count} modules: give "
                                                 "one centre per module")
-    if which != "current":
-        raise DesignError(t.field("positions"), "placed modules are solved at a given drive current: give "
-                                                "[module] current instead of cold_face_temperature")
     positions = tuple(read_pair(p, f"{t.field('positions')} (module {i})")[:2] for i, p in enumerate(raw, 1))
     return (a, b), positions
 

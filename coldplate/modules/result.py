@@ -9,8 +9,8 @@ class ModuleSweep:
     """The coupled module and plate from zero current to I_max, one entry per current."""
 
     current: tuple[float, ...]  #: per module [A]
-    T_cold: tuple[float, ...]  #: cold face [K]
-    T_hot: tuple[float, ...]  #: hot face (hottest mounting face of the plate) [K]
+    T_cold: tuple[float, ...]  #: cold face [K] (placed modules: the warmest module's)
+    T_hot: tuple[float, ...]  #: hot face (hottest mounting face of the plate; placed: the hottest module's) [K]
     cop: tuple[float, ...]  #: [-]; NaN where no power is drawn
     power: tuple[float, ...]  #: whole array [W]
     Q_hot: tuple[float, ...]  #: heat into the plate, whole array [W]
@@ -28,9 +28,10 @@ class PlacedModule:
     Q_hot: float  #: heat into the plate [W]
     Q_cold: float  #: heat pumped from the cold stage (the array's cold load shared equally) [W]
     voltage: float  #: [V]
-    power: float  #: electrical power [W]
-    runaway_slope: float  #: c1 times the row sum of the field's coupling: its face's rise per kelvin of all [-]
+    power: float  #: electrical power, its voltage times its current [W]
+    runaway_slope: float  #: its row sum of C diag(c1) (the field's coupling): its face's rise per kelvin of all [-]
     limit_margin: float  #: hot_side_limit - T_hot [K] (negative: over the rating)
+    current: float  #: its own current [A]: the design's current per module in series, its string's in parallel
 
 
 @dataclass(frozen=True)

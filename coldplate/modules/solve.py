@@ -48,6 +48,14 @@ PLACED_ON_NETWORK = ("placed modules on the resistance network: solved as one lu
                      "are not resolved one by one; --model field gives each module its own hot face)")
 
 
+class TargetTooWarm(SolveError):
+    """A target cold face warmer than the cold face with no current (the modules would have to heat)."""
+
+    def __init__(self, message: str, T_zero: float):
+        super().__init__(message)
+        self.T_zero = T_zero  #: the cold face with no current [K]
+
+
 class _Runaway(Exception):
     def __init__(self, slope: float):
         super().__init__(slope)
@@ -294,8 +302,8 @@ def module_operating_point(design, plate_solver):
             shortfall = _unreachable(design, target, I_coldest, T_coldest, line)
             I_op = I_coldest
         elif target > T_c_s[0]:
-            raise SolveError(f"the target cold face {_c(target)} is warmer than the cold face with no current "
-                             f"({_c(T_c_s[0])}): the modules would have to heat; lower the target")
+            raise TargetTooWarm(f"the target cold face {_c(target)} is warmer than the cold face with no current "
+                                f"({_c(T_c_s[0])}): the modules would have to heat; lower the target", T_c_s[0])
         else:
             I_op = _bisect(lambda I: cold(I) - target, 0.0, I_coldest)
 
