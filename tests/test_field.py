@@ -20,7 +20,7 @@ import numpy as np
 import pytest
 
 from coldplate.design.errors import DesignError
-from coldplate.plate import conduction
+from coldplate.plate import conduction, fieldsolver
 from coldplate.plate.field import (ChannelCooling, FieldPlate, FieldSource, UniformBack, solve_field,
                                    tabulated)
 from coldplate.plate.fieldgrid import GridRules, build_grid
@@ -149,7 +149,7 @@ def test_energy_balance_heat_into_the_coolant_equals_the_load():
     assert (r.bulk[:, -1] - 288.15).mean() == pytest.approx(65.0 / mcp, rel=1e-6)
     assert np.all(np.diff(r.bulk, axis=1) >= -1e-12)
     # the iterative path satisfies the balance too (tolerance 1e-11 on the residual)
-    # (on the coarse level 0 grid: GMRES is slow here, see coldplate.plate.field)
+    # (on the coarse level 0 grid: the ILU-preconditioned GMRES is slow here, see coldplate.plate.fieldsolver)
     d = solve_field(plate, [UPSTREAM, DOWNSTREAM], cooling, level=0, uncertainty=False)
     g = solve_field(plate, [UPSTREAM, DOWNSTREAM], cooling, level=0, method="gmres", uncertainty=False)
     assert g.heat_to_coolant == pytest.approx(65.0, rel=1e-6)
@@ -311,6 +311,45 @@ def review_inputs():
 
 def review_case(level=1, uncertainty=True):
     return solve_field(*review_inputs(), level=level, uncertainty=uncertainty)
+
+
+def _two_on_the_review_plate():
+    plate, _, cooling = review_inputs()
+    two = [FieldSource("upstream", 100.0, (0.020, 0.020), (0.015, -0.008), 2e-5),
+           FieldSource("downstream", 60.0, (0.015, 0.025), (0.045, 0.006))]
+    return plate, two, cooling
+
+
+def test_the_multigrid_solve_agrees_with_the_direct_lu():
+    # computed by our own solver (two solvers of one discrete system): the default above fieldsolver.DIRECT_UP_TO
+    # unknowns, GMRES with an algebraic multigrid preconditioner to a 1e-11 residual, against SuperLU's LU (exact
+    # to round-off): every source's faces, the coupling matrix, the coolant and the energy balance
+    plate, two, cooling = _two_on_the_review_plate()
+    amg = solve_field(plate, two, cooling, uncertainty=False)
+    lu = solve_field(plate, two, cooling, uncertainty=False, method="direct")
+    assert amg.unknowns > fieldsolver.DIRECT_UP_TO
+    assert (amg.method, lu.method) == ("amg", "direct")
+    assert amg.iterations > 0 and lu.iterations == 0
+    rise = lu.hottest - lu.reference
+    for a, b in zip(amg.sources, lu.sources):
+        assert a.face_max == pytest.approx(b.face_max, abs=1e-9 * rise)
+        assert a.face_mean == pytest.approx(b.face_mean, abs=1e-9 * rise)
+    assert np.allclose(amg.coupling, lu.coupling, rtol=1e-9, atol=0)
+    assert np.allclose(amg.face, lu.face, rtol=0, atol=1e-9 * rise)
+    assert np.allclose(amg.bulk, lu.bulk, rtol=0, atol=1e-9 * rise)
+    assert amg.heat_to_coolant == pytest.approx(160.0, rel=1e-9)
+
+
+def test_a_multigrid_solve_that_does_not_converge_is_handed_to_the_lu(monkeypatch):
+    # the solver's contract: never a less accurate answer; the LU takes over when GMRES stops short
+    plate, two, cooling = _two_on_the_review_plate()
+    monkeypatch.setattr(fieldsolver, "AMG_MAX_ITERATIONS", 2)
+    r = solve_field(plate, two, cooling, uncertainty=False)
+    lu = solve_field(plate, two, cooling, uncertainty=False, method="direct")
+    assert r.method == "direct"
+    assert r.hottest == pytest.approx(lu.hottest, abs=1e-12)
+    with pytest.raises(ValueError, match="unknown method"):
+        solve_field(plate, two, cooling, method="cholesky")
 
 
 def test_review_channel_case_within_5_percent():

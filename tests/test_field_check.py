@@ -121,7 +121,7 @@ def test_energy_balance_and_the_network_on_every_example(path):
 
 def test_superposition_of_two_sources_through_the_adapter():
     # source: linearity of the discrete problem at fixed properties: the field of several sources is the sum of
-    # each alone (same operating point, same cooling), within the direct solver's round-off
+    # each alone (same operating point, same cooling), within the linear solver's tolerance (residual 1e-11)
     d = _reagent_with_sources()
     op = operating_point(d, d.flow, d.heat.load)
     cooling, _, _ = COOLINGS["channels"](d, op, None)

@@ -23,7 +23,7 @@ the channels unless one mass flow per channel is given (a manifold's split).  ``
 same balance for coolant under the base's bottom face: a tube's passes in series (each pass its own water
 temperature, alternating direction) or a cavity.  The unknowns are the rises
 above the inlet, so the system is linear in the loads, and the field of several sources is the sum of each
-source's field per watt (superposition): one factorisation, one back-substitution per source.  The
+source's field per watt (superposition): one solve per source on one matrix.  The
 coupling matrix ``C[i, j]`` is the mean face rise of source i per watt of source j; with the coolant
 carried downstream it is not symmetric (water warmed by an upstream source heats a downstream one); with a
 fixed fluid temperature (``UniformBack``) the conduction operator is symmetric and so is C (reciprocity).
@@ -37,24 +37,18 @@ uniform reporting of grid refinement studies, J. Fluids Eng. 116:405-413; F_s = 
 memory).  With p = 2 this is ``|T_fine - T_coarse|``.  The hottest point's uncertainty is the larger of its
 own index and the sources' mean-face indices (the hottest cell value converges non-monotonically).
 
-The linear solver (measured in ``benchmarks/field.py``)
--------------------------------------------------------
-The direct sparse LU (``scipy.sparse.linalg.splu``, minimum-degree ordering on A + A^T) is the default.
-Measured (benchmarks/field.py, this 2-core shared machine): on the review case's default grid (22k cells)
-a back-substitution costs 2-5 % of the factorisation, while ILU-preconditioned GMRES (``spilu`` drop 1e-4,
-restart 50, to 1e-11) took 212-392 iterations and 7-80 times as long as the whole LU for ONE right-hand
-side.  Every further source then costs the LU one back-substitution (a few per cent of the
-factorisation) where GMRES starts again, so the coupling matrix of 8 sources costs the LU little more than
-one solve.  The LU is also exact to round-off, which the energy balance (coolant heat = load to 1e-6) needs
-without a tolerance to tune.  The system is not symmetric (the coolant carries heat one way), which rules
-out plain conjugate gradients for channel plates.  The LU's cost grows faster than the cells (its fill is
-20-50 times the matrix: 0.24-2.1 s to factorise 22k cells, 1.1-3.4 s for 39k on the example plate, 5.6-8 s
-for 87k with 8 sources, the spread being other work on this shared machine), so larger grids
-want a better ordering or an algebraic multigrid preconditioner.  pyamg was tried (outside the project, not a
-dependency): on the same two systems its smoothed aggregation took 6-9 s to set up and 1.5-3 s per solve
-(28-31 GMRES iterations), its AIR solver 1.7-6.4 s to set up and 0.6-1.9 s per solve, against 0.5-2 s for
-the whole LU in the same session: it does not serve at these sizes, and each source would need its own solve.  ``method="gmres"`` keeps the iterative path for comparison.  COLAMD (SuperLU's default) filled
-about 2.5 times more than the minimum-degree ordering on A + A^T here.
+The linear solver (:mod:`coldplate.plate.fieldsolver`, measured in ``benchmarks/field.py``)
+-----------------------------------------------------------------------------------------
+The system is not symmetric (the coolant carries heat one way), which rules out plain conjugate gradients for
+channel plates.  Above ``fieldsolver.DIRECT_UP_TO`` unknowns (every example's default grid) it is solved by
+GMRES with a classical algebraic multigrid preconditioner (pyamg), one solve per source, to a relative
+residual of 1e-11 (the temperatures agree with the LU's to about 1e-11 of the rise, the energy balance to
+1e-12); a column that does not converge is handed to the LU, so the answer is never less accurate.  Smaller
+grids take SuperLU's direct LU (minimum degree on A + A^T), exact to round-off.  The LU's fill grows faster
+than the cells (47 times the matrix on the three-source example's 102,240 cells: 2.5 s and 400 MB to
+factorise, against 0.7 s and tens of MB for the multigrid solve of its three sources); the measurements
+behind the choice are in the solver module's docstring.  The level below, for the grid uncertainty, needs
+only the faces' values, so it is solved once for the loads together (one right-hand side), not per source.
 """
 from __future__ import annotations
 
@@ -65,19 +59,17 @@ from typing import Callable, Sequence, Union
 import numpy as np
 
 from coldplate.design.errors import DesignError
+from coldplate.plate import fieldsolver
 from coldplate.plate.fieldgrid import BASE, CHANNEL_LAYER, LID, Grid, GridRules, build_grid
 
 #: The grid level solved by default (level 0 of :class:`GridRules` halved once); its Richardson partner is level 0.
 DEFAULT_LEVEL = 1
 #: Formal order of the discretisation and the two-grid safety factor of the grid convergence index (Roache 1994).
 GRID_ORDER, GCI_SAFETY = 2.0, 3.0
-#: The most solid cells the field solves (a direct LU of more takes minutes and gigabytes): beyond, a SolveError
-#: names the count and points to the network model.  The examples take 13k-40k, eight sources 77k.
+#: The most solid cells the field solves (the multigrid solve grows with the cells, but its fallback, a direct LU
+#: of more, takes minutes and gigabytes): beyond, a SolveError names the count and points to the network model.
+#: The examples take 12,672-102,240, the 8-source benchmark 87,120.
 MAX_CELLS = 250_000
-#: SuperLU's diagonal pivot threshold: the diagonal is taken unless under this share of its column's largest entry.
-DIAG_PIVOT = 0.01
-#: Tolerance of the iterative path (relative residual); the direct path is exact to round-off.
-GMRES_RTOL = 1e-11
 
 Coefficient = Union[float, Callable[[np.ndarray], np.ndarray]]
 
@@ -210,7 +202,7 @@ class FieldResult:
     cells: int  #: solid cells (fluid nodes not counted)
     unknowns: int  #: solid cells + coolant nodes
     iterations: int  #: Krylov iterations over all right-hand sides (0 with the direct factorisation)
-    method: str  #: "direct" or "gmres"
+    method: str  #: the linear solver of the requested level: "direct", "amg" or "gmres" (:mod:`fieldsolver`)
     level: int
     coarse_hottest: float = field(default=math.nan)  #: hottest at the level below [K]
 
@@ -504,56 +496,25 @@ def _source_columns(grid: Grid, system: _System, sources) -> tuple[np.ndarray, n
     return B, flux
 
 
-def _linear_solve(M, B, method):
-    """Solve M X = B for every column; returns (X, Krylov iterations)."""
-    if method == "direct":
-        from scipy.sparse.linalg import splu
-
-        # SymmetricMode with a small diagonal threshold: the pivots stay on the diagonal (the rows are
-        # diagonally dominant but for the coolant's), so the minimum-degree ordering on A + A^T is kept as
-        # chosen; measured 15-20 % faster than partial pivoting, equal to 3e-15 (benchmarks/field.py)
-        lu = splu(M, permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=DIAG_PIVOT, options=dict(SymmetricMode=True))
-        return lu.solve(B), 0
-    if method == "gmres":
-        from scipy.sparse.linalg import LinearOperator, gmres, spilu
-
-        ilu = spilu(M, drop_tol=1e-4, fill_factor=10)
-        P = LinearOperator(M.shape, ilu.solve)
-        X = np.zeros_like(B)
-        total = 0
-        for m in range(B.shape[1]):
-            count = [0]
-
-            def tick(_, count=count):
-                count[0] += 1
-
-            x, info = gmres(M, B[:, m], M=P, rtol=GMRES_RTOL, atol=0.0, restart=50, maxiter=200,
-                            callback=tick, callback_type="pr_norm")
-            if info != 0:
-                from coldplate.design.errors import SolveError
-
-                raise SolveError(f"the field's GMRES did not converge ({count[0]} iterations)")
-            X[:, m] = x
-            total += count[0]
-        return X, total
-    raise ValueError(f"unknown method {method!r}: 'direct' or 'gmres'")
-
-
 @dataclass(frozen=True)
 class _Level:
     grid: Grid
-    face_unit: np.ndarray  # (nx, ny, N) face rise per watt of each source
+    face_unit: np.ndarray  # (nx, ny, N) face rise per watt of each source; (nx, ny, 1) at the loads if combined
     masks: np.ndarray  # (nx, ny, N) bool: cells under each source
     weights: np.ndarray  # (nx, ny, N) area weights of each source's cells (sum 1)
-    fluid_unit: np.ndarray  # (nc, nx, N) outlet-node rises per watt
+    fluid_unit: np.ndarray  # (nc, nx, N) outlet-node rises per watt (as face_unit when combined)
     system: _System
-    wet_unit: np.ndarray  # (N,) heat to a fixed fluid per watt (UniformBack)
+    wet_unit: np.ndarray  # (N,) heat to a fixed fluid per watt (UniformBack; as face_unit when combined)
     cells: int
     unknowns: int
     iterations: int
+    method: str  # the linear solver used ("direct", "amg" or "gmres")
+    combined: bool  # solved for the loads together (one right-hand side), not per source
 
 
-def _solve_level(plate, sources, cooling, rules, level, method) -> _Level:
+def _solve_level(plate, sources, cooling, rules, level, method, loads=None) -> _Level:
+    """One grid level: per watt of each source (the coupling needs every source's field), or with ``loads`` for
+    the loads together, one right-hand side (enough for the faces' values: the Richardson partner)."""
     channels, span, lanes = None, None, ()
     if isinstance(cooling, ChannelCooling):
         channels, span = (cooling.count, cooling.width, cooling.depth, cooling.lid), cooling.span
@@ -570,29 +531,36 @@ def _solve_level(plate, sources, cooling, rules, level, method) -> _Level:
                          "channels or sources far smaller than the plate); use the network model (--model network)")
     system = _assemble(grid, plate.conductivity, cooling)
     B, flux = _source_columns(grid, system, sources)
-    X, iterations = _linear_solve(system.matrix, B, method)
+    rhs, top_flux = (B, flux) if loads is None else (B @ loads[:, None], (flux @ loads)[:, :, None])
+    X, iterations, used = fieldsolver.solve(system.matrix, rhs, method)
     top = system.idx[:, :, 0]
-    face = X[top] + flux * grid.dz[0] / (2 * plate.conductivity)
+    face = X[top] + top_flux * grid.dz[0] / (2 * plate.conductivity)
     area = np.outer(grid.dx, grid.dy)[:, :, None]
     # each cell's share of a source's watt (an exact partition: the grid has an edge at every source edge, to
     # round-off); the source's cells for its hottest point are those it covers at least half of
     weights = flux * area
     masks = flux * np.asarray([s.area for s in sources]) > 0.5
     nx = grid.shape[0]
-    fluid = X[system.n_solid:].reshape(system.n_channels, nx, -1) if system.n_channels else np.zeros((0, nx, len(sources)))
-    wet = np.zeros(len(sources))
+    fluid = X[system.n_solid:].reshape(system.n_channels, nx, -1) if system.n_channels \
+        else np.zeros((0, nx, X.shape[1]))
+    wet = np.zeros(X.shape[1])
     if system.wet:
         s, G = system.wet
         wet = G @ X[s]
-    return _Level(grid, face, masks, weights, fluid, system, wet, system.n_solid, system.matrix.shape[0], iterations)
+    return _Level(grid, face, masks, weights, fluid, system, wet, system.n_solid, system.matrix.shape[0], iterations,
+                  used, loads is not None)
 
 
 def _source_values(lv: _Level, sources, loads):
-    """Per source: (face max rise, mean rise, position) on the device side; the coupling matrix."""
-    face = lv.face_unit @ loads
-    coupling = np.einsum("xyi,xyj->ij", lv.weights, lv.face_unit)
-    for i, s in enumerate(sources):
-        coupling[i, i] += s.interface / s.area
+    """Per source: (face max rise, mean rise, position) on the device side; the coupling matrix (None when the
+    level was solved for the loads together)."""
+    if lv.combined:
+        face, coupling = lv.face_unit[:, :, 0], None
+    else:
+        face = lv.face_unit @ loads
+        coupling = np.einsum("xyi,xyj->ij", lv.weights, lv.face_unit)
+        for i, s in enumerate(sources):
+            coupling[i, i] += s.interface / s.area
     out = []
     xc, yc = lv.grid.xc, lv.grid.yc
     for i, s in enumerate(sources):
@@ -630,11 +598,12 @@ def _read_only(a):
 
 
 def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, level: int = DEFAULT_LEVEL,
-                rules: GridRules = GridRules(), method: str = "direct", uncertainty: bool = True) -> FieldResult:
+                rules: GridRules = GridRules(), method: str = "auto", uncertainty: bool = True) -> FieldResult:
     """Solve the plate's field for ``sources`` with ``cooling`` (:class:`ChannelCooling` or :class:`UniformBack`).
 
     ``level``: grid level (:func:`coldplate.plate.fieldgrid.build_grid`); ``uncertainty``: also solve the level
-    below and report the grid convergence index (needs level >= 1).  Bad input raises
+    below and report the grid convergence index (needs level >= 1); ``method``: the linear solver ("auto", "amg",
+    "direct" or "gmres", :func:`coldplate.plate.fieldsolver.solve`).  Bad input raises
     :class:`~coldplate.design.errors.DesignError` naming the field; nothing is solved then.
     """
     sources = tuple(sources)
@@ -648,7 +617,7 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
     U_mean = np.full(len(sources), math.nan)
     U_hot = coarse_hot = math.nan
     if uncertainty and level >= 1:
-        lc = _solve_level(plate, sources, cooling, rules, level - 1, method)
+        lc = _solve_level(plate, sources, cooling, rules, level - 1, method, loads=loads)
         _, cvals, _ = _source_values(lc, sources, loads)
         factor = GCI_SAFETY / (2.0**GRID_ORDER - 1.0)
         U_mean = np.array([factor * abs(f[1] - c[1]) for f, c in zip(values, cvals)])
@@ -676,6 +645,6 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
         coupling=coupling, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
         bulk_x=bulk_x, bulk=bulk, channel_heat=channel_heat, heat_to_coolant=heat,
         load=float(loads.sum()), reference=float(ref), hottest=ref + hottest, grid_uncertainty=float(U_hot),
-        cells=lv.cells, unknowns=lv.unknowns, iterations=lv.iterations, method=method, level=int(level),
+        cells=lv.cells, unknowns=lv.unknowns, iterations=lv.iterations, method=lv.method, level=int(level),
         coarse_hottest=float(coarse_hot),
     )
