@@ -50,7 +50,7 @@ def candidates(air) -> model.Candidates:
 def evaluate(air, c: model.Candidates, load: float, fp: tuple[float, float], R_interface: float):
     """Hottest face [K] of every candidate and the air flow through it (None for natural convection)."""
     pr = model.air_props(air.temperature, air.pressure)
-    table = model.SpreadingTable(air, *fp)
+    table = model.spreading_table(air, *(float(v) for v in fp))
     area = air.length * air.width
     if air.drive == "natural":
         props_at = model.air_props_table(air.temperature, air.pressure)

@@ -20,6 +20,7 @@ coefficient found with the base temperature by bisection (Ra depends on it).
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 from CoolProp.CoolProp import PropsSI
@@ -68,12 +69,16 @@ def air_props(T: float, p: float) -> AirProps:
     return AirProps(T, p, get("D"), get("V"), get("L"), get("C"))
 
 
+@lru_cache(maxsize=16)
 def air_props_table(T_low: float, p: float, span: float = 1200.0, step: float = 2.0):
     """Dry-air properties as a function of arrays of temperature: CoolProp at nodes ``step`` K apart from
     ``T_low`` over ``span`` K, interpolated linearly (for the search's many candidates; the chosen sink is
-    solved with CoolProp directly).  Returns ``props_at(T) -> AirProps`` of arrays."""
+    solved with CoolProp directly).  Returns ``props_at(T) -> AirProps`` of arrays.  Kept per room and pressure
+    (its 2,400 CoolProp calls are most of an air check; a live re-check asks again)."""
     T = np.arange(T_low, T_low + span + step, step)
     cols = {key: np.array([PropsSI(key, "T", float(x), "P", p, "Air") for x in T]) for key in ("D", "V", "L", "C")}
+    for a in (T, *cols.values()):
+        a.flags.writeable = False
 
     def props_at(Tq):
         Tq = np.clip(np.asarray(Tq, dtype=float), T[0], T[-1])
@@ -184,6 +189,15 @@ class SpreadingTable:
     def R_centroid(self, h_eff):
         h_eff = np.asarray(h_eff, dtype=float)
         return np.interp(np.log(h_eff), np.log(self.h), self.spread) + self._one_d(h_eff)
+
+
+@lru_cache(maxsize=32)
+def spreading_table(air, fp_l: float, fp_w: float) -> SpreadingTable:
+    """The :class:`SpreadingTable` of one sink base and footprint, kept (its 97 exact series depend on the design
+    alone, and a live re-check or a module solve asks for the same table again)."""
+    table = SpreadingTable(air, fp_l, fp_w)
+    table.h.flags.writeable = table.spread.flags.writeable = False
+    return table
 
 
 def exact_centroid(air, fp_l: float, fp_w: float, h_eff: float):
