@@ -121,6 +121,8 @@ def fRe_rectangular_Shah_London(alpha):
     """
     if np.ndim(alpha) == 0:
         return _fRe_rectangular_one(float(alpha))
+    if np.size(alpha) == 1:                         # one duct as a one-entry array (a single sink's fins)
+        return np.full(np.shape(alpha), _fRe_rectangular_one(float(np.ravel(alpha)[0])))
     return _fRe_rectangular(alpha)
 
 

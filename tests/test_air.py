@@ -89,6 +89,19 @@ def test_sink_gap_friction_tends_to_96_over_Re():
     assert float(fr.f[0]) * float(Re[0]) == pytest.approx(expected, rel=0.02)
 
 
+def test_one_sink_drop_equals_the_search_formula():
+    # Computed by our own functions: the fan's operating point asks pressure_drop_of_one (the geometry held),
+    # which must equal pressure_drop itself, laminar through the VDI blend to turbulent, to round-off.
+    d = load_design(ROOT / "examples" / "sample-stage-air.toml")
+    cands = candidates(d.air)
+    pr = model.air_props(300.0, 101325.0)
+    for k in (0, cands.N.size // 2, cands.N.size - 1):
+        one = model.Candidates(cands.N[k:k + 1], cands.t[k:k + 1], cands.H[k:k + 1])
+        dp = model.pressure_drop_of_one(one, d.air, pr)
+        for Q in (1e-6, 1e-4, 3e-3, 0.05, 0.4):
+            assert dp(Q) == pytest.approx(float(model.pressure_drop(one, Q, d.air, pr)[0][0]), rel=1e-12)
+
+
 def test_sink_gap_nusselt_tends_to_shah_london_parallel_plates():
     # Fully developed, the gap's Nu approaches the two-plates-heated H1 value 8.235 (Shah & London 1978); at
     # alpha = 0.02 with the base heated too it stays within 4 % of it.

@@ -73,7 +73,7 @@ def solve_sink(air, c: model.Candidates, load: float, fp, R_interface: float, de
             if air.drive == "fan":
                 fan = PumpTable(air.fan_flow, air.fan_pressure)
                 try:
-                    Q = intersect(fan, lambda q: float(model.pressure_drop(c, q, air, pr)[0][0]))
+                    Q = intersect(fan, model.pressure_drop_of_one(c, air, pr))
                 except PumpError as exc:
                     raise SolveError("the air sink's fan: " + str(exc).replace("pump", "fan").replace(
                         "circuit", "sink").replace(" L/min", " L/min of air")) from None
