@@ -29,8 +29,10 @@ from coldplate.supply.result import CircuitResult, PumpCurve, SystemCurve
 FLOW_MAX = 0.01
 #: First trial flow when the design gives none [m^3/s] (1 L/min).
 FLOW_START = 1.0 / 6e4
-#: Points of the system curve.
-CURVE_POINTS = 13
+#: Points of the system curve (zero to twice the operating flow: the operating flow is the middle one) and of the
+#: fitted pump curve beside it.
+CURVE_POINTS = 11
+PUMP_POINTS = 13
 
 
 class PlateAt:
@@ -139,7 +141,7 @@ def operate(design, load: float | None = None, plate: PlateAt | None = None) -> 
         except PumpError as exc:
             raise DesignError("[supply] pump_head", str(exc)) from None
         fit = pump_curve(table)
-        qs = np.linspace(table.V_dot[0], table.V_dot[-1], CURVE_POINTS)
+        qs = np.linspace(table.V_dot[0], table.V_dot[-1], PUMP_POINTS)
         pump = PumpCurve(tuple(map(float, qs)), tuple(fit(q) for q in qs))
     r = plate.point(V)
     if r is None:
