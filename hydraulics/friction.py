@@ -208,7 +208,8 @@ class DuctFriction:
 
     ``DuctFriction(L, D_h, alpha, shape, rel_roughness)(Re)`` equals
     ``darcy_friction(Re, L, D_h, alpha, shape, rel_roughness).f`` to round-off (tests/test_friction_fixed.py);
-    build it through :func:`duct_friction`, which keeps one per geometry.  Positive Re only; no records: the
+    build it through :func:`duct_friction`, which keeps one per geometry.  The geometry may also be arrays (many
+    candidate ducts, Re of the same shape: the air sink search).  Positive Re only; no records: the
     caller takes the Validity records from one :func:`darcy_friction` call at its answer.  Laminar rectangle,
     with r = sqrt(A)/D_h and L+ = L / (D_h r^2 Re) as in :func:`f_apparent_Muzychka_Yovanovich`::
 
@@ -218,17 +219,19 @@ class DuctFriction:
     def __init__(self, L, D_h, alpha, shape, rel_roughness=0.0):
         if shape not in ("rectangle", "circle"):
             raise ValueError(f"shape must be 'rectangle' or 'circle', not {shape!r}")
-        self.L, self.D_h, self.shape = float(L), float(D_h), shape
-        self.rel_roughness = float(rel_roughness)
+        num = lambda x: float(x) if np.ndim(x) == 0 else np.asarray(x, dtype=float)  # noqa: E731
+        self.L, self.D_h, self.shape = num(L), num(D_h), shape
+        self.rel_roughness = num(rel_roughness)
+        self._smooth = bool(np.all(np.asarray(rel_roughness) == 0.0))
         if shape == "rectangle":
             from hydraulics.ducts import fRe_rectangular_Shah_London, sqrtA_over_Dh
 
-            r = float(sqrtA_over_Dh(alpha))
+            r = num(sqrtA_over_Dh(alpha))
             self._c = 4.0 / r
             self._a = 3.44**2 * self.D_h * r * r / self.L            # zero for a fully developed length (inf)
-            self._b = (r * float(fRe_rectangular_Shah_London(alpha)) / 4.0) ** 2
-        self._lam_end = float(self._laminar(np.asarray(RE_LAMINAR_END)))
-        self._turb_start = float(self._turbulent(np.asarray(RE_TURBULENT_START)))
+            self._b = (r * num(fRe_rectangular_Shah_London(alpha)) / 4.0) ** 2
+        self._lam_end = num(self._laminar(np.asarray(RE_LAMINAR_END)))
+        self._turb_start = num(self._turbulent(np.asarray(RE_TURBULENT_START)))
 
     def _laminar(self, Re):
         if self.shape == "circle":
@@ -236,7 +239,7 @@ class DuctFriction:
         return self._c * np.sqrt(self._a * Re + self._b) / Re
 
     def _turbulent(self, Re):
-        if self.rel_roughness == 0.0:
+        if self._smooth:
             return (0.790 * np.log(Re) - 1.64) ** -2                   # f_Petukhov
         return f_Colebrook(Re, self.rel_roughness)
 
@@ -248,7 +251,7 @@ class DuctFriction:
         if Re.min() < RE_TURBULENT_START:
             used.append((f_apparent_Shah if self.shape == "circle" else f_apparent_Muzychka_Yovanovich).validity)
         if Re.max() > RE_LAMINAR_END:
-            used.append((f_Petukhov if self.rel_roughness == 0.0 else f_Colebrook).validity)
+            used.append((f_Petukhov if self._smooth else f_Colebrook).validity)
         return tuple(used)
 
     def __call__(self, Re):

@@ -100,6 +100,10 @@ def test_one_sink_drop_equals_the_search_formula():
         dp = model.pressure_drop_of_one(one, d.air, pr)
         for Q in (1e-6, 1e-4, 3e-3, 0.05, 0.4):
             assert dp(Q) == pytest.approx(float(model.pressure_drop(one, Q, d.air, pr)[0][0]), rel=1e-12)
+    many = model.pressure_drop_many(cands, d.air, pr)             # every candidate at once, as the search asks
+    for Q in (1e-6, 1e-4, 3e-3, 0.05, 0.4):
+        q = np.full(cands.N.size, Q) * np.linspace(0.5, 1.5, cands.N.size)
+        assert many(q) == pytest.approx(model.pressure_drop(cands, q, d.air, pr)[0], rel=1e-12)
 
 
 def test_sink_gap_nusselt_tends_to_shah_london_parallel_plates():

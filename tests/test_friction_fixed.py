@@ -35,6 +35,15 @@ def test_duct_friction_equals_darcy_friction(shape, alpha, rough, L):
     assert fixed(grid) == pytest.approx(np.asarray(general.f).reshape(3, 4), rel=1e-12)
 
 
+def test_duct_friction_over_arrays_of_ducts():
+    # many ducts at once (the air sink search's candidates): each equals its own darcy_friction
+    D_h = np.linspace(0.001, 0.01, RE.size)
+    alpha = np.linspace(0.02, 1.0, RE.size)
+    for rough in (0.0, 0.003):
+        f = DuctFriction(0.12, D_h, alpha, "rectangle", rough)(RE)
+        assert f == pytest.approx(np.asarray(darcy_friction(RE, 0.12, D_h, alpha, "rectangle", rough).f), rel=1e-12)
+
+
 def test_duct_friction_is_kept_per_geometry():
     a = duct_friction(0.05, 0.004, 0.25, "rectangle", 0.0)
     assert duct_friction(0.05, 0.004, 0.25, "rectangle", 0.0) is a

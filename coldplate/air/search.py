@@ -58,7 +58,7 @@ def evaluate(air, c: model.Candidates, load: float, fp: tuple[float, float], R_i
         return air.temperature + load * (table.R_centroid(hA / area) + R_interface), None
     if air.drive == "fan":
         fan = PumpTable(air.fan_flow, air.fan_pressure)
-        Q = intersect_many(fan, lambda q: model.pressure_drop(c, q, air, pr)[0], c.N.size)
+        Q = intersect_many(fan, model.pressure_drop_many(c, air, pr), c.N.size)
     else:
         Q = model.frontal_flow(air, c.H, air.velocity)
     ok = np.isfinite(Q)

@@ -28,7 +28,7 @@ from CoolProp.CoolProp import PropsSI
 from coldplate.air import correlations as corr
 from coldplate.plate.conduction import fin_efficiency_straight, fin_m, spreading_MCY
 from coldplate.plate.convection import nusselt
-from hydraulics.friction import darcy_friction, duct_friction
+from hydraulics.friction import DuctFriction, darcy_friction, duct_friction
 from hydraulics.losses import K_sudden_contraction, K_sudden_expansion
 
 #: Density of the sink materials [kg/m^3] for the sink's mass (ASM Handbook Vol. 2, 1990, and Incropera et al.
@@ -136,6 +136,22 @@ def pressure_drop_of_one(c: Candidates, air, pr: AirProps):
         V = max(float(Q), 1e-12) / area
         f = float(friction(pr.rho * V * D_h / pr.mu))
         return (K + f * air.length / D_h) * 0.5 * pr.rho * V**2
+
+    return dp
+
+
+def pressure_drop_many(c: Candidates, air, pr: AirProps):
+    """``dp(Q)`` [Pa] of every candidate at its air flow Q [m^3/s] (an array like the candidates'):
+    :func:`pressure_drop`'s value with the geometry held (the friction through
+    :class:`hydraulics.friction.DuctFriction` over the candidates), for the fans' operating points of the search."""
+    s, area, D_h, alpha = channel(c, air.width)
+    front = air.width * c.H
+    K = K_sudden_contraction(front, area) + K_sudden_expansion(area, front)
+    friction = DuctFriction(air.length, D_h, alpha, "rectangle")
+
+    def dp(Q):
+        V = np.maximum(np.asarray(Q, dtype=float), 1e-12) / area
+        return (K + friction(pr.rho * V * D_h / pr.mu) * air.length / D_h) * 0.5 * pr.rho * V**2
 
     return dp
 
