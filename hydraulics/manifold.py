@@ -48,7 +48,7 @@ from typing import Callable
 import numpy as np
 
 from hydraulics.ducts import aspect_ratio, fRe_rectangular_Shah_London, hydraulic_diameter_rectangle
-from hydraulics.friction import darcy_friction, duct_friction
+from hydraulics.friction import DuctFriction, darcy_friction, duct_friction
 from hydraulics.validity import Validity
 
 #: Momentum coefficients k = 2 - theta of the dividing and combining header (momentum theory, theta = 1 and 0;
@@ -318,64 +318,119 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float,
     density ``rho`` [kg/m^3] and viscosity ``mu`` [Pa s] (one property set: the split is hydraulic).
 
     Newton starts from the even split, or from ``start``'s flows (scaled to ``total_flow``) and port-to-port drop:
-    the solved split of a neighbouring problem (the same plate with the other header-friction form) saves a step
-    or two.  Give ``start`` only where the caller always solves the same sequence, so an answer never depends on
-    what was solved before it (both starts meet the same tolerance; the answers differ by round-off of it)."""
+    the solved split of a neighbouring problem (the same plate at a nearby flow) saves a step or two.  Give
+    ``start`` only where the caller always solves the same sequence, so an answer never depends on what was solved
+    before it (every start meets the same tolerance; the answers differ by round-off of it)."""
+    return solve_split_forms(manifold, (manifold.friction_length,), total_flow, rho, mu, (start,))[0]
+
+
+def _pressures_forms(lines, Qs, total, records):
+    """The header pressures of K header-friction forms of one header (``lines``: their _HeaderLine, alike but for
+    the friction), ``Qs`` one flow array per form ((N,) or (N, M) each): one array evaluation for all of them (the
+    friction factors form by form).  Returns, per form, what :meth:`_HeaderLine.pressures` returns."""
+    if len(lines) == 1:
+        return [lines[0].pressures(Qs[0], total, records=records)]
+    one = np.ndim(Qs[0]) == 1
+    Q = np.concatenate([q[:, None] if one else q for q in Qs], axis=1)
+    line = lines[0]
+    V = line.segment_flows(Q, total) / line.A
+    Re = np.maximum(np.abs(V) * line._Re_scale, 1e-9)
+    width = Q.shape[1] // len(lines)
+    f = _forms_friction(tuple(float(ln.L) for ln in lines), float(line.D_h), float(line.alpha),
+                        float(line.rel_rough), width)(Re)
+    p_far = line._M_friction @ (f * line._friction_scale * V * np.abs(V)) + line._M_momentum @ (V * V)
+    out = []
+    for k, ln in enumerate(lines):
+        cols = slice(k * width, (k + 1) * width)
+        p = p_far[:, cols]
+        out.append((p[:, 0] if one else p, ln.friction.methods(Re[:, cols]) if records else (),
+                    float(np.max(Re[:, cols]))))
+    return out
+
+
+@lru_cache(maxsize=64)
+def _forms_friction(lengths: tuple, D_h: float, alpha: float, rel_rough: float, width: int) -> DuctFriction:
+    """One DuctFriction for K forms' columns side by side (``width`` columns each, form k's friction length
+    ``lengths[k]``): the forms differ only in that length, so one call covers them all."""
+    return DuctFriction(np.repeat(np.asarray(lengths, dtype=float), width), D_h, alpha, "rectangle", rel_rough)
+
+
+def solve_split_forms(manifold: Manifold, friction_lengths, total_flow: float, rho: float, mu: float,
+                      starts=None) -> tuple[ManifoldResult, ...]:
+    """:func:`solve_split` for K header-friction forms of one manifold at once (``friction_lengths``: each form's
+    ``Manifold.friction_length``, None the header's length; the check solves the developing and the fully
+    developed form): the K systems stacked (block diagonal) under one Newton iteration, every evaluation of the
+    headers and of the channels one array call for all forms, the step's backtracking shared; stopped when every
+    loop residual of every form is below TOLERANCE, so each answer is the one solve_split gives that form, to
+    round-off of the tolerance.  ``starts``: one start (or None) per form, as solve_split's ``start``.  Returns
+    one ManifoldResult per form, in order."""
     for name, value in (("total flow", total_flow), ("density", rho), ("viscosity", mu)):
         if not (math.isfinite(value) and value > 0):
             raise ValueError(f"{name} must be positive and finite, not {value!r}")
     y = np.asarray(manifold.positions, dtype=float)
-    n = y.size
-    fl = manifold.friction_length
-    inlet = _HeaderLine(manifold.inlet, y, manifold.inlet_port, manifold.k_divide, +1.0, rho, mu, fl)
-    outlet = _HeaderLine(manifold.outlet, y, manifold.outlet_port, manifold.k_combine, -1.0, rho, mu, fl)
+    n, K = y.size, len(friction_lengths)
+    m = n + 1
+    starts = tuple(starts) if starts is not None else (None,) * K
+    inlets = [_HeaderLine(manifold.inlet, y, manifold.inlet_port, manifold.k_divide, +1.0, rho, mu, fl)
+              for fl in friction_lengths]
+    outlets = [_HeaderLine(manifold.outlet, y, manifold.outlet_port, manifold.k_combine, -1.0, rho, mu, fl)
+               for fl in friction_lengths]
     q_mean = total_flow / n
     p_scale = float(np.mean(np.abs(_drops(manifold.channels, np.full(n, q_mean)))))
     if not (math.isfinite(p_scale) and p_scale > 0):
         raise ManifoldError("the channels' drop at the mean flow is not a positive number")
+    flow_rows = (np.arange(K * m) % m) < n   # the unknowns that are channel flows (the rest: each form's drop)
 
     last = {}  # the latest single evaluation of each part, which the answer reuses when it is at that point
 
     def headers(x):
-        """The loops' header part, inlet header - outlet header [p_scale], and the mass balance [-]; ``x``
-        (N + 1,) or (N + 1, M), M unknown sets as columns."""
-        Q, dP = x[:n] * q_mean, x[n] * p_scale
+        """The loops' header part, inlet header - outlet header [p_scale], and the mass balance [-], form after
+        form; ``x`` (K (N + 1),) or (K (N + 1), M), M unknown sets as columns."""
         one = x.ndim == 1
-        p_in, p_out = inlet.pressures(Q, total_flow, records=one), outlet.pressures(Q, total_flow, records=one)
+        X = x.reshape((K, m) + x.shape[1:])
+        Qs = [X[k, :n] * q_mean for k in range(K)]
+        p_in, p_out = _pressures_forms(inlets, Qs, total_flow, one), _pressures_forms(outlets, Qs, total_flow, one)
         if one:
             last["headers"] = x, p_in, p_out
-        loops = (p_in[0] - p_out[0] + dP) / p_scale
-        return np.concatenate((loops, [np.sum(x[:n], axis=0) - n]))
+        return np.concatenate([np.concatenate(((p_in[k][0] - p_out[k][0] + X[k, n] * p_scale) / p_scale,
+                                               [np.sum(X[k, :n], axis=0) - n])) for k in range(K)])
 
     def channels(x):
-        drops = _drops(manifold.channels, x[:n] * q_mean)
+        X = x.reshape(K, m)
+        if getattr(manifold.channels[0], "takes_arrays", False) and all(dp is manifold.channels[0]
+                                                                       for dp in manifold.channels):
+            drops = _drops(manifold.channels, (X[:, :n] * q_mean).ravel()).reshape(K, n)
+        else:
+            drops = np.stack([_drops(manifold.channels, X[k, :n] * q_mean) for k in range(K)])
         last["channels"] = x, drops
-        return np.concatenate((drops / p_scale, [0.0]))
+        return np.concatenate((drops / p_scale, np.zeros((K, 1))), axis=1).ravel()
 
     def parts(x):
         """The header and the channel parts at ``x``: their difference is the residual; the Jacobian reuses them."""
         return headers(x), channels(x)
 
-    if start is None:
-        x = np.concatenate((np.ones(n), [1.0]))
-    else:
-        q0 = np.asarray(start.channel_flows, dtype=float)
-        if q0.shape != (n,) or not np.all(q0 > 0):
-            raise ValueError("start must be a split of the same channels with every flow positive")
-        x = np.concatenate((q0 * (n / np.sum(q0)), [start.port_to_port * (total_flow / np.sum(q0)) / p_scale]))
+    x = np.ones(K * m)
+    for k, start in enumerate(starts):
+        if start is not None:
+            q0 = np.asarray(start.channel_flows, dtype=float)
+            if q0.shape != (n,) or not np.all(q0 > 0):
+                raise ValueError("start must be a split of the same channels with every flow positive")
+            x[k * m:(k + 1) * m] = np.concatenate((q0 * (n / np.sum(q0)),
+                                                    [start.port_to_port * (total_flow / np.sum(q0)) / p_scale]))
     base_h, base_c = parts(x)
     r = base_h - base_c
     iterations = 0
+    diag = np.flatnonzero(flow_rows)
     while np.max(np.abs(r)) > TOLERANCE:
         if iterations >= MAX_ITERATIONS:
             raise ManifoldError(f"the flow split did not converge in {MAX_ITERATIONS} Newton steps "
-                                f"(loop residual {np.max(np.abs(r[:n])) * p_scale:.3g} Pa)")
-        # finite differences: the headers couple every flow (the N + 1 columns in one array evaluation); a
-        # channel's drop depends on its own flow only, so its part of the Jacobian is diagonal (one call per channel)
+                                f"(loop residual {np.max(np.abs(r)) * p_scale:.3g} Pa)")
+        # finite differences: the headers couple every flow of a form (all the columns in one array evaluation;
+        # the forms' blocks do not touch); a channel's drop depends on its own flow only, so its part of the
+        # Jacobian is diagonal (one call)
         step_sizes = 1e-7 * np.maximum(1.0, np.abs(x))
         J = (headers(x[:, None] + np.diag(step_sizes)) - base_h[:, None]) / step_sizes[None, :]
-        J[np.arange(n), np.arange(n)] -= (channels(x + step_sizes * (np.arange(n + 1) < n))[:n]
-                                          - base_c[:n]) / step_sizes[:n]
+        J[diag, diag] -= (channels(x + step_sizes * flow_rows)[diag] - base_c[diag]) / step_sizes[diag]
         try:
             step = np.linalg.solve(J, -r)
         except np.linalg.LinAlgError:
@@ -383,7 +438,7 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float,
         t, norm, accepted = 1.0, np.linalg.norm(r), None
         while t >= 1e-10:
             trial = x + t * step
-            if np.all(trial[:n] > 0):
+            if np.all(trial[flow_rows] > 0):
                 h_trial, c_trial = parts(trial)
                 r_trial = h_trial - c_trial
                 if np.all(np.isfinite(r_trial)) and np.linalg.norm(r_trial) < norm * (1 - 1e-4 * t):
@@ -398,32 +453,35 @@ def solve_split(manifold: Manifold, total_flow: float, rho: float, mu: float,
         x, base_h, base_c, r = accepted
         iterations += 1
 
-    Q = x[:n] * q_mean
-    Q = Q * (total_flow / np.sum(Q))           # the mass balance to round-off (a change of about 1e-12)
-    dP = x[n] * p_scale
-    at, *evaluated = last["headers"]
-    if at is x:                                # the answer's own evaluation: its pressures, not a new walk
-        (p_in, m_in, Re_in), (p_out_rel, m_out, Re_out) = evaluated
-    else:
-        p_in, m_in, Re_in = inlet.pressures(Q, total_flow, records=True)
-        p_out_rel, m_out, Re_out = outlet.pressures(Q, total_flow, records=True)
-    p_out = p_out_rel - dP
-    at, drops = last["channels"]
-    if at is not x:
-        drops = _drops(manifold.channels, Q)
-    methods = (HEADER_MODEL,) + tuple(dict.fromkeys(m_in + m_out))
-    frozen = [np.array(a, dtype=float) for a in (y, Q, p_in, p_out, drops)]
-    for a in frozen:
-        a.flags.writeable = False
-    return ManifoldResult(
-        positions=frozen[0], channel_flows=frozen[1], inlet_pressure=frozen[2], outlet_pressure=frozen[3],
-        channel_drops=frozen[4], port_to_port=float(dP),
-        inlet_header_drop=float(np.ptp(np.concatenate((p_in, [0.0])))),
-        outlet_header_drop=float(np.ptp(np.concatenate((p_out_rel, [0.0])))),
-        min_to_mean=float(np.min(Q) / np.mean(Q)), arrangement=manifold.arrangement,
-        header_reynolds=(Re_in, Re_out), iterations=iterations,
-        residual=float(np.max(np.abs(p_in - p_out - drops))), methods=methods,
-    )
+    at_h, p_ins, p_outs = last["headers"]
+    at_c, all_drops = last["channels"]
+    results = []
+    for k in range(K):
+        xk = x[k * m:(k + 1) * m]
+        Q = xk[:n] * q_mean
+        Q = Q * (total_flow / np.sum(Q))           # the mass balance to round-off (a change of about 1e-12)
+        dP = xk[n] * p_scale
+        if at_h is x:                              # the answer's own evaluation: its pressures, not a new walk
+            (p_in, m_in, Re_in), (p_out_rel, m_out, Re_out) = p_ins[k], p_outs[k]
+        else:
+            p_in, m_in, Re_in = inlets[k].pressures(Q, total_flow, records=True)
+            p_out_rel, m_out, Re_out = outlets[k].pressures(Q, total_flow, records=True)
+        p_out = p_out_rel - dP
+        drops = all_drops[k] if at_c is x else _drops(manifold.channels, Q)
+        methods = (HEADER_MODEL,) + tuple(dict.fromkeys(m_in + m_out))
+        frozen = [np.array(a, dtype=float) for a in (y, Q, p_in, p_out, drops)]
+        for a in frozen:
+            a.flags.writeable = False
+        results.append(ManifoldResult(
+            positions=frozen[0], channel_flows=frozen[1], inlet_pressure=frozen[2], outlet_pressure=frozen[3],
+            channel_drops=frozen[4], port_to_port=float(dP),
+            inlet_header_drop=float(np.ptp(np.concatenate((p_in, [0.0])))),
+            outlet_header_drop=float(np.ptp(np.concatenate((p_out_rel, [0.0])))),
+            min_to_mean=float(np.min(Q) / np.mean(Q)), arrangement=manifold.arrangement,
+            header_reynolds=(Re_in, Re_out), iterations=iterations,
+            residual=float(np.max(np.abs(p_in - p_out - drops))), methods=methods,
+        ))
+    return tuple(results)
 
 
 # ---------------------------------------------------------------- many manifolds at once (the sizing search)

@@ -1,4 +1,4 @@
-"""The flow split's fast friction and warm starts against the general functions they stand in for.
+"""The flow split's fast friction, warm starts and paired forms against the general functions they stand in for.
 
 Computed by our own functions: :class:`hydraulics.friction.DuctFriction` (darcy_friction with the geometry held,
 which the flow split calls many times a solve) against :func:`hydraulics.friction.darcy_friction` itself, and a
@@ -13,7 +13,7 @@ import numpy as np
 import pytest
 
 from hydraulics.friction import DuctFriction, darcy_friction, duct_friction
-from hydraulics.manifold import Header, solve_split, uniform_manifold
+from hydraulics.manifold import Header, solve_split, solve_split_forms, uniform_manifold
 
 #: Re from deep laminar through the VDI blend to fully turbulent, both blend ends exactly.
 RE = np.array([3.0, 40.0, 650.0, 2299.0, 2300.0, 2301.0, 5000.0, 9999.0, 1e4, 1e4 + 1, 3e4, 2e5])
@@ -75,3 +75,24 @@ def test_warm_started_split_equals_the_even_start():
                                                 rel=1e-9)
     with pytest.raises(ValueError, match="start"):
         solve_split(uniform_manifold(5, m.inlet, m.outlet, m.channels[0]), total, rho, mu, start=cold)
+
+
+@pytest.mark.parametrize("inlet_port, outlet_port", [(0.027, -0.027), (0.027, 0.027), (0.0, 0.0)])
+def test_both_header_forms_together_equal_each_alone(inlet_port, outlet_port):
+    # Z, U and centred ports: the developing and the fully developed header friction solved together
+    # (solve_split_forms, as the check does) equal each solved alone (solve_split), with and without starts
+    rho, mu, total = 998.0, 1.0e-3, 2.0 / 6e4
+    header = Header(length=0.060, depth=0.004, width=0.006)
+    drop = lambda q: 2.0e9 * q + 4.0e13 * q * abs(q)  # noqa: E731
+    m = uniform_manifold(12, header, header, drop, inlet_port=inlet_port, outlet_port=outlet_port)
+    alone = [solve_split(uniform_manifold(12, header, header, drop, inlet_port=inlet_port, outlet_port=outlet_port,
+                                          friction_length=fl), total, rho, mu) for fl in (None, math.inf)]
+    near = solve_split_forms(m, (None, math.inf), 1.05 * total, rho, mu)
+    for starts in (None, near):
+        together = solve_split_forms(m, (None, math.inf), total, rho, mu, starts)
+        for a, b in zip(together, alone):
+            assert a.channel_flows == pytest.approx(b.channel_flows, rel=1e-9)
+            assert a.port_to_port == pytest.approx(b.port_to_port, rel=1e-9)
+            assert a.inlet_pressure == pytest.approx(b.inlet_pressure, rel=1e-8, abs=1e-9)
+            assert a.methods == b.methods and a.residual < 1e-6
+    assert alone[0].port_to_port != pytest.approx(alone[1].port_to_port, rel=1e-3)   # two different problems

@@ -26,7 +26,7 @@ from functools import lru_cache
 import numpy as np
 
 from hydraulics.friction import duct_friction
-from hydraulics.manifold import Header, Manifold, ManifoldError, ManifoldResult, solve_split
+from hydraulics.manifold import Header, Manifold, ManifoldError, ManifoldResult, solve_split_forms
 
 from coldplate.design.errors import SolveError
 from coldplate.plate.flow import friction_pressure_drop
@@ -121,16 +121,15 @@ def solve_channel_split(passage, plate, geom, pr, model, flow: float, start: Spl
     """The split at total ``flow`` [m^3/s] and properties ``pr``, or None where there is none to solve (one
     channel, or no plenum: ``plenum_length`` zero leaves no header, and the flow is taken as even).
 
-    ``start``: the split of the same plate at a neighbouring operating point, whose two forms start Newton for
-    this one's (:func:`hydraulics.manifold.solve_split`); without it the developing form starts even and the fully
-    developed one from the developing one's answer."""
+    Both header-friction forms are solved together (:func:`hydraulics.manifold.solve_split_forms`: one Newton
+    iteration on the two systems stacked, each answer the one solve_split gives it).  ``start``: the split of the
+    same plate at a neighbouring operating point, whose two forms start this one's; without it both start even."""
     if passage.count < 2 or passage.plenum_length <= 0:
         return None
-    first, second = start.forms if start is not None and start.forms else (None, None)
+    starts = start.forms if start is not None and start.forms else None
     try:
-        developing = solve_split(build_manifold(passage, plate, geom, pr, model), flow, pr.rho, pr.mu, start=first)
-        both = (developing, solve_split(build_manifold(passage, plate, geom, pr, model, math.inf), flow, pr.rho,
-                                        pr.mu, start=second or developing))
+        both = solve_split_forms(build_manifold(passage, plate, geom, pr, model), (None, math.inf), flow, pr.rho,
+                                 pr.mu, starts)
     except ManifoldError as exc:
         raise SolveError(f"the flow split across the channels could not be solved: {exc}") from None
     flows = min(both, key=lambda m: m.min_to_mean)
