@@ -121,11 +121,12 @@ def _solve_pressure(plate: PlateAt, p_supply: float) -> float:
     return float(brentq(lambda v: p_supply - plate.need(v), lo, hi, xtol=1e-12, rtol=1e-9))
 
 
-def operate(design, load: float | None = None, plate: PlateAt | None = None) -> CircuitResult:
+def operate(design, load: float | None = None, plate: PlateAt | None = None, curve: bool = True) -> CircuitResult:
     """The operating point of ``design`` in its circuit, with pressures along it and the system curve.
 
     ``load`` is the heat into the plate [W] when it is not the design's own (thermoelectric modules); ``plate``
     the plate's solves so far at that load (the supply stage shares one with planning), else a new one.
+    ``curve`` False leaves the system curve out (None): the supply stage draws it through planning's flows.
     """
     d, c = design, design.circuit
     plate = PlateAt(d, load) if plate is None else plate
@@ -168,16 +169,18 @@ def operate(design, load: float | None = None, plate: PlateAt | None = None) -> 
     inlet = pressures[k - 1] if k > 0 else p0
     return CircuitResult(
         drive=d.supply.drive, V_dot=V, supply_pressure=p0 if d.supply.drive != "flow" else None,
-        plate_inlet_pressure=inlet, points=points, curve=system_curve(plate, max(2 * V, pump.V_dot[-1] if pump else 0)),
+        plate_inlet_pressure=inlet, points=points,
+        curve=system_curve(plate, max(2 * V, pump.V_dot[-1] if pump else 0)) if curve else None,
         pump=pump, needed_pressure=need, plate_outlet_pressure=pressures[k], heights=tuple(zip(names, c.heights())),
         surges=_surges(c, r.m_dot, plate.upstream, down), m_dot=r.m_dot,
         plate_rating=materials.plate_rating(d.plate.pressure_rating, d.passage.kind)[0])
 
 
-def system_curve(plate: PlateAt, V_max: float, n: int = CURVE_POINTS) -> SystemCurve:
-    """The circuit's need and the plate's drop from zero flow to V_max (flows where the plate boils left out)."""
+def system_curve(plate: PlateAt, V_max: float, n: int = CURVE_POINTS, flows=None) -> SystemCurve:
+    """The circuit's need and the plate's drop from zero flow to V_max (``n`` even steps), or at zero and the
+    given ``flows`` (flows where the plate boils left out)."""
     rows = [(0.0, plate.need(0.0), 0.0)]
-    for q in np.linspace(0.0, V_max, n)[1:]:
+    for q in (np.linspace(0.0, V_max, n)[1:] if flows is None else sorted(q for q in flows if q > 0)):
         r = plate.point(float(q))
         if r is not None:
             rows.append((float(q), plate.need(float(q)), r.dp))

@@ -30,16 +30,24 @@ def supply_stage(design, load: float | None = None):
 
     if design.circuit is None and not wants_planning(design):
         return None, lambda result: result
-    from coldplate.supply.operating import PlateAt, circuit_methods, operate
+    from coldplate.supply.operating import PlateAt, circuit_methods, operate, system_curve
     from coldplate.supply.planning import plan
 
     plate = PlateAt(design, load)  # one set of plate solves for the operating point and planning
-    circuit = operate(design, load, plate) if design.circuit is not None else None
+    planning_wanted = wants_planning(design)
+    # with planning (and no pump, whose curve the system curve must reach), the system curve is drawn through the
+    # water-use curve's flows, which planning solves anyway (from half the least flow to twice the operating flow)
+    shared = planning_wanted and design.supply.drive != "pump"
+    circuit = operate(design, load, plate, curve=not shared) if design.circuit is not None else None
     flow = circuit.V_dot if circuit is not None else None
 
     def attach(result):
+        nonlocal circuit
         methods = result.methods + (circuit_methods(design, circuit, result) if circuit is not None else ())
-        planning = plan(design, result.V_dot, load, plate) if wants_planning(design) else None
+        planning = plan(design, result.V_dot, load, plate) if planning_wanted else None
+        if circuit is not None and circuit.curve is None:
+            flows = planning.use_curve.V_dot
+            circuit = replace(circuit, curve=system_curve(plate, 2.0 * circuit.V_dot, flows=flows or None))
         assumptions = result.assumptions + (CIRCUIT_ASSUMPTIONS if circuit is not None else ())
         if planning is not None and load is not None:
             assumptions += (MODULE_PLANNING_ASSUMPTION,)
