@@ -13,6 +13,7 @@ is refused with a one-line :class:`PumpError`.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Callable
 
 import numpy as np
@@ -51,10 +52,21 @@ def check_table(V_dot, dp) -> PumpTable:
 
 
 def _fit(table: PumpTable):
-    """The PCHIP interpolant of the table (numpy in, numpy out; NaN outside the tabulated flows)."""
+    """The PCHIP interpolant of the table (numpy in, numpy out; NaN outside the tabulated flows); kept per table
+    of tuples (a fan's operating point is found many times in one check)."""
+    try:
+        return _kept_fit(table)
+    except TypeError:  # a table of lists: not hashable, fitted afresh
+        return _new_fit(table)
+
+
+def _new_fit(table: PumpTable):
     from scipy.interpolate import PchipInterpolator
 
     return PchipInterpolator(np.asarray(table.V_dot), np.asarray(table.dp), extrapolate=False)
+
+
+_kept_fit = lru_cache(maxsize=64)(_new_fit)
 
 
 def pump_curve_many(table: PumpTable) -> Callable[[np.ndarray], np.ndarray]:
