@@ -18,7 +18,7 @@ from coldplate.findings.plate import RULES as PLATE_RULES
 from coldplate.findings.sources import RULES as SOURCE_RULES
 from coldplate.modules.findings import RULES as MODULE_RULES
 from coldplate.plate.result import Result
-from coldplate.plate.solve import solve_plate
+from coldplate.plate.solve import solve_plate, split_carrying
 from coldplate.supply.findings import RULES as SUPPLY_RULES
 
 #: Every rule, in the order their findings are listed within one severity.
@@ -99,12 +99,12 @@ def module_solver(plate=solve_plate):
     from coldplate.modules.solve import solve_with_module, solve_with_module_field
 
     if plate is solve_plate:
-        return lambda design, flow: solve_with_module(design, partial(solve_plate, flow=flow))
+        return lambda design, flow: solve_with_module(design, split_carrying(flow))
     scale = [1.0]
 
     def on_field(design, flow):
         solver = solve_placed_field if design.module.placed else solve_with_module_field
-        result = solver(design, partial(plate, flow=flow), partial(solve_plate, flow=flow), scale=scale[0])
+        result = solver(design, partial(plate, flow=flow), split_carrying(flow), scale=scale[0])
         scale[0] = result.module.field_scale
         return result
 

@@ -71,6 +71,22 @@ def solve_plate(design: Design, flow: float | None = None, load: float | None = 
     return plate_at(design, operating_point(design, flow, Q, split_start))
 
 
+def split_carrying(flow: float | None = None):
+    """``solve(design, load=None) -> Result``: :func:`solve_plate` at ``flow``, each call's flow split starting
+    from the previous call's (the thermoelectric module solve calls the plate again and again at one flow and a
+    changing load, so each split needs a Newton step or two instead of four).  For one caller whose sequence of
+    calls is fixed, so its answers are too."""
+    last = [None]
+
+    def solve(design, load=None):
+        r = solve_plate(design, flow, load, split_start=last[0])
+        if r.flow_split is not None:
+            last[0] = r.flow_split
+        return r
+
+    return solve
+
+
 def plate_at(design: Design, op: OperatingPoint) -> Result:
     """The plate's solve (:func:`solve_plate`) at an operating point already solved (its flow and load): the
     spreading and the march to the hottest face.  Callers that need only the coolant side (a circuit's pressure
