@@ -28,7 +28,7 @@ from CoolProp.CoolProp import PropsSI
 from coldplate.air import correlations as corr
 from coldplate.plate.conduction import fin_efficiency_straight, fin_m, spreading_MCY
 from coldplate.plate.convection import nusselt
-from hydraulics.friction import DuctFriction, darcy_friction, duct_friction
+from hydraulics.friction import DuctFriction, darcy_friction
 from hydraulics.losses import K_sudden_contraction, K_sudden_expansion
 
 #: Density of the sink materials [kg/m^3] for the sink's mass (ASM Handbook Vol. 2, 1990, and Incropera et al.
@@ -123,23 +123,6 @@ def pressure_drop(c: Candidates, Q, air, pr: AirProps):
     return dp, V, Re, fr, Kc, Ke
 
 
-def pressure_drop_of_one(c: Candidates, air, pr: AirProps):
-    """``dp(Q)`` [Pa] of one sink (one-entry candidate arrays) at air flows Q [m^3/s]: :func:`pressure_drop`'s
-    value with the geometry held (the friction through :func:`hydraulics.friction.duct_friction`), for the fan's
-    operating point, which asks for it a dozen times a solve."""
-    s, area, D_h, alpha = (float(np.ravel(x)[0]) for x in channel(c, air.width))
-    front = air.width * float(np.ravel(c.H)[0])
-    K = float(K_sudden_contraction(front, area) + K_sudden_expansion(area, front))
-    friction = duct_friction(air.length, D_h, alpha, "rectangle")
-
-    def dp(Q):
-        V = max(float(Q), 1e-12) / area
-        f = float(friction(pr.rho * V * D_h / pr.mu))
-        return (K + f * air.length / D_h) * 0.5 * pr.rho * V**2
-
-    return dp
-
-
 def pressure_drop_many(c: Candidates, air, pr: AirProps):
     """``dp(Q)`` [Pa] of every candidate at its air flow Q [m^3/s] (an array like the candidates'):
     :func:`pressure_drop`'s value with the geometry held (the friction through
@@ -154,6 +137,13 @@ def pressure_drop_many(c: Candidates, air, pr: AirProps):
         return (K + friction(pr.rho * V * D_h / pr.mu) * air.length / D_h) * 0.5 * pr.rho * V**2
 
     return dp
+
+
+def pressure_drop_of_one(c: Candidates, air, pr: AirProps):
+    """``dp(Q)`` [Pa] of one sink (one-entry candidate arrays) at an air flow Q [m^3/s], a float:
+    :func:`pressure_drop_many` for that sink, for the fan's operating point."""
+    many = pressure_drop_many(c, air, pr)
+    return lambda Q: float(many(np.full(1, float(Q)))[0])
 
 
 def forced_conductance(c: Candidates, Q, air, pr: AirProps):
