@@ -22,7 +22,6 @@ from __future__ import annotations
 
 import argparse
 import resource
-import statistics
 import subprocess
 import sys
 import time
@@ -33,20 +32,11 @@ ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
 from coldplate.plate import field as F  # noqa: E402
+from benchmarks.module_solve import _median  # noqa: E402  (the benchmarks' shared median timer)
 from coldplate.plate import fieldsolver as S  # noqa: E402
 from coldplate.plate.fieldgrid import GridRules, build_grid  # noqa: E402
 
 THREE_SOURCES = ROOT / "examples" / "three-sources-channels.toml"
-
-
-def _wall(fn, repeat):
-    """Median wall time of ``fn()`` over ``repeat`` calls [s] (see the module's docstring for the clock)."""
-    times = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return statistics.median(times)
 
 
 def _high_water_mb():
@@ -144,14 +134,14 @@ def solvers(M, B, repeat, ilu):
 
     C = csc_matrix(M)
     opts = dict(permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=S.DIAG_PIVOT, options=dict(SymmetricMode=True))
-    out = dict(fact=_wall(lambda: splu(C, **opts), repeat))
+    out = dict(fact=_median(lambda: splu(C, **opts), repeat))
     lu = splu(C, **opts)
     out["fill"] = lu.L.nnz + lu.U.nnz
-    out["back1"] = _wall(lambda: lu.solve(B[:, :1]), repeat)
-    out["backN"] = _wall(lambda: lu.solve(B), repeat)
+    out["back1"] = _median(lambda: lu.solve(B[:, :1]), repeat)
+    out["backN"] = _median(lambda: lu.solve(B), repeat)
     del lu
     A = csr_matrix(M)
-    out["setup"] = _wall(lambda: ruge_stuben_solver(A, **S.AMG_OPTIONS), repeat)
+    out["setup"] = _median(lambda: ruge_stuben_solver(A, **S.AMG_OPTIONS), repeat)
     ml = ruge_stuben_solver(A, **S.AMG_OPTIONS)
     out["complexity"] = ml.operator_complexity()
     cycle = S._v_cycle(ml)
@@ -162,8 +152,8 @@ def solvers(M, B, repeat, ilu):
         for m in cols:
             its.append(S._gmres(A, B[:, m].copy(), cycle)[1])
 
-    out["amg1"] = _wall(lambda: every([0]), repeat)
-    out["amgN"] = _wall(lambda: every(range(B.shape[1])), repeat)
+    out["amg1"] = _median(lambda: every([0]), repeat)
+    out["amgN"] = _median(lambda: every(range(B.shape[1])), repeat)
     out["amg_its"] = list(its)
     if ilu:
         t = time.perf_counter()
@@ -176,8 +166,8 @@ def report(case, repeat, ilu):
     name, make = CASES[case]
     plate, sources, cooling = make()
     r = F.solve_field(plate, sources, cooling)
-    t_default = _wall(lambda: F.solve_field(plate, sources, cooling), repeat)
-    t_single = _wall(lambda: F.solve_field(plate, sources, cooling, uncertainty=False), repeat)
+    t_default = _median(lambda: F.solve_field(plate, sources, cooling), repeat)
+    t_single = _median(lambda: F.solve_field(plate, sources, cooling, uncertainty=False), repeat)
     rss_before, rss_after = peak_rss(case)
     M, B = system_of(plate, sources, cooling)
     s = solvers(M, B, repeat, ilu)
@@ -222,9 +212,9 @@ def examples_table(repeat, against_lu=False):
         flow, load = here.V_dot, here.load
         r = solve_plate_field(d, flow, load)
         n = solve_plate(d, flow, load)
-        t_def = _wall(lambda: solve_plate_field(d, flow, load), repeat)
-        t_one = _wall(lambda: solve_plate_field(d, flow, load, uncertainty=False), repeat)
-        t_net = _wall(lambda: solve_plate(d, flow, load), repeat)
+        t_def = _median(lambda: solve_plate_field(d, flow, load), repeat)
+        t_one = _median(lambda: solve_plate_field(d, flow, load, uncertainty=False), repeat)
+        t_net = _median(lambda: solve_plate(d, flow, load), repeat)
         extra = ""
         if against_lu:
             direct_up_to, S.DIRECT_UP_TO = S.DIRECT_UP_TO, 10**9

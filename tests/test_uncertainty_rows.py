@@ -18,6 +18,20 @@ from .helpers import example_dict
 KEYS = ["heat.load", "coolant.inlet_temperature", "coolant.flow"]
 
 
+def _assert_zero_spread_is_the_check(d, r, data, keys, samples):
+    """Every spread zero: the band (vectorised) is the check itself, each percentile of each output."""
+    from coldplate.uncertainty.propagate import propagate
+    from coldplate.uncertainty.reader import UncertaintySpec, Written
+
+    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in keys), False, samples, 1,
+                           0.90)
+    band = propagate(d, r, spec, data)
+    assert band.method == "vectorised evaluator"
+    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
+        for v in (b.low, b.median, b.high):
+            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+
+
 def _load_rows(d, flow, load):
     """Four fixed rows: the nominal, then load, inlet and flow moved (10 %, 3 K, 20 %)."""
     T = d.inlet_temperature
@@ -170,18 +184,12 @@ def test_module_band_nominal_and_seeded_repeat():
 
     from coldplate.check import solve
     from coldplate.uncertainty.propagate import propagate
-    from coldplate.uncertainty.reader import UncertaintySpec, Written, read_uncertainty
+    from coldplate.uncertainty.reader import read_uncertainty
 
     data = _module_data()
     d = design_from_dict(data)
     r = solve(d)
-    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 300, 1,
-                           0.90)
-    band = propagate(d, r, spec, data)
-    assert band.method == "vectorised evaluator"
-    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
-        for v in (b.low, b.median, b.high):
-            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+    _assert_zero_spread_is_the_check(d, r, data, KEYS, 300)
     data["uncertainty"] = {"heat.load": "±10 %", "coolant.inlet_temperature": "±3 K", "coolant.flow": "±10 %"}
     spec = read_uncertainty(data, d)
     a, b = propagate(d, r, spec, copy.deepcopy(data)), propagate(d, r, spec, copy.deepcopy(data))
@@ -269,19 +277,11 @@ def test_placed_module_rows_equal_the_network_without_plenums():
 def test_several_source_band_is_the_check_with_zero_spread(name):
     # Source: computed by our own solver (internal consistency): zero spread, the band is the check (field model).
     from coldplate.check import solve
-    from coldplate.uncertainty.propagate import propagate
-    from coldplate.uncertainty.reader import UncertaintySpec, Written
 
     data = example_dict(name)
     d = design_from_dict(data)
     r = solve(d)
-    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 200, 1,
-                           0.90)
-    band = propagate(d, r, spec, data)
-    assert band.method == "vectorised evaluator"
-    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
-        for v in (b.low, b.median, b.high):
-            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+    _assert_zero_spread_is_the_check(d, r, data, KEYS, 200)
 
 
 # --------------------------------------------------------------------------- a supply that sets the flow
@@ -387,18 +387,12 @@ def test_supply_band_is_the_check_with_zero_spread_and_repeats(case):
 
     from coldplate.check import solve
     from coldplate.uncertainty.propagate import propagate
-    from coldplate.uncertainty.reader import UncertaintySpec, Written, read_uncertainty
+    from coldplate.uncertainty.reader import read_uncertainty
 
     data = SUPPLY_CASES[case]()
     d = design_from_dict(data)
     r = solve(d)
-    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in SUPPLY_KEYS[:2]), False,
-                           200, 1, 0.90)
-    band = propagate(d, r, spec, data)
-    assert band.method == "vectorised evaluator"
-    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
-        for v in (b.low, b.median, b.high):
-            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+    _assert_zero_spread_is_the_check(d, r, data, SUPPLY_KEYS[:2], 200)
     data["uncertainty"] = {"heat.load": "±10 %", "coolant.inlet_temperature": "±3 K"}
     spec = read_uncertainty(data, d)
     a, b = propagate(d, r, spec, copy.deepcopy(data)), propagate(d, r, spec, copy.deepcopy(data))
@@ -472,17 +466,9 @@ def test_sieder_tate_rows_equal_the_network_row_by_row(name):
 def test_sieder_tate_band_is_the_check_with_zero_spread():
     # Source: computed by our own solver (internal consistency): zero spread, the band is the (field) check.
     from coldplate.check import solve
-    from coldplate.uncertainty.propagate import propagate
-    from coldplate.uncertainty.reader import UncertaintySpec, Written
 
     data = example_dict("reagent-block-channels")
     data.setdefault("correlations", {})["laminar"] = "sieder-tate"
     d = design_from_dict(data)
     r = solve(d)
-    spec = UncertaintySpec(tuple(Written(k, "absolute", 0.0, 0.0, "uniform", "±0") for k in KEYS), False, 200, 1,
-                           0.90)
-    band = propagate(d, r, spec, data)
-    assert band.method == "vectorised evaluator"
-    for b, nominal in zip(band.bands, (r.T_face_max, r.T_out, r.dp, r.water_use_L_per_day)):
-        for v in (b.low, b.median, b.high):
-            assert v == pytest.approx(nominal, rel=1e-12, abs=1e-12)
+    _assert_zero_spread_is_the_check(d, r, data, KEYS, 200)
