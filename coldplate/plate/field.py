@@ -23,7 +23,7 @@ the channels unless one mass flow per channel is given (a manifold's split).  ``
 same balance for coolant under the base's bottom face: a tube's passes in series (each pass its own water
 temperature, alternating direction) or a cavity.  The unknowns are the rises
 above the inlet, so the system is linear in the loads, and the field of several sources is the sum of each
-source's field per watt (superposition): one solve per source on one matrix.  The
+source's field per watt (superposition): one matrix, a right-hand side per source.  The
 coupling matrix ``C[i, j]`` is the mean face rise of source i per watt of source j; with the coolant
 carried downstream it is not symmetric (water warmed by an upstream source heats a downstream one); with a
 fixed fluid temperature (``UniformBack``) the conduction operator is symmetric and so is C (reciprocity).
@@ -41,14 +41,18 @@ The linear solver (:mod:`coldplate.plate.fieldsolver`, measured in ``benchmarks/
 -----------------------------------------------------------------------------------------
 The system is not symmetric (the coolant carries heat one way), which rules out plain conjugate gradients for
 channel plates.  Above ``fieldsolver.DIRECT_UP_TO`` unknowns (every example's default grid) it is solved by
-GMRES with a classical algebraic multigrid preconditioner (pyamg), one solve per source, to a relative
-residual of 1e-11 (the temperatures agree with the LU's to about 1e-11 of the rise, the energy balance to
-1e-12); a column that does not converge is handed to the LU, so the answer is never less accurate.  Smaller
-grids take SuperLU's direct LU (minimum degree on A + A^T), exact to round-off.  The LU's fill grows faster
-than the cells (47 times the matrix on the three-source example's 102,240 cells: 2.5 s and 400 MB to
-factorise, against 0.7 s and tens of MB for the multigrid solve of its three sources); the measurements
-behind the choice are in the solver module's docstring.  The level below, for the grid uncertainty, needs
-only the faces' values, so it is solved once for the loads together (one right-hand side), not per source.
+GMRES with a classical algebraic multigrid preconditioner (pyamg): the field at the loads to a relative residual
+of 1e-11 (the temperatures agree with the LU's to about 1e-11 of the rise, the energy balance to 1e-12), and with
+several sources each source's own field per watt, which only the coupling matrix needs, to 1e-3
+(``fieldsolver.COUPLING_RTOL``: the coupling within 3e-4 of its largest entry, far inside its grid uncertainty),
+then moved so that it reproduces the sources' mean faces from the loads exactly (``fieldsolver.solve_loads``);
+a solve that does not converge is handed to the LU, so the answer is never less accurate.  Smaller grids take
+SuperLU's direct LU (minimum degree on A + A^T), exact to round-off.  The LU's fill grows faster than the cells
+(47 times the matrix on the three-source example's 102,240 cells: 2.5 s and 400 MB to factorise, against 0.7 s
+and tens of MB for the multigrid solve of its three sources); the measurements behind the choice are in the
+solver module's docstring.  The level below, for the grid uncertainty, is solved first: at the loads alone
+when no coupling is asked for, otherwise per source as well, its fields then starting the requested level's
+(each cell from its parent, :func:`_parents`: a third fewer iterations on the 8-source benchmark).
 """
 from __future__ import annotations
 
@@ -499,22 +503,25 @@ def _source_columns(grid: Grid, system: _System, sources) -> tuple[np.ndarray, n
 @dataclass(frozen=True)
 class _Level:
     grid: Grid
-    face_unit: np.ndarray  # (nx, ny, N) face rise per watt of each source; (nx, ny, 1) at the loads if combined
+    face: np.ndarray  # (nx, ny) face rise at the loads (plate side of the interfaces)
+    face_unit: np.ndarray | None  # (nx, ny, N) face rise per watt of each source (None: solved at the loads only)
     masks: np.ndarray  # (nx, ny, N) bool: cells under each source
     weights: np.ndarray  # (nx, ny, N) area weights of each source's cells (sum 1)
-    fluid_unit: np.ndarray  # (nc, nx, N) outlet-node rises per watt (as face_unit when combined)
+    fluid: np.ndarray  # (nc, nx) outlet-node rises at the loads
     system: _System
-    wet_unit: np.ndarray  # (N,) heat to a fixed fluid per watt (UniformBack; as face_unit when combined)
+    wet: float  # heat to a fixed fluid at the loads [W] (UniformBack)
     cells: int
     unknowns: int
     iterations: int
     method: str  # the linear solver used ("direct", "amg" or "gmres")
-    combined: bool  # solved for the loads together (one right-hand side), not per source
+    unit: np.ndarray | None  # (unknowns, N) each source's field per watt (None: solved at the loads only)
 
 
-def _solve_level(plate, sources, cooling, rules, level, method, loads=None) -> _Level:
-    """One grid level: per watt of each source (the coupling needs every source's field), or with ``loads`` for
-    the loads together, one right-hand side (enough for the faces' values: the Richardson partner)."""
+def _solve_level(plate, sources, cooling, rules, level, method, loads, per_source=True, below=None) -> _Level:
+    """One grid level at ``loads``: the field at the loads and, with ``per_source``, each source's field per watt
+    as well (for the coupling; :func:`fieldsolver.solve_loads`).  Without, one right-hand side (enough for the
+    faces' values).  ``below``: the level below solved per source, whose fields start this level's (each cell
+    takes its parent's value: the levels are exact halvings, :func:`_parents`)."""
     channels, span, lanes = None, None, ()
     if isinstance(cooling, ChannelCooling):
         channels, span = (cooling.count, cooling.width, cooling.depth, cooling.lid), cooling.span
@@ -531,33 +538,54 @@ def _solve_level(plate, sources, cooling, rules, level, method, loads=None) -> _
                          "channels or sources far smaller than the plate); use the network model (--model network)")
     system = _assemble(grid, plate.conductivity, cooling)
     B, flux = _source_columns(grid, system, sources)
-    rhs, top_flux = (B, flux) if loads is None else (B @ loads[:, None], (flux @ loads)[:, :, None])
-    X, iterations, used = fieldsolver.solve(system.matrix, rhs, method)
+    if per_source:
+        guess = None if below is None or below.unit is None else below.unit[_parents(below.system, system)]
+        x, X, iterations, used = fieldsolver.solve_loads(system.matrix, B, loads, method, guess)
+    else:
+        X, iterations, used = fieldsolver.solve(system.matrix, B @ loads[:, None], method)
+        x, X = X[:, 0], None
     top = system.idx[:, :, 0]
-    face = X[top] + top_flux * grid.dz[0] / (2 * plate.conductivity)
+    half = grid.dz[0] / (2 * plate.conductivity)  # the flux's half-cell rise from the top cell to the face
+    face = x[top] + (flux @ loads) * half
+    face_unit = None if X is None else X[top] + flux * half
     area = np.outer(grid.dx, grid.dy)[:, :, None]
     # each cell's share of a source's watt (an exact partition: the grid has an edge at every source edge, to
     # round-off); the source's cells for its hottest point are those it covers at least half of
     weights = flux * area
     masks = flux * np.asarray([s.area for s in sources]) > 0.5
     nx = grid.shape[0]
-    fluid = X[system.n_solid:].reshape(system.n_channels, nx, -1) if system.n_channels \
-        else np.zeros((0, nx, X.shape[1]))
-    wet = np.zeros(X.shape[1])
+    fluid = x[system.n_solid:].reshape(system.n_channels, nx) if system.n_channels else np.zeros((0, nx))
+    wet = 0.0
     if system.wet:
         s, G = system.wet
-        wet = G @ X[s]
-    return _Level(grid, face, masks, weights, fluid, system, wet, system.n_solid, system.matrix.shape[0], iterations,
-                  used, loads is not None)
+        wet = float(G @ x[s])
+    return _Level(grid, face, face_unit, masks, weights, fluid, system, wet, system.n_solid,
+                  system.matrix.shape[0], iterations, used, X)
+
+
+def _parents(coarse: _System, fine: _System) -> np.ndarray:
+    """For every unknown of ``fine`` (a level one above ``coarse``: each cell halved on every axis), the unknown
+    of ``coarse`` it lies in: a solid cell's parent cell (walls, channels and plenum ends are coarse edges, so a
+    solid cell's parent is solid), a coolant node's lane at its parent x cell."""
+    nx, ny, nz = fine.grid.shape
+    solid = fine.idx >= 0
+    i, j, k = np.nonzero(solid)
+    out = np.empty(fine.matrix.shape[0], np.int64)
+    out[fine.idx[solid]] = coarse.idx[i // 2, j // 2, k // 2]
+    if fine.n_channels:
+        nxc = coarse.grid.shape[0]
+        lane, cell = np.divmod(np.arange(fine.n_channels * nx), nx)
+        out[fine.n_solid:] = coarse.n_solid + lane * nxc + cell // 2
+    if np.any(out < 0):
+        raise AssertionError("a solid cell over a void parent: the levels are not halvings of each other")
+    return out
 
 
 def _source_values(lv: _Level, sources, loads):
     """Per source: (face max rise, mean rise, position) on the device side; the coupling matrix (None when the
-    level was solved for the loads together)."""
-    if lv.combined:
-        face, coupling = lv.face_unit[:, :, 0], None
-    else:
-        face = lv.face_unit @ loads
+    level was solved at the loads only)."""
+    face, coupling = lv.face, None
+    if lv.face_unit is not None:
         coupling = np.einsum("xyi,xyj->ij", lv.weights, lv.face_unit)
         for i, s in enumerate(sources):
             coupling[i, i] += s.interface / s.area
@@ -598,26 +626,33 @@ def _read_only(a):
 
 
 def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, level: int = DEFAULT_LEVEL,
-                rules: GridRules = GridRules(), method: str = "auto", uncertainty: bool = True) -> FieldResult:
+                rules: GridRules = GridRules(), method: str = "auto", uncertainty: bool = True,
+                coupling: bool = True) -> FieldResult:
     """Solve the plate's field for ``sources`` with ``cooling`` (:class:`ChannelCooling` or :class:`UniformBack`).
 
     ``level``: grid level (:func:`coldplate.plate.fieldgrid.build_grid`); ``uncertainty``: also solve the level
     below and report the grid convergence index (needs level >= 1); ``method``: the linear solver ("auto", "amg",
-    "direct" or "gmres", :func:`coldplate.plate.fieldsolver.solve`).  Bad input raises
+    "direct" or "gmres", :func:`coldplate.plate.fieldsolver.solve`); ``coupling``: also each source's field per
+    watt, for the coupling matrix (False: the field at the loads alone, one right-hand side, and an empty
+    coupling).  Bad input raises
     :class:`~coldplate.design.errors.DesignError` naming the field; nothing is solved then.
     """
     sources = tuple(sources)
     _check(plate, sources, cooling)
     loads = np.array([s.load for s in sources], float)
-    lv = _solve_level(plate, sources, cooling, rules, level, method)
-    face, values, coupling = _source_values(lv, sources, loads)
+    # the level below first (the grid uncertainty's partner): with the coupling, solved per source too, so that
+    # its fields start the requested level's (fieldsolver.solve_loads)
+    lc = None
+    if uncertainty and level >= 1:
+        lc = _solve_level(plate, sources, cooling, rules, level - 1, method, loads, per_source=coupling)
+    lv = _solve_level(plate, sources, cooling, rules, level, method, loads, per_source=coupling, below=lc)
+    face, values, C = _source_values(lv, sources, loads)
     ref = cooling.fluid if isinstance(cooling, UniformBack) else cooling.inlet
     hottest = max(v[0] for v in values)
     U = np.full(len(sources), math.nan)
     U_mean = np.full(len(sources), math.nan)
     U_hot = coarse_hot = math.nan
-    if uncertainty and level >= 1:
-        lc = _solve_level(plate, sources, cooling, rules, level - 1, method, loads=loads)
+    if lc is not None:
         _, cvals, _ = _source_values(lc, sources, loads)
         factor = GCI_SAFETY / (2.0**GRID_ORDER - 1.0)
         U_mean = np.array([factor * abs(f[1] - c[1]) for f, c in zip(values, cvals)])
@@ -629,20 +664,19 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
         U_hot = max(factor * abs(hottest - coarse_hot), float(np.max(U_mean)))
         coarse_hot += ref
     grid = lv.grid
-    if lv.fluid_unit.shape[0]:
-        rise = lv.fluid_unit @ loads  # (lanes, nx) downstream-edge nodes
-        bulk, channel_heat = _lane_bulk(lv.system, rise)
+    if lv.fluid.shape[0]:
+        bulk, channel_heat = _lane_bulk(lv.system, lv.fluid)  # lv.fluid: (lanes, nx) downstream-edge nodes
         bulk = ref + bulk
         bulk_x = grid.xe.copy()
     else:
         bulk, bulk_x, channel_heat = np.zeros((0, 0)), np.zeros(0), np.zeros(0)
-    heat = float(channel_heat.sum()) if channel_heat.size else float(lv.wet_unit @ loads)
-    coupling, face, bulk, bulk_x, channel_heat = (_read_only(a) for a in (coupling, ref + face, bulk, bulk_x,
-                                                                           channel_heat))
+    heat = float(channel_heat.sum()) if channel_heat.size else lv.wet
+    C = np.zeros((0, 0)) if C is None else C
+    C, face, bulk, bulk_x, channel_heat = (_read_only(a) for a in (C, ref + face, bulk, bulk_x, channel_heat))
     return FieldResult(
         sources=tuple(SourceField(s.name, float(s.load), ref + v[0], ref + v[1], v[2], float(u), float(um))
                       for s, v, u, um in zip(sources, values, U, U_mean)),
-        coupling=coupling, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
+        coupling=C, face_x=_read_only(grid.xc), face_y=_read_only(grid.yc), face=face,
         bulk_x=bulk_x, bulk=bulk, channel_heat=channel_heat, heat_to_coolant=heat,
         load=float(loads.sum()), reference=float(ref), hottest=ref + hottest, grid_uncertainty=float(U_hot),
         cells=lv.cells, unknowns=lv.unknowns, iterations=lv.iterations, method=lv.method, level=int(level),
