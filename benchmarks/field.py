@@ -1,7 +1,7 @@
 """Speed and memory of the plate's field solve (coldplate.plate.field), and the choice of its linear solver
 (coldplate.plate.fieldsolver).
 
-Run:  python benchmarks/field.py [--repeat 5] [--examples-only] [--ilu] [--against-lu]
+Run:  python benchmarks/field.py [--repeat 5] [--examples-only | --coupling-only] [--ilu] [--against-lu]
 
 Cases: the review's channel case (tests/test_field.py: 20 copper channels 1 × 3 mm, 300 W over the whole face),
 the example channel plate (examples/reagent-block-channels.toml's plate and channels without plenums, 85 W on
@@ -260,10 +260,15 @@ def main():
     ap.add_argument("--ilu", action="store_true", help="also ILU-preconditioned GMRES (slow: tens of seconds)")
     ap.add_argument("--against-lu", action="store_true",
                     help="the examples' source faces against the same solves on the LU (the largest difference)")
+    ap.add_argument("--coupling-only", action="store_true",
+                    help="only the coupling's price (with against without, interleaved) and peak memory")
     ap.add_argument("--rss-of", choices=sorted(CASES), help=argparse.SUPPRESS)
     args = ap.parse_args()
     if args.rss_of:
         _rss_of(args.rss_of)
+        return
+    if args.coupling_only:
+        coupling_table(args.repeat)
         return
     examples_table(args.repeat, args.against_lu)
     if args.examples_only:
@@ -274,10 +279,18 @@ def main():
     print(f"  every source / the loads alone, linear solver only: LU"
           f" {(s['fact'] + s['backN']) / (s['fact'] + s['back1']):.2f},"
           f" AMG {(s['setup'] + s['amgN']) / (s['setup'] + s['amg1']):.2f}")
+    coupling_table(args.repeat)
+
+
+def coupling_table(repeat):
     for case in ("example8", "three"):
-        w, wo, its_w, its_wo = coupling_price(*CASES[case][1](), max(args.repeat, 7))
-        print(f"  {case}: the default solve with the coupling {w:.3f} s ({its_w} iterations on the default grid),"
-              f" without {wo:.3f} s ({its_wo}): ratio {w / wo:.2f} (the bar: under 2 for 8 sources)")
+        plate, sources, cooling = CASES[case][1]()
+        w, wo, its_w, its_wo = coupling_price(plate, sources, cooling, max(repeat, 7))
+        r = F.solve_field(plate, sources, cooling)
+        print(f"  {case}: {r.cells} cells, {r.unknowns} unknowns, {len(sources)} sources; the default solve with the"
+              f" coupling {w:.3f} s ({its_w} iterations on the default grid), without {wo:.3f} s ({its_wo}):"
+              f" ratio {w / wo:.2f} (the bar: under 2 for 8 sources); peak RSS of a fresh process"
+              f" {peak_rss(case)[1]:.0f} MB")
 
 
 if __name__ == "__main__":

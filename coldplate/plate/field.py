@@ -517,11 +517,13 @@ class _Level:
     unit: np.ndarray | None  # (unknowns, N) each source's field per watt (None: solved at the loads only)
 
 
-def _solve_level(plate, sources, cooling, rules, level, method, loads, per_source=True, below=None) -> _Level:
+def _solve_level(plate, sources, cooling, rules, level, method, loads, per_source=True, below=None,
+                 start_only=False) -> _Level:
     """One grid level at ``loads``: the field at the loads and, with ``per_source``, each source's field per watt
     as well (for the coupling; :func:`fieldsolver.solve_loads`).  Without, one right-hand side (enough for the
     faces' values).  ``below``: the level below solved per source, whose fields start this level's (each cell
-    takes its parent's value: the levels are exact halvings, :func:`_parents`)."""
+    takes its parent's value: the levels are exact halvings, :func:`_parents`).  ``start_only``: this level's
+    own fields serve only to start the next one's (solved to ``fieldsolver.START_RTOL``)."""
     channels, span, lanes = None, None, ()
     if isinstance(cooling, ChannelCooling):
         channels, span = (cooling.count, cooling.width, cooling.depth, cooling.lid), cooling.span
@@ -540,7 +542,8 @@ def _solve_level(plate, sources, cooling, rules, level, method, loads, per_sourc
     B, flux = _source_columns(grid, system, sources)
     if per_source:
         guess = None if below is None or below.unit is None else below.unit[_parents(below.system, system)]
-        x, X, iterations, used = fieldsolver.solve_loads(system.matrix, B, loads, method, guess)
+        x, X, iterations, used = fieldsolver.solve_loads(system.matrix, B, loads, method, guess,
+                                                         fieldsolver.START_RTOL if start_only else None)
     else:
         X, iterations, used = fieldsolver.solve(system.matrix, B @ loads[:, None], method)
         x, X = X[:, 0], None
@@ -644,7 +647,8 @@ def solve_field(plate: FieldPlate, sources: Sequence[FieldSource], cooling, *, l
     # its fields start the requested level's (fieldsolver.solve_loads)
     lc = None
     if uncertainty and level >= 1:
-        lc = _solve_level(plate, sources, cooling, rules, level - 1, method, loads, per_source=coupling)
+        lc = _solve_level(plate, sources, cooling, rules, level - 1, method, loads, per_source=coupling,
+                          start_only=True)
     lv = _solve_level(plate, sources, cooling, rules, level, method, loads, per_source=coupling, below=lc)
     face, values, C = _source_values(lv, sources, loads)
     ref = cooling.fluid if isinstance(cooling, UniformBack) else cooling.inlet

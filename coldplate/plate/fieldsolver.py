@@ -30,11 +30,21 @@ three-source example's default grid: 102,240 cells, 103,808 unknowns, 3 sources)
 - Below :data:`DIRECT_UP_TO` unknowns the LU: there it takes milliseconds, exactly (one source: LU 3, 6, 18 ms
   against AMG 8, 11, 17 ms at 1,600, 2,800, 5,300 unknowns; 71 against 41 ms at 13,600; with several sources
   the crossing moves up, the LU's back-substitutions being cheap).
-- Each further source costs the LU one back-substitution (a few per cent of its factorisation) and the AMG one
-  more GMRES solve (one and a half times its setup): with many sources on a large grid the LU would be faster
-  (the crossing at about 13 sources on the three-source grid, 15 on the 8-source benchmark's), but at 3-4 times
-  the AMG's memory (the 8-source benchmark's 87,120 cells: 421 MB peak against 145 MB, 2.6 s against 1.4 s).
-  The AMG is kept for every source count, which bounds the memory.
+- Several sources (the coupling matrix needs each source's own field): the LU pays one back-substitution per
+  source (a few per cent of its factorisation), the AMG one more GMRES solve per source.  Solving each at the
+  loads' 1e-11 made the 8-source benchmark (87,120 cells) 4.8-5.2 times one right-hand side.  So
+  :func:`solve_loads` solves the field at the loads to :data:`AMG_RTOL` and each source's own field, which only
+  the coupling reads, to :data:`COUPLING_RTOL` (1e-3: 6 iterations a source from zero, 4 from the level below's
+  fields; the coupling within 5e-5 of its largest entry, against a grid uncertainty of about 3 %); the loads'
+  solve then starts from the sources' fields at the loads (12 iterations instead of 17).  Measured with
+  ``benchmarks/field.py --coupling-only`` (interleaved medians, one run): the 8-source benchmark's default solve
+  with the coupling 1.02 s against 0.59 s without it (``coupling=False``), ratio 1.73 (1.84 in another run); the
+  three-source example 1.10.  The LU would have the better ratio (1.02) but at 4.9 s and 358 MB of fill; the
+  AMG is kept for every source count, which bounds the memory (peak 199 MB).  Tried and dropped: block GMRES
+  over the sources (the same 6 steps per source, 2.5 times slower: the sources are local and share little), a
+  single-precision V-cycle for the loose solves (7 % faster, eaten by the cast), smoothing the carried-up
+  fields before GMRES (a sweep saves about its own cost), a pre- or post-smoother alone (1.7 and 12 times the
+  iterations).
 """
 from __future__ import annotations
 
@@ -59,6 +69,9 @@ AMG_OPTIONS = dict(interpolation="direct", presmoother=("gauss_seidel", {"sweep"
 #: Relative residual each source's own field per watt reaches with the AMG when there are several sources (those
 #: fields make the coupling matrix only; the field at the loads is solved to AMG_RTOL): see :func:`solve_loads`.
 COUPLING_RTOL = 1e-3
+#: The same for the level below's own fields when they serve only to start the requested level's (their error
+#: there is the coarser grid's anyway: measured the same iterations on the requested level as from 1e-3).
+START_RTOL = 1e-2
 #: What the coupling then promises: every entry within this share of the matrix's largest entry of the LU's
 #: (measured 4.6e-5 on the 8-source benchmark and 1.1e-4 on the three-source example; tests/test_field.py).
 COUPLING_ACCURACY = 3e-4
@@ -91,25 +104,27 @@ def solve(M, B, method: str = "auto"):
     return X, iterations, "gmres"
 
 
-def solve_loads(M, B, loads, method: str = "auto", guess=None):
+def solve_loads(M, B, loads, method: str = "auto", guess=None, column_rtol=None):
     """Solve for several sources at once: ``M x = B loads`` (the field at the loads) and ``M X = B`` (each
     source's field per watt, for the coupling).  Returns (x, X, Krylov iterations, method used).
 
     The LU is exact for both (x = X loads).  With the AMG, x is solved to :data:`AMG_RTOL` and each column of X
-    to :data:`COUPLING_RTOL` (it serves the coupling matrix only: measured 3e-5 of the largest entry at 1e-3 on
-    the 8-source benchmark, a thousandth of the coupling's grid uncertainty), x starting from X loads; then X
+    to :data:`COUPLING_RTOL` (it serves the coupling matrix only: within :data:`COUPLING_ACCURACY` of the largest
+    entry, against a grid uncertainty of about 3 % on the 8-source benchmark), x starting from X loads; then X
     is moved by the least change that gives X loads = x exactly (``X += (x - X q) q^T / q^T q``), so the
     coupling reproduces the sources' mean faces and no column moves further from its own solution (a projection
     onto matrices that satisfy a relation the exact X satisfies).  One source: X = x / load, both to
     :data:`AMG_RTOL`.  ``guess`` (n, N): where the AMG's columns start (the level below's columns carried up:
-    measured a third fewer iterations on the 8-source benchmark); the LU ignores it."""
+    measured a third fewer iterations on the 8-source benchmark); ``column_rtol``: the columns' tolerance
+    instead of :data:`COUPLING_RTOL` (:data:`START_RTOL` for a level that only starts the next); the LU ignores
+    both."""
     q = np.asarray(loads, float)
     if method not in METHODS:
         raise ValueError(f"unknown method {method!r}: one of {', '.join(METHODS)}")
     if method == "auto":
         method = "direct" if M.shape[0] <= DIRECT_UP_TO else "amg"
     if method == "amg":
-        x, X, iterations = amg_loads(M, B, q, guess)
+        x, X, iterations = amg_loads(M, B, q, guess, column_rtol)
         if x is not None:
             return x, X, iterations, "amg"
         method = "direct"  # not converged: the LU, exact (a slower answer, never a less accurate one)
@@ -153,7 +168,7 @@ def amg(M, B):
     return X, total
 
 
-def amg_loads(M, B, q, guess=None):
+def amg_loads(M, B, q, guess=None, column_rtol=None):
     """The AMG half of :func:`solve_loads`: (x, X, iterations), or (None, None, iterations) when a solve does
     not converge."""
     from scipy.sparse import csr_matrix
@@ -169,7 +184,8 @@ def amg_loads(M, B, q, guess=None):
     X = np.zeros((n, N))
     total = 0
     for m in range(N):
-        col, its = _gmres(A, np.ascontiguousarray(B[:, m], dtype=float), precondition, COUPLING_RTOL,
+        col, its = _gmres(A, np.ascontiguousarray(B[:, m], dtype=float), precondition,
+                          COUPLING_RTOL if column_rtol is None else column_rtol,
                           AMG_RESTART, AMG_MAX_ITERATIONS, x0=None if guess is None else guess[:, m])
         total += its
         if col is None:
