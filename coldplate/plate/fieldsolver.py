@@ -35,7 +35,8 @@ three-source example's default grid: 102,240 cells, 103,808 unknowns, 3 sources)
   loads' 1e-11 made the 8-source benchmark (87,120 cells) 4.8-5.2 times one right-hand side.  So
   :func:`solve_loads` solves the field at the loads to :data:`AMG_RTOL` and each source's own field, which only
   the coupling reads, to :data:`COUPLING_RTOL` (1e-3: 6 iterations a source from zero, 4 from the level below's
-  fields; the coupling within 5e-5 of its largest entry, against a grid uncertainty of about 3 %); the loads'
+  fields; the coupling within 4.6e-5 of its largest entry, 1.1e-4 on the three-source example, against a grid
+  uncertainty of about 3 %); the loads'
   solve then starts from the sources' fields at the loads (12 iterations instead of 17).  Measured with
   ``benchmarks/field.py --coupling-only`` (interleaved medians, one run): the 8-source benchmark's default solve
   with the coupling 1.02 s against 0.59 s without it (``coupling=False``), ratio 1.73 (1.84 in another run); the
@@ -232,8 +233,8 @@ def _dot(a, b) -> float:
 
 def _gmres(A, b, precondition, rtol=AMG_RTOL, restart=AMG_RESTART, maxiter=AMG_MAX_ITERATIONS, x0=None):
     """Restarted GMRES, right-preconditioned (x = P y, the residual of A x minimised), from ``x0`` (None: zero);
-    classical Gram-Schmidt with a second pass where the first lost more than :data:`_REORTHOGONALISE` of the
-    vector (Daniel, Gragg, Kaufman and Stewart 1976); numpy's own loops only (no BLAS: see the module's
+    classical Gram-Schmidt with a second pass where the first left less than :data:`_REORTHOGONALISE` of the
+    vector's norm (Daniel, Gragg, Kaufman and Stewart 1976); numpy's own loops only (no BLAS: see the module's
     docstring).  The preconditioned directions are kept, so the answer costs no further V-cycle.  ``rtol`` is
     relative to ``||b||``.  (x, iterations) or (None, iterations)."""
     n = b.size
