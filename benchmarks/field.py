@@ -156,7 +156,6 @@ def solvers(M, B, loads, repeat, ilu):
     cycle = S._v_cycle(ml)
     out["amg1"] = _median(lambda: S._gmres(A, b.copy(), cycle), repeat)
     out["amg1_its"] = S._gmres(A, b.copy(), cycle)[1]
-    amg_all = out["setup"] + out["amg1"]
     out["amgN"] = _median(lambda: S.amg_loads(M, B, loads), repeat) - out["setup"]  # amg_loads sets up its own
     out["amg_its"] = S.amg_loads(M, B, loads)[2]
     out["amgN_tight"] = _median(lambda: [S._gmres(A, B[:, m].copy(), cycle) for m in range(B.shape[1])], repeat)

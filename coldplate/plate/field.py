@@ -570,7 +570,7 @@ def _parents(coarse: _System, fine: _System) -> np.ndarray:
     """For every unknown of ``fine`` (a level one above ``coarse``: each cell halved on every axis), the unknown
     of ``coarse`` it lies in: a solid cell's parent cell (walls, channels and plenum ends are coarse edges, so a
     solid cell's parent is solid), a coolant node's lane at its parent x cell."""
-    nx, ny, nz = fine.grid.shape
+    nx = fine.grid.shape[0]
     solid = fine.idx >= 0
     i, j, k = np.nonzero(solid)
     out = np.empty(fine.matrix.shape[0], np.int64)
